@@ -1,0 +1,64 @@
+/**
+ * Combining the named features into one score in [0, 1].
+ *
+ * score = sigmoid(bias + sum over features f of weight[f] * feature[f])
+ *
+ * A logistic combination keeps the score in (0, 1), makes each weight readable as the change in
+ * log-odds that a feature brings, and is exactly the model `hawser tune` fits with logistic
+ * regression, so tuned weights drop in without rescaling.
+ */
+import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
+
+/**
+ * Default weights, set by reasoning rather than fitted to any sample (tuning fits them on a team's
+ * own labeled set). Each is the log-odds a perfect feature value adds:
+ * - name features dominate: an unrelated name should never link on context alone;
+ * - exactKey adds a bonus for a full normalized-key match (alias or folded key);
+ * - abbreviation lets "S.G.E." or "J. H. Aldous" reach the threshold although string
+ *   similarity to the full name is low;
+ * - context separates look-alikes (two Aldous, two near-named towns);
+ * - typeMatch is soft: a mismatch lowers the score, it does not block;
+ * - prior breaks ties towards popular entities, weakly.
+ * The bias puts a candidate with middling name similarity and no other evidence below 0.5.
+ */
+export const DEFAULT_WEIGHTS: Weights = {
+  bias: -9,
+  features: {
+    jaroWinkler: 3.5,
+    levenshtein: 2.5,
+    tokenSet: 2.5,
+    abbreviation: 2.5,
+    exactKey: 1.5,
+    context: 3,
+    typeMatch: 1.5,
+    prior: 0.5,
+  },
+};
+
+export function sigmoid(x: number): number {
+  if (x >= 0) return 1 / (1 + Math.exp(-x));
+  const e = Math.exp(x);
+  return e / (1 + e);
+}
+
+/** The linear predictor (log-odds) of a feature vector under the given weights. */
+export function logit(features: Features, weights: Weights): number {
+  let z = weights.bias;
+  for (const name of FEATURE_NAMES) z += (weights.features[name] ?? 0) * features[name];
+  return z;
+}
+
+/** The combined score in [0, 1]. */
+export function combine(features: Features, weights: Weights): number {
+  return sigmoid(logit(features, weights));
+}
+
+/** Each feature's contribution in log-odds, largest first: what the reasons cite. */
+export function contributions(features: Features, weights: Weights): Array<{ feature: string; value: number; weight: number; contribution: number }> {
+  return FEATURE_NAMES.map((name) => ({
+    feature: name,
+    value: features[name],
+    weight: weights.features[name] ?? 0,
+    contribution: (weights.features[name] ?? 0) * features[name],
+  })).sort((a, b) => b.contribution - a.contribution);
+}

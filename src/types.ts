@@ -1,0 +1,131 @@
+/**
+ * Shared data shapes of the hawser pipeline. Every stage folder under `src/` speaks in these
+ * types; the file formats in README.md are their JSON forms.
+ */
+
+/** The normalization class an entity or mention belongs to. Table types and NER labels map onto it. */
+export type EntityClass = "person" | "organization" | "location" | "other";
+
+export const ENTITY_CLASSES: readonly EntityClass[] = ["person", "organization", "location", "other"];
+
+/** One row of the knowledge table, as read and validated by `src/kb/read-table.ts`. */
+export interface EntityRecord {
+  id: string;
+  name: string;
+  /** The table's own type string (e.g. "person", "firm", "town", "vessel"). */
+  type: string;
+  aliases: string[];
+  description: string;
+  /** Popularity (population, mention count...); 0 when absent. */
+  prior: number;
+  /** Every other column. */
+  attributes: Record<string, string>;
+}
+
+/** One mention to link. `line` is the 1-based source line, kept for error messages. */
+export interface Mention {
+  id: string;
+  text: string;
+  /** NER label or table type as given by the input ("PER", "ORG", "person"...). */
+  type?: string | undefined;
+  context?: string | undefined;
+  doc?: string | undefined;
+  start?: number | undefined;
+  end?: number | undefined;
+  /** Sentence number within the document (CoNLL input). */
+  sentence?: number | undefined;
+  /** Token offsets within the document (CoNLL input), end exclusive. */
+  tokenStart?: number | undefined;
+  tokenEnd?: number | undefined;
+  /** Where the mention came from, for error messages. */
+  source?: { file: string; line: number } | undefined;
+}
+
+/** A mention with its correct answer: an entity id, or null for NIL. */
+export interface LabeledMention extends Mention {
+  gold: string | null;
+}
+
+/** Structured explanation attached to a link row. Extra keys carry the values the message cites. */
+export interface Reason {
+  code: string;
+  message: string;
+  [value: string]: unknown;
+}
+
+/** The named features, each in [0, 1]. */
+export interface Features {
+  /** Best Jaro-Winkler similarity between the mention's normalized name and any alias. */
+  jaroWinkler: number;
+  /** Best normalized Levenshtein similarity (1 - distance / longer length) over aliases. */
+  levenshtein: number;
+  /** Best token-set overlap (fuzzy-matched tokens, Dice coefficient) over aliases. */
+  tokenSet: number;
+  /** 1 when the mention is compatible as initials or an acronym of an alias, else 0. */
+  abbreviation: number;
+  /** 1 when a normalized key of the mention equals a key of an alias, else 0. */
+  exactKey: number;
+  /** TF-IDF cosine between the mention's context words and the entity's description and attributes. */
+  context: number;
+  /** Soft compatibility of the mention's label with the entity's type (1 same class, 0 incompatible). */
+  typeMatch: number;
+  /** Log-scaled popularity: log1p(prior) / log1p(max prior in the table). */
+  prior: number;
+}
+
+export type FeatureName = keyof Features;
+
+export const FEATURE_NAMES: readonly FeatureName[] = [
+  "jaroWinkler",
+  "levenshtein",
+  "tokenSet",
+  "abbreviation",
+  "exactKey",
+  "context",
+  "typeMatch",
+  "prior",
+];
+
+/** Which generation path found a candidate. */
+export type CandidatePath = "exact" | "ocr" | "acronym" | "initials" | "fts" | "fuzzy" | "phonetic" | "document";
+
+/** A candidate as it appears in a link row. */
+export interface CandidateOut {
+  entity: string;
+  name: string;
+  score: number;
+  features: Features;
+  paths: CandidatePath[];
+}
+
+/** One output row of `hawser link`, in input order, exactly one per mention. */
+export interface LinkRow {
+  mention: string;
+  text: string;
+  type: string | null;
+  /** Table id of the chosen entity, or null for NIL. */
+  entity: string | null;
+  name: string | null;
+  score: number;
+  margin: number;
+  reasons: Reason[];
+  candidates: CandidateOut[];
+  doc?: string;
+  start?: number;
+  end?: number;
+}
+
+/** Weights of the logistic combination: score = sigmoid(bias + sum(weight[f] * feature[f])). */
+export interface Weights {
+  bias: number;
+  features: Record<FeatureName, number>;
+}
+
+/** The decision settings a config file carries. */
+export interface LinkConfig {
+  weights: Weights;
+  /** Link only when the best score is at least this. */
+  threshold: number;
+  /** Link only when best score minus runner-up score is at least this. */
+  minMargin: number;
+}

@@ -1,0 +1,36 @@
+/**
+ * Errors hawser raises for bad input and bad usage. The CLI maps them to exit codes:
+ * InputError -> 1 (the message names file, line and field), UsageError -> 2.
+ */
+
+/** Where in a file a problem was found. `line` is 1-based; `field` is a column or JSON key. */
+export interface InputLocation {
+  file: string;
+  line?: number | undefined;
+  field?: string | undefined;
+}
+
+/** Bad input data: the message always starts with `file:line` and names the field when known. */
+export class InputError extends Error {
+  readonly file: string;
+  readonly line: number | undefined;
+  readonly field: string | undefined;
+
+  constructor(location: InputLocation, problem: string) {
+    const where = location.line === undefined ? location.file : `${location.file}:${location.line}`;
+    const field = location.field === undefined ? "" : ` field "${location.field}":`;
+    super(`${where}:${field} ${problem}`);
+    this.name = "InputError";
+    this.file = location.file;
+    this.line = location.line;
+    this.field = location.field;
+  }
+}
+
+/** Wrong use of a command or API (unknown option, missing argument, incompatible settings). */
+export class UsageError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "UsageError";
+  }
+}
