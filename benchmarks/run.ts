@@ -1,0 +1,440 @@
+/**
+ * The benchmark runner: generate a synthetic table and labeled mentions, index the table, link
+ * the mentions on one thread, compare candidate generation against a brute-force baseline, and
+ * print one JSON line per measurement on stdout (progress goes to stderr).
+ *
+ *   npm run bench -- --entities N [--mentions M] [--brute-sample S] [--keep DIR]
+ *
+ * Each phase (generate, build, link, brute) runs in its own child process, so the peak resident
+ * set size of a phase is not inflated by what an earlier phase left on the heap.
+ */
+
+import { spawnSync } from "node:child_process";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath, pathToFileURL } from "node:url";
+import { Command } from "commander";
+import { DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
+import { buildKb, createLinker, openKb } from "./core-shim.js";
+import type { LabeledMention } from "../src/types.js";
+import {
+  DEFAULT_SEED,
+  GENERATOR_VERSION,
+  type GenerateManifest,
+  generate,
+  MANIFEST_FILE,
+  MENTIONS_FILE,
+  TABLE_FILE,
+} from "./generate.js";
+import { CompletenessCounter, evenSample, QualityCounter, round, TARGETS, unlabeled } from "./measure.js";
+import { RssSampler } from "./rss.js";
+
+/** Default number of mentions linked. */
+const DEFAULT_MENTIONS = 20_000;
+/** Default number of mentions given to the brute-force baseline (it scores every entity of a class). */
+const DEFAULT_BRUTE_SAMPLE = 200;
+/** Default wall-clock budget of the brute-force phase, seconds: at a million rows it is very slow. */
+const DEFAULT_BRUTE_MAX_SECONDS = 600;
+/**
+ * Mentions linked before timing starts, so JIT compilation and SQLite's page cache warming are
+ * not billed to throughput. They are linked again in the timed pass.
+ */
+const WARMUP_MENTIONS = 500;
+/** RSS checkpoint every this many mentions inside synchronous loops (timers cannot fire there). */
+const CHECKPOINT_EVERY = 256;
+/** Progress line every this share of a loop. */
+const PROGRESS_STEPS = 10;
+/** Largest child stdout accepted (the JSON lines are a few hundred bytes each). */
+const CHILD_MAX_BUFFER = 16 * 1024 * 1024;
+/** Bytes in a mebibyte. */
+const MIB = 1024 * 1024;
+/** KB file name inside the data folder. */
+const KB_FILE = "bench.kb";
+
+type Phase = "generate" | "build" | "link" | "brute";
+
+/** Everything a phase needs; passed to the child as JSON. */
+interface RunConfig {
+  /** Table rows generated. */
+  entities: number;
+  /** Mentions generated and linked. */
+  mentions: number;
+  /** Mentions given to the brute-force baseline; 0 skips it. */
+  bruteSample: number;
+  /** Stop the brute-force phase after this many seconds and report the mentions done. */
+  bruteMaxSeconds: number;
+  /** Generator seed. */
+  seed: number;
+  /** Candidates scored per mention (the linker's maxCandidates; also brute force's top k). */
+  maxCandidates: number;
+  /** Folder holding the generated files and the KB. */
+  dataDir: string;
+}
+
+/** One measurement line. */
+type Measure = { measure: string } & Record<string, unknown>;
+
+function emit(m: Measure): void {
+  process.stdout.write(JSON.stringify(m) + "\n");
+}
+
+function progress(message: string): void {
+  process.stderr.write(`bench: ${message}\n`);
+}
+
+function seconds(startNs: bigint): number {
+  return Number(process.hrtime.bigint() - startNs) / 1e9;
+}
+
+function collectGarbage(): void {
+  const gc = (globalThis as { gc?: () => void }).gc;
+  if (gc !== undefined) gc();
+}
+
+function rssLine(phase: Phase, sampler: RssSampler, extra: Record<string, unknown> = {}): Measure {
+  const { peakMb, samples } = sampler.stop();
+  const line: Measure = { measure: "peak-rss-mb", phase, value: peakMb, samples, ...extra };
+  if (phase === "link") {
+    line.target = TARGETS.linkPeakRssMb;
+    line.meetsTarget = peakMb <= TARGETS.linkPeakRssMb;
+  }
+  return line;
+}
+
+function readLabeled(file: string): LabeledMention[] {
+  const lines = readFileSync(file, "utf8").split("\n");
+  const out: LabeledMention[] = [];
+  lines.forEach((line, i) => {
+    if (line.trim() === "") return;
+    try {
+      out.push(JSON.parse(line) as LabeledMention);
+    } catch (err) {
+      throw new Error(`${file}:${i + 1}: not a JSON object (${(err as Error).message})`);
+    }
+  });
+  return out;
+}
+
+// ---------------------------------------------------------------- phases (run in a child)
+
+function phaseGenerate(cfg: RunConfig): void {
+  collectGarbage();
+  const sampler = new RssSampler().start();
+  const started = process.hrtime.bigint();
+  const manifest = generate({
+    entities: cfg.entities,
+    mentions: cfg.mentions,
+    seed: cfg.seed,
+    out: cfg.dataDir,
+    onProgress: (stage, done, total) => {
+      sampler.checkpoint();
+      progress(`generate ${stage} ${done}/${total}`);
+    },
+  });
+  const secs = seconds(started);
+  emit({
+    measure: "generate",
+    cached: false,
+    entities: manifest.entities,
+    mentions: manifest.mentions,
+    nilMentions: manifest.nilMentions,
+    seconds: round(secs, 2),
+    entitiesPerSecond: Math.round(manifest.entities / secs),
+  });
+  emit(rssLine("generate", sampler));
+}
+
+async function phaseBuild(cfg: RunConfig): Promise<void> {
+  collectGarbage();
+  const sampler = new RssSampler().start();
+  const kbPath = join(cfg.dataDir, KB_FILE);
+  const step = Math.max(1, Math.round(cfg.entities / PROGRESS_STEPS));
+  let nextReport = step;
+  const started = process.hrtime.bigint();
+  const summary = await buildKb({
+    table: join(cfg.dataDir, TABLE_FILE),
+    out: kbPath,
+    from: "csv",
+    onProgress: (rows) => {
+      sampler.checkpoint();
+      if (rows >= nextReport) {
+        progress(`build ${rows}/${cfg.entities}`);
+        nextReport += step;
+      }
+    },
+  });
+  const wall = seconds(started);
+  const entitiesPerSecond = Math.round(summary.entities / wall);
+  emit({
+    measure: "index-build",
+    entities: summary.entities,
+    aliases: summary.aliases,
+    seconds: round(wall, 2),
+    reportedSeconds: round(summary.seconds, 2),
+    entitiesPerSecond,
+    kbMb: round(statSync(kbPath).size / MIB, 1),
+    target: TARGETS.buildEntitiesPerSecond,
+    targetAtEntities: TARGETS.atEntities,
+    meetsTarget: entitiesPerSecond >= TARGETS.buildEntitiesPerSecond,
+  });
+  emit(rssLine("build", sampler));
+}
+
+function phaseLink(cfg: RunConfig): void {
+  const mentions = readLabeled(join(cfg.dataDir, MENTIONS_FILE));
+  const inputs = mentions.map(unlabeled);
+  collectGarbage();
+  const sampler = new RssSampler().start();
+  const kb = openKb(join(cfg.dataDir, KB_FILE));
+  const linker = createLinker(kb, { maxCandidates: cfg.maxCandidates });
+  const warmup = Math.min(WARMUP_MENTIONS, inputs.length);
+  for (let i = 0; i < warmup; i++) linker.link(inputs[i]!);
+  sampler.checkpoint();
+
+  const quality = new QualityCounter();
+  const step = Math.max(1, Math.round(inputs.length / PROGRESS_STEPS));
+  const started = process.hrtime.bigint();
+  for (let i = 0; i < inputs.length; i++) {
+    const row = linker.link(inputs[i]!);
+    quality.add(mentions[i]!.gold, row);
+    if (i % CHECKPOINT_EVERY === 0) sampler.checkpoint();
+    if ((i + 1) % step === 0) progress(`link ${i + 1}/${inputs.length}`);
+  }
+  const linkSeconds = seconds(started);
+
+  const completeness = new CompletenessCounter();
+  for (let i = 0; i < inputs.length; i++) {
+    completeness.add(mentions[i]!.gold, linker.candidateIds(inputs[i]!));
+    if (i % CHECKPOINT_EVERY === 0) sampler.checkpoint();
+  }
+  const mentionsPerSecond = Math.round(inputs.length / linkSeconds);
+  emit({
+    measure: "link",
+    entities: kb.info.entities,
+    mentions: inputs.length,
+    warmupMentions: warmup,
+    seconds: round(linkSeconds, 2),
+    mentionsPerSecond,
+    candidatesPerMention: completeness.candidatesPerMention(),
+    maxCandidates: cfg.maxCandidates,
+    target: TARGETS.linkMentionsPerSecond,
+    targetAtEntities: TARGETS.atEntities,
+    meetsTarget: mentionsPerSecond >= TARGETS.linkMentionsPerSecond,
+  });
+  emit({
+    measure: "pairs-completeness",
+    value: completeness.completeness(),
+    nonNilMentions: completeness.nonNil(),
+    maxCandidates: cfg.maxCandidates,
+  });
+  const q = quality.result();
+  emit({
+    measure: "f1-default",
+    threshold: linker.config.threshold,
+    minMargin: linker.config.minMargin,
+    ...q,
+  });
+  emit(rssLine("link", sampler));
+  kb.close();
+}
+
+function phaseBrute(cfg: RunConfig): void {
+  const all = readLabeled(join(cfg.dataDir, MENTIONS_FILE)).filter((m) => m.gold !== null);
+  const sample = evenSample(all.length, cfg.bruteSample).map((i) => all[i]!);
+  collectGarbage();
+  const sampler = new RssSampler().start();
+  const kb = openKb(join(cfg.dataDir, KB_FILE));
+  // Brute force keeps its top k = maxCandidates, the same budget candidate generation has.
+  const linker = createLinker(kb, { maxCandidates: cfg.maxCandidates, top: cfg.maxCandidates });
+  const brute = new CompletenessCounter();
+  const ours = new CompletenessCounter();
+  let bruteSeconds = 0;
+  let stoppedEarly = false;
+  for (const m of sample) {
+    const input = unlabeled(m);
+    const started = process.hrtime.bigint();
+    const row = linker.bruteForce(input);
+    bruteSeconds += seconds(started);
+    sampler.checkpoint();
+    brute.add(
+      m.gold,
+      row.candidates.map((c) => c.entity),
+    );
+    ours.add(m.gold, linker.candidateIds(input));
+    if (brute.nonNil() % PROGRESS_STEPS === 0) progress(`brute force ${brute.nonNil()}/${sample.length}`);
+    if (bruteSeconds > cfg.bruteMaxSeconds) {
+      stoppedEarly = brute.nonNil() < sample.length;
+      break;
+    }
+  }
+  const done = brute.nonNil();
+  const bruteCompleteness = brute.completeness();
+  const oursCompleteness = ours.completeness();
+  const completenessRatio = bruteCompleteness === 0 ? 0 : round(oursCompleteness / bruteCompleteness);
+  emit({
+    measure: "brute-force",
+    sample: done,
+    requestedSample: cfg.bruteSample,
+    stoppedEarly,
+    k: cfg.maxCandidates,
+    seconds: round(bruteSeconds, 2),
+    mentionsPerSecond: round(done / bruteSeconds, 3),
+    pairsCompleteness: bruteCompleteness,
+    oursPairsCompleteness: oursCompleteness,
+    completenessRatio,
+    completenessTarget: TARGETS.completenessRatio,
+    meetsCompletenessTarget: completenessRatio >= TARGETS.completenessRatio,
+  });
+  emit(rssLine("brute", sampler));
+  kb.close();
+}
+
+async function runPhase(phase: Phase, cfg: RunConfig): Promise<void> {
+  if (phase === "generate") phaseGenerate(cfg);
+  else if (phase === "build") await phaseBuild(cfg);
+  else if (phase === "link") phaseLink(cfg);
+  else phaseBrute(cfg);
+}
+
+// ---------------------------------------------------------------- orchestration (parent)
+
+const THIS_FILE = fileURLToPath(import.meta.url);
+
+/** Runs one phase in a child process and returns its measurement lines. */
+function spawnPhase(phase: Phase, cfg: RunConfig): Measure[] {
+  progress(`phase ${phase}`);
+  const child = spawnSync(
+    process.execPath,
+    ["--expose-gc", THIS_FILE, "--phase", phase, "--config", JSON.stringify(cfg)],
+    { stdio: ["ignore", "pipe", "inherit"], encoding: "utf8", maxBuffer: CHILD_MAX_BUFFER },
+  );
+  if (child.error !== undefined) throw child.error;
+  if (child.status !== 0) throw new Error(`phase ${phase} failed (exit status ${child.status ?? child.signal})`);
+  return child.stdout
+    .split("\n")
+    .filter((line) => line.trim() !== "")
+    .map((line) => JSON.parse(line) as Measure);
+}
+
+function cachedManifest(cfg: RunConfig): GenerateManifest | null {
+  const file = join(cfg.dataDir, MANIFEST_FILE);
+  if (!existsSync(file)) return null;
+  const m = JSON.parse(readFileSync(file, "utf8")) as GenerateManifest;
+  const same =
+    m.generatorVersion === GENERATOR_VERSION &&
+    m.entities === cfg.entities &&
+    m.mentions === cfg.mentions &&
+    m.seed === cfg.seed;
+  return same && existsSync(join(cfg.dataDir, TABLE_FILE)) && existsSync(join(cfg.dataDir, MENTIONS_FILE)) ? m : null;
+}
+
+interface CliOptions {
+  entities: number;
+  mentions: number;
+  bruteSample: number;
+  bruteMaxSeconds: number;
+  seed: number;
+  maxCandidates: number;
+  keep?: string;
+}
+
+async function orchestrate(o: CliOptions): Promise<void> {
+  const keep = o.keep;
+  let dataDir: string;
+  if (keep !== undefined) {
+    dataDir = join(keep, `n${o.entities}-m${o.mentions}-s${o.seed}-v${GENERATOR_VERSION}`);
+    mkdirSync(dataDir, { recursive: true });
+  } else {
+    dataDir = mkdtempSync(join(tmpdir(), "hawser-bench-"));
+  }
+  const cfg: RunConfig = { ...o, dataDir };
+  try {
+    const cached = cachedManifest(cfg);
+    if (cached !== null) {
+      progress(`reusing generated data in ${dataDir}`);
+      emit({
+        measure: "generate",
+        cached: true,
+        entities: cached.entities,
+        mentions: cached.mentions,
+        nilMentions: cached.nilMentions,
+      });
+    } else {
+      spawnPhase("generate", cfg).forEach(emit);
+    }
+    spawnPhase("build", cfg).forEach(emit);
+    const linkLines = spawnPhase("link", cfg);
+    linkLines.forEach(emit);
+    if (cfg.bruteSample > 0) {
+      const linkMps = linkLines.find((l) => l.measure === "link")?.mentionsPerSecond;
+      for (const line of spawnPhase("brute", cfg)) {
+        if (line.measure === "brute-force" && typeof linkMps === "number") {
+          const bruteMps = line.mentionsPerSecond as number;
+          line.speedRatio = bruteMps > 0 ? Math.round(linkMps / bruteMps) : null;
+        }
+        emit(line);
+      }
+    }
+  } finally {
+    if (keep === undefined) rmSync(dataDir, { recursive: true, force: true });
+  }
+}
+
+function intOption(name: string, min: number) {
+  return (value: string): number => {
+    const n = Number(value);
+    if (!/^\d+$/.test(value) || !Number.isSafeInteger(n) || n < min) {
+      process.stderr.write(`bench: option --${name} must be an integer >= ${min}, got "${value}"\n`);
+      process.exit(2);
+    }
+    return n;
+  };
+}
+
+async function main(argv: string[]): Promise<void> {
+  const program = new Command("bench")
+    .description("Benchmark index build, linking throughput, pairs completeness, F1 and memory.")
+    .requiredOption("--entities <n>", "table rows to generate", intOption("entities", 1))
+    .option("--mentions <m>", "labeled mentions to link", intOption("mentions", 1), DEFAULT_MENTIONS)
+    .option(
+      "--brute-sample <s>",
+      "non-NIL mentions for the brute-force baseline (0 skips it)",
+      intOption("brute-sample", 0),
+      DEFAULT_BRUTE_SAMPLE,
+    )
+    .option(
+      "--brute-max-seconds <t>",
+      "stop the brute-force baseline after this many seconds",
+      intOption("brute-max-seconds", 1),
+      DEFAULT_BRUTE_MAX_SECONDS,
+    )
+    .option("--seed <s>", "generator seed", intOption("seed", 0), DEFAULT_SEED)
+    .option(
+      "--max-candidates <k>",
+      "candidates scored per mention (linker maxCandidates, brute-force top k)",
+      intOption("max-candidates", 1),
+      DEFAULT_CANDIDATE_OPTIONS.maxCandidates,
+    )
+    .option("--keep <dir>", "keep generated data and the KB under DIR, reusing data generated before")
+    .option("--phase <phase>", "internal: run one phase in this process")
+    .option("--config <json>", "internal: the phase configuration")
+    .exitOverride((err) => process.exit(err.exitCode === 0 ? 0 : 2));
+  if (argv.includes("--phase")) {
+    const phase = argv[argv.indexOf("--phase") + 1] as Phase;
+    const config = argv[argv.indexOf("--config") + 1];
+    if (config === undefined) throw new Error("--phase needs --config");
+    await runPhase(phase, JSON.parse(config) as RunConfig);
+    return;
+  }
+  program.parse(argv);
+  await orchestrate(program.opts<CliOptions>());
+}
+
+const invokedPath = process.argv[1];
+if (invokedPath !== undefined && import.meta.url === pathToFileURL(invokedPath).href) {
+  main(process.argv).catch((err: unknown) => {
+    process.stderr.write(`bench: ${err instanceof Error ? err.message : String(err)}\n`);
+    process.exit(1);
+  });
+}

@@ -1,0 +1,30 @@
+/** `hawser agree` as a library call: agreement of two labeled files over the same mentions. */
+import { type Agreement, agreement } from "../evaluate/agree.js";
+import { AtomicWriter } from "../util/atomic-file.js";
+import { readLabeled } from "./evaluate.js";
+
+export interface AgreeOptions {
+  /** First annotator's labeled file. */
+  a: string;
+  /** Second annotator's labeled file. */
+  b: string;
+  /** Write the disagreements to adjudicate here (JSONL, atomically). */
+  out?: string;
+}
+
+export async function agree(options: AgreeOptions): Promise<Agreement> {
+  const a = await readLabeled(options.a);
+  const b = await readLabeled(options.b);
+  const result = agreement(a, b, { fileA: options.a, fileB: options.b });
+  if (options.out !== undefined) {
+    const w = new AtomicWriter(options.out);
+    try {
+      for (const d of result.disagreements) await w.write(`${JSON.stringify(d)}\n`);
+      await w.commit();
+    } catch (e) {
+      w.abort();
+      throw e;
+    }
+  }
+  return result;
+}

@@ -1,0 +1,74 @@
+/** `hawser eval` as a library call: link a labeled set (or read predicted rows) and measure. */
+import { type AlignMode, type AlignedEvalReport, alignSpans, evaluateAligned } from "../evaluate/align.js";
+import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
+import { openKb } from "../kb/kb.js";
+import { createLinker } from "../link/linker.js";
+import { readMentions, readJsonLines } from "../read/index.js";
+import type { LabeledMention, LinkRow } from "../types.js";
+import { InputError, UsageError } from "../util/errors.js";
+import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
+
+export interface EvalOptions
+  extends Pick<LinkOptions, "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels" | "from" | "documents" | "window"> {
+  /** KB file. */
+  kb: string;
+  /** Labeled link set: mentions plus `gold` (entity id or null). */
+  gold: string;
+  /**
+   * Predicted link rows (JSONL from `link`) from another NER run; when given, they are aligned
+   * to the gold spans instead of linking the gold mentions.
+   */
+  predicted?: string;
+  /** With `predicted`: `strict` (same boundaries) or `relaxed` (overlap). Default strict. */
+  spanMatch?: AlignMode;
+  /** k of candidate recall at k. Default 3 (the rows' default candidate count). */
+  k?: number;
+}
+
+export async function readLabeled(file: string, options: Parameters<typeof readerOptions>[0] = {}): Promise<LabeledMention[]> {
+  const out: LabeledMention[] = [];
+  for await (const m of readMentions(file, { ...readerOptions(options), labeled: true })) out.push(m);
+  if (out.length === 0) throw new InputError({ file }, "the labeled set is empty");
+  return out;
+}
+
+async function readLinkRows(file: string): Promise<LinkRow[]> {
+  const rows: LinkRow[] = [];
+  for await (const { line, value } of readJsonLines(file)) {
+    const r = value as Partial<LinkRow>;
+    if (typeof r.mention !== "string") throw new InputError({ file, line, field: "mention" }, "a link row needs a mention id");
+    if (r.entity !== null && typeof r.entity !== "string") throw new InputError({ file, line, field: "entity" }, "entity must be an id or null");
+    rows.push({ candidates: [], reasons: [], score: 0, margin: 0, text: "", type: null, name: null, ...r } as LinkRow);
+  }
+  return rows;
+}
+
+export async function evaluate(options: EvalOptions): Promise<EvalReport | AlignedEvalReport> {
+  if (options.spanMatch !== undefined && options.predicted === undefined) {
+    throw new UsageError("--span-match needs --predicted (rows from another NER run to align with the gold spans)");
+  }
+  if (options.spanMatch !== undefined && options.spanMatch !== "strict" && options.spanMatch !== "relaxed") {
+    throw new UsageError(`unknown span match "${options.spanMatch}": use strict or relaxed`);
+  }
+  const gold = await readLabeled(options.gold, options);
+  const k = options.k !== undefined ? { k: options.k } : {};
+  if (options.predicted !== undefined) {
+    const predicted = await readLinkRows(options.predicted);
+    const alignment = alignSpans(gold, predicted, {
+      mode: options.spanMatch ?? "strict",
+      goldFile: options.gold,
+      predictedFile: options.predicted,
+    });
+    return evaluateAligned(alignment, k);
+  }
+  const kb = openKb(options.kb);
+  try {
+    const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
+    return measure(
+      gold.map((m) => ({ gold: m, predicted: linker.link(m) })),
+      k,
+    );
+  } finally {
+    kb.close();
+  }
+}

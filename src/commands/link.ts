@@ -1,0 +1,137 @@
+/** `hawser link` as a library call: link a mentions file against a KB, writing one row per mention. */
+import { openKb } from "../kb/kb.js";
+import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
+import { type LinkerOptions, createLinker } from "../link/linker.js";
+import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
+import { type ReadMentionsOptions, readMentions } from "../read/index.js";
+import { readConfig } from "../tune/config.js";
+import type { CandidatePath, LinkRow } from "../types.js";
+import { AtomicWriter } from "../util/atomic-file.js";
+import { UsageError } from "../util/errors.js";
+import { progress } from "../util/progress.js";
+
+export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
+  /** KB file built by `index`. */
+  kb: string;
+  /** Mentions file (JSONL, CSV, CoNLL, or span rows with `documents`). */
+  mentions: string;
+  /** Output file, written atomically; default: stdout. */
+  out?: string;
+  /** Output format; default: from the `out` extension (`.csv` -> csv), else jsonl. */
+  to?: OutputFormat;
+  /** Tuned config (from `tune`): weights, threshold, margin. */
+  config?: string;
+  /** Use a config tuned on another KB. Default false. */
+  force?: boolean;
+  /** Overrides the config's (or the default 0.5) threshold. */
+  threshold?: number;
+  /** Overrides the config's (or the default 0.05) minimum margin. */
+  minMargin?: number;
+  /** Candidates listed per row; default 3. */
+  top?: number;
+  /** Candidates scored per mention; default 30. */
+  maxCandidates?: number;
+  /** Candidate paths to run; default all. */
+  paths?: CandidatePath[];
+  /** JSON label map file overriding the built-in label sets. */
+  labels?: string;
+  /** Show a progress bar on stderr; default: when stderr is a terminal. */
+  progress?: boolean;
+  /** Where warnings go (unknown labels, ill-formed tags); default: stderr. */
+  warn?: (message: string) => void;
+  /** Where rows go when `out` is not given; default process.stdout. */
+  stdout?: NodeJS.WritableStream;
+}
+
+export interface LinkSummary {
+  mentions: number;
+  linked: number;
+  nil: number;
+  out: string | null;
+  warnings: string[];
+  seconds: number;
+}
+
+/** Build linker options from a config file and explicit overrides (shared by link, eval, demo). */
+export function linkerOptionsFrom(
+  o: Pick<LinkOptions, "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels">,
+  kbFingerprint: string,
+): LinkerOptions {
+  const opts: LinkerOptions = {};
+  if (o.config !== undefined) {
+    const c = readConfig(o.config, { kbFingerprint, force: o.force ?? false });
+    opts.weights = c.weights;
+    opts.threshold = c.threshold;
+    opts.minMargin = c.minMargin;
+  }
+  if (o.threshold !== undefined) opts.threshold = o.threshold;
+  if (o.minMargin !== undefined) opts.minMargin = o.minMargin;
+  if (o.top !== undefined) opts.top = o.top;
+  if (o.maxCandidates !== undefined) opts.maxCandidates = o.maxCandidates;
+  if (o.paths !== undefined) opts.paths = o.paths;
+  opts.labels = o.labels !== undefined ? readLabelMapFile(o.labels) : new LabelMap();
+  return opts;
+}
+
+/** The reader settings among a command's options (only those given, so the reader can check them). */
+export function readerOptions(o: Omit<ReadMentionsOptions, "labeled">): ReadMentionsOptions {
+  const keys = ["from", "documents", "tagColumn", "tokenColumn", "scheme", "contextSentences", "window"] as const;
+  const out: Record<string, unknown> = {};
+  for (const k of keys) if (o[k] !== undefined) out[k] = o[k];
+  return out as ReadMentionsOptions;
+}
+
+export function outputFormat(out: string | undefined, to: string | undefined): OutputFormat {
+  if (to !== undefined) {
+    if (to !== "jsonl" && to !== "csv") throw new UsageError(`unknown output format "${to}": use jsonl or csv`);
+    return to;
+  }
+  return out?.toLowerCase().endsWith(".csv") ? "csv" : "jsonl";
+}
+
+export async function link(options: LinkOptions): Promise<LinkSummary> {
+  const started = Date.now();
+  const format = outputFormat(options.out, options.to);
+  const kb = openKb(options.kb);
+  const warnings: string[] = [];
+  const warn = options.warn ?? ((m: string) => process.stderr.write(`hawser: warning: ${m}\n`));
+  const note = (m: string) => {
+    warnings.push(m);
+    warn(m);
+  };
+  try {
+    const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
+    const source = readMentions(options.mentions, {
+      ...readerOptions(options),
+      onWarning: (w) => note(`${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`),
+    });
+    const writer = options.out !== undefined ? new AtomicWriter(options.out) : null;
+    const stdout = options.stdout ?? process.stdout;
+    const emit = async (s: string) => {
+      if (writer) await writer.write(s);
+      else if (!stdout.write(s)) await new Promise((r) => stdout.once("drain", r));
+    };
+    const bar = progress("linking", options.progress);
+    let n = 0;
+    let linked = 0;
+    try {
+      if (format === "csv") await emit(csvHeader());
+      for await (const row of linker.linkAll(source) as AsyncGenerator<LinkRow>) {
+        n++;
+        if (row.entity !== null) linked++;
+        await emit(format === "csv" ? csvRow(row) : jsonlRow(row));
+        bar.tick();
+      }
+      if (writer) await writer.commit();
+    } catch (e) {
+      writer?.abort();
+      throw e;
+    } finally {
+      bar.stop();
+    }
+    for (const w of linker.labels.warnings()) note(w);
+    return { mentions: n, linked, nil: n - linked, out: options.out ?? null, warnings, seconds: (Date.now() - started) / 1000 };
+  } finally {
+    kb.close();
+  }
+}

@@ -1,0 +1,81 @@
+/** `hawser tune` as a library call: fit weights and choose the operating point on a labeled set. */
+import { writeFileSync, renameSync, rmSync } from "node:fs";
+import { basename, dirname, join } from "node:path";
+import { openKb } from "../kb/kb.js";
+import { createLinker } from "../link/linker.js";
+import { configFromTune, type TunedConfig, writeConfig } from "../tune/config.js";
+import { renderReport } from "../tune/report-html.js";
+import { type TuneResult, tune as fit } from "../tune/tune.js";
+import type { Objective, ScoredMention } from "../tune/types.js";
+import { UsageError } from "../util/errors.js";
+import { readLabeled } from "./evaluate.js";
+import { type LinkOptions, linkerOptionsFrom } from "./link.js";
+
+export interface TuneCommandOptions extends Pick<LinkOptions, "maxCandidates" | "paths" | "labels" | "from" | "documents" | "window"> {
+  kb: string;
+  /** Labeled link set. */
+  gold: string;
+  /** Config file to write (JSON). */
+  out: string;
+  /** Choose the highest recall whose precision is at least this; default: highest F1. */
+  minPrecision?: number;
+  /** Self-contained HTML report to write. */
+  report?: string;
+  /** Cross-validation folds. Default 5. */
+  folds?: number;
+  /** Seed of the fold assignment. Default 1. */
+  seed?: number;
+  /** L2 penalty of the logistic fit. Default 1. */
+  l2?: number;
+}
+
+export interface TuneCommandResult {
+  config: TunedConfig;
+  result: TuneResult;
+}
+
+/** Every candidate the linker scores for each labeled mention: the training data of tuning. */
+export function scoredMentionsFor(linker: ReturnType<typeof createLinker>, gold: Awaited<ReturnType<typeof readLabeled>>): ScoredMention[] {
+  return gold.map((m) => ({
+    mention: m,
+    candidates: linker.scoreCandidates(m).map((c) => ({ entity: c.entity.id, features: c.features, name: c.entity.name })),
+  }));
+}
+
+export async function tune(options: TuneCommandOptions): Promise<TuneCommandResult> {
+  if (options.minPrecision !== undefined && !(options.minPrecision > 0 && options.minPrecision <= 1)) {
+    throw new UsageError(`--min-precision must be in (0, 1], got ${options.minPrecision}`);
+  }
+  const gold = await readLabeled(options.gold, options);
+  const kb = openKb(options.kb);
+  try {
+    const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
+    const data = scoredMentionsFor(linker, gold);
+    const objective: Objective = options.minPrecision !== undefined ? "recall-at-precision" : "f1";
+    const result = fit(data, {
+      objective,
+      ...(options.minPrecision !== undefined ? { minPrecision: options.minPrecision } : {}),
+      ...(options.folds !== undefined ? { folds: options.folds } : {}),
+      ...(options.seed !== undefined ? { seed: options.seed } : {}),
+      ...(options.l2 !== undefined ? { l2: options.l2 } : {}),
+    });
+    const kbRef = { fingerprint: kb.info.fingerprint, entities: kb.info.entities };
+    const created = new Date();
+    const config = configFromTune(result, kbRef, created);
+    writeConfig(options.out, config);
+    if (options.report !== undefined) {
+      const html = renderReport({ tune: result, kb: kbRef, created: created.toISOString() });
+      const tmp = join(dirname(options.report), `.${basename(options.report)}.tmp-${process.pid}`);
+      try {
+        writeFileSync(tmp, html, "utf8");
+        renameSync(tmp, options.report);
+      } catch (e) {
+        rmSync(tmp, { force: true });
+        throw e;
+      }
+    }
+    return { config, result };
+  } finally {
+    kb.close();
+  }
+}

@@ -1,0 +1,66 @@
+/** A plain, aligned text table of an evaluation report, for a terminal. */
+import type { EvalReport, Figures } from "./metrics.js";
+
+/** Decimal places of fractions in the table: enough to tell 1 error in 1000 apart. */
+const FRACTION_DIGITS = 3;
+/** Spaces between columns. */
+const COLUMN_GAP = "  ";
+
+function fraction(x: number): string {
+  return x.toFixed(FRACTION_DIGITS);
+}
+
+/** Lay out rows as columns: first column left-aligned, the others right-aligned. */
+export function alignColumns(rows: readonly string[][]): string {
+  const widths: number[] = [];
+  for (const row of rows)
+    row.forEach((cell, i) => {
+      widths[i] = Math.max(widths[i] ?? 0, cell.length);
+    });
+  return rows
+    .map((row) =>
+      row
+        .map((cell, i) => (i === 0 ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!)))
+        .join(COLUMN_GAP)
+        .trimEnd(),
+    )
+    .join("\n");
+}
+
+function figureRow(label: string, f: Figures): string[] {
+  return [
+    label,
+    String(f.mentions),
+    fraction(f.accuracy),
+    fraction(f.linkPrecision),
+    fraction(f.linkRecall),
+    fraction(f.linkF1),
+    fraction(f.nilPrecision),
+    fraction(f.nilRecall),
+  ];
+}
+
+export function formatEvalTable(report: EvalReport): string {
+  const header = ["type", "mentions", "accuracy", "link P", "link R", "link F1", "NIL P", "NIL R"];
+  const rows = [header, ...Object.entries(report.byType).map(([t, f]) => figureRow(t, f))];
+  rows.push(figureRow("all", report.overall));
+  const cr = report.candidateRecall;
+  const e = report.errorCounts;
+  const lines = [
+    alignColumns(rows),
+    "",
+    alignColumns([
+      ["candidate recall", "found", "of", "fraction"],
+      [`at ${cr.k}`, String(cr.foundAtK), String(cr.goldLinks), fraction(cr.atK)],
+      ["at all returned", String(cr.foundAtAll), String(cr.goldLinks), fraction(cr.atAll)],
+    ]),
+    "",
+    alignColumns([
+      ["errors", "count"],
+      ["wrong entity", String(e.wrongEntity)],
+      ["false link", String(e.falseLink)],
+      ["missed link", String(e.missedLink)],
+    ]),
+  ];
+  return lines.join("\n") + "\n";
+}

@@ -1,0 +1,235 @@
+/**
+ * `hawser index`: stream a knowledge table into a new KB file, atomically. The build writes a
+ * temporary file next to the target and renames it into place only when everything succeeded;
+ * any failure removes the temporary file, so no partial KB is ever left behind.
+ */
+import { createHash } from "node:crypto";
+import { createReadStream, existsSync, renameSync, rmSync } from "node:fs";
+import { basename, dirname, join } from "node:path";
+import Database from "better-sqlite3";
+import { LabelMap } from "../labels/label-map.js";
+import { NORMALIZER_VERSION, normalizeName } from "../normalize/name.js";
+import { contextTerms } from "../score/terms.js";
+import type { EntityRecord } from "../types.js";
+import { InputError } from "../util/errors.js";
+import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
+import { readTable, tableFormatOf } from "./read-table.js";
+import { INDEX_SQL, KB_FORMAT, type KeyKind, SCHEMA_SQL, SCHEMA_VERSION } from "./schema.js";
+
+export interface BuildKbOptions {
+  /** The knowledge table: CSV (header row), TSV or JSONL. */
+  table: string;
+  /** Where to write the KB file. An existing file is replaced only when the build succeeds. */
+  out: string;
+  /** Table format; default: from the file extension. */
+  from?: "csv" | "tsv" | "jsonl";
+  /** Label map used to reach an entity class from each table type; default: the built-in map. */
+  labels?: LabelMap;
+  /** Called every `progressEvery` rows with the number of rows read so far. */
+  onProgress?: (rows: number) => void;
+  /** Rows between progress calls; default 10,000. */
+  progressEvery?: number;
+}
+
+export interface BuildSummary {
+  entities: number;
+  aliases: number;
+  keys: number;
+  vocabulary: number;
+  contextTerms: number;
+  byClass: Record<string, number>;
+  /** Table types the label map does not know (they were indexed as class "other"), with counts. */
+  unknownTypes: Record<string, number>;
+  fingerprint: string;
+  seconds: number;
+}
+
+const DEFAULT_PROGRESS_EVERY = 10_000;
+
+/** Everything the indexer derives from one record before writing it. */
+function aliasForms(record: EntityRecord, cls: ReturnType<LabelMap["classOfTableType"]>) {
+  const texts = [record.name, ...record.aliases];
+  return texts.map((text, i) => ({ text, canonical: i === 0, n: normalizeName(text, cls) }));
+}
+
+export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
+  const started = process.hrtime.bigint();
+  tableFormatOf(options.table, options.from); // usage errors before any file is touched
+  if (!existsSync(options.table)) throw new InputError({ file: options.table }, "no such file");
+  const labels = options.labels ?? new LabelMap();
+  const tmp = join(dirname(options.out), `.${basename(options.out)}.tmp-${process.pid}-${Date.now()}`);
+  const db = new Database(tmp);
+  let ok = false;
+  try {
+    // The temporary file is private until renamed, so durability pragmas buy nothing during the build.
+    db.pragma("journal_mode = OFF");
+    db.pragma("synchronous = OFF");
+    db.pragma("locking_mode = EXCLUSIVE");
+    db.pragma("temp_store = MEMORY");
+    db.pragma("cache_size = -262144"); // 256 MiB page cache for the bulk load
+    db.exec(SCHEMA_SQL);
+    const summary = await load(db, options, labels);
+    const sourceSha = await sha256File(options.table);
+    const fingerprint = createHash("sha256")
+      .update(`${KB_FORMAT}\n${SCHEMA_VERSION}\n${NORMALIZER_VERSION}\n${sourceSha}\n${summary.entities}`)
+      .digest("hex")
+      .slice(0, 32);
+    const meta = db.prepare("INSERT INTO meta (key, value) VALUES (?, ?)");
+    const facts: Record<string, string | number> = {
+      format: KB_FORMAT,
+      schema_version: SCHEMA_VERSION,
+      normalizer_version: NORMALIZER_VERSION,
+      source_file: basename(options.table),
+      source_sha256: sourceSha,
+      fingerprint,
+      entities: summary.entities,
+      aliases: summary.aliases,
+      keys: summary.keys,
+      vocabulary: summary.vocabulary,
+      context_terms: summary.contextTerms,
+      context_docs: summary.entities,
+      max_prior: summary.maxPrior,
+      by_class: JSON.stringify(summary.byClass),
+      created: new Date().toISOString(),
+    };
+    db.transaction(() => {
+      for (const [k, v] of Object.entries(facts)) meta.run(k, String(v));
+    })();
+    db.exec(INDEX_SQL);
+    db.exec("INSERT INTO alias_fts(alias_fts) VALUES ('optimize')");
+    db.exec("ANALYZE");
+    db.close();
+    renameSync(tmp, options.out);
+    ok = true;
+    const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+    return {
+      entities: summary.entities,
+      aliases: summary.aliases,
+      keys: summary.keys,
+      vocabulary: summary.vocabulary,
+      contextTerms: summary.contextTerms,
+      byClass: summary.byClass,
+      unknownTypes: summary.unknownTypes,
+      fingerprint,
+      seconds,
+    };
+  } finally {
+    if (!ok) {
+      if (db.open) db.close();
+      rmSync(tmp, { force: true });
+    }
+  }
+}
+
+interface LoadSummary {
+  entities: number;
+  aliases: number;
+  keys: number;
+  vocabulary: number;
+  contextTerms: number;
+  maxPrior: number;
+  byClass: Record<string, number>;
+  unknownTypes: Record<string, number>;
+}
+
+/** Rows written per transaction: large enough to amortize commits, small enough to bound memory. */
+const ROWS_PER_TRANSACTION = 20_000;
+
+async function load(db: Database.Database, options: BuildKbOptions, labels: LabelMap): Promise<LoadSummary> {
+  const insEntity = db.prepare(
+    "INSERT INTO entities (eid, id, name, type, class, description, prior, attributes, terms) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
+  );
+  const insAlias = db.prepare("INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)");
+  const insKey = db.prepare("INSERT INTO keys (key, class, kind, aid) VALUES (?, ?, ?, ?)");
+  const insFts = db.prepare("INSERT INTO alias_fts (rowid, tokens) VALUES (?, ?)");
+  const vocab = new Map<string, number>();
+  const termDf = new Map<string, number>();
+  const byClass: Record<string, number> = {};
+  const unknownTypes: Record<string, number> = {};
+  let eid = 0;
+  let aid = 0;
+  let keys = 0;
+  let maxPrior = 0;
+  let batch: EntityRecord[] = [];
+  const every = options.progressEvery ?? DEFAULT_PROGRESS_EVERY;
+
+  const writeBatch = db.transaction((records: EntityRecord[]) => {
+    for (const r of records) {
+      eid++;
+      const cls = labels.classOfTableType(r.type);
+      if (!labels.knowsTableType(r.type)) unknownTypes[r.type] = (unknownTypes[r.type] ?? 0) + 1;
+      byClass[cls] = (byClass[cls] ?? 0) + 1;
+      if (r.prior > maxPrior) maxPrior = r.prior;
+      const attrText = Object.values(r.attributes).join(" ");
+      const terms = contextTerms(`${r.description} ${attrText}`).sort();
+      for (let i = 0; i < terms.length; i++) {
+        if (i === 0 || terms[i] !== terms[i - 1]) termDf.set(terms[i]!, (termDf.get(terms[i]!) ?? 0) + 1);
+      }
+      insEntity.run(eid, r.id, r.name, r.type, cls, r.description, r.prior, JSON.stringify(r.attributes), terms.join(" "));
+      const seenKeys = new Set<string>();
+      const entityTokens = new Set<string>();
+      for (const a of aliasForms(r, cls)) {
+        if (a.n.key === "") continue;
+        aid++;
+        insAlias.run(aid, eid, a.text, a.n.key, a.n.full, a.n.ocrKey, a.canonical ? 1 : 0);
+        insFts.run(aid, a.n.key);
+        for (const t of a.n.tokens) entityTokens.add(t);
+        const add = (key: string | null, kind: KeyKind) => {
+          if (key === null || key === "") return;
+          const dedupe = `${kind}\u0000${key}`;
+          if (seenKeys.has(dedupe)) return;
+          seenKeys.add(dedupe);
+          insKey.run(key, cls, kind, aid);
+          keys++;
+        };
+        add(a.n.key, "exact");
+        add(a.n.ocrKey, "ocr");
+        add(a.n.acronymKey, "acronym");
+        if (a.n.acronym !== null) add(a.n.acronym, "acronym");
+        add(a.n.initialsKey, "initials");
+      }
+      for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
+    }
+  });
+
+  let rows = 0;
+  for await (const { record } of readTable(options.table, options.from)) {
+    batch.push(record);
+    rows++;
+    if (batch.length >= ROWS_PER_TRANSACTION) {
+      writeBatch(batch);
+      batch = [];
+    }
+    if (options.onProgress && rows % every === 0) options.onProgress(rows);
+  }
+  if (batch.length > 0) writeBatch(batch);
+  if (rows === 0) throw new InputError({ file: options.table }, "the table has no rows");
+  options.onProgress?.(rows);
+
+  const insVocab = db.prepare("INSERT INTO vocab (token, df) VALUES (?, ?)");
+  const insDelete = db.prepare("INSERT OR IGNORE INTO deletes (variant, token) VALUES (?, ?)");
+  const insIdf = db.prepare("INSERT INTO idf (term, df) VALUES (?, ?)");
+  db.transaction(() => {
+    for (const [token, df] of vocab) {
+      insVocab.run(token, df);
+      if (token.length >= FUZZY_MIN_TOKEN_LENGTH) for (const v of deletionVariants(token)) insDelete.run(v, token);
+    }
+    for (const [term, df] of termDf) insIdf.run(term, df);
+  })();
+  return {
+    entities: eid,
+    aliases: aid,
+    keys,
+    vocabulary: vocab.size,
+    contextTerms: termDf.size,
+    maxPrior,
+    byClass,
+    unknownTypes,
+  };
+}
+
+async function sha256File(file: string): Promise<string> {
+  const hash = createHash("sha256");
+  for await (const chunk of createReadStream(file)) hash.update(chunk as Buffer);
+  return hash.digest("hex");
+}

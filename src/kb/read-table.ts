@@ -1,0 +1,154 @@
+/**
+ * Streaming reader and validator of the knowledge table (CSV with header, TSV, or JSONL).
+ * Every problem is an InputError naming the file, line and column.
+ */
+import { createReadStream } from "node:fs";
+import { extname } from "node:path";
+import { type CsvError, parse } from "csv-parse";
+import type { EntityRecord } from "../types.js";
+import { InputError, UsageError } from "../util/errors.js";
+import { Utf8Check } from "../util/utf8-check.js";
+
+export type TableFormat = "csv" | "tsv" | "jsonl";
+
+/** The columns with a meaning of their own; every other column is an attribute. */
+export const RESERVED_COLUMNS = ["id", "name", "type", "aliases", "description", "prior"] as const;
+const REQUIRED_COLUMNS = ["id", "name", "type"] as const;
+/** Separator of aliases inside one CSV/TSV cell. */
+export const ALIAS_SEPARATOR = "|";
+
+export interface TableRow {
+  record: EntityRecord;
+  line: number;
+}
+
+export function tableFormatOf(file: string, from?: string): TableFormat {
+  const f = (from ?? extname(file).slice(1)).toLowerCase();
+  if (f === "csv") return "csv";
+  if (f === "tsv" || f === "tab") return "tsv";
+  if (f === "jsonl" || f === "ndjson") return "jsonl";
+  throw new UsageError(
+    from === undefined
+      ? `cannot tell the table format of ${file} from its extension: use .csv, .tsv or .jsonl, or give --from csv|tsv|jsonl`
+      : `unknown table format "${from}": use csv, tsv or jsonl`,
+  );
+}
+
+/** Validates and builds one record; `get` reads a column's raw value. Shared by all formats. */
+class RowValidator {
+  private readonly seen = new Set<string>();
+  constructor(private readonly file: string) {}
+
+  build(line: number, raw: Record<string, unknown>, aliasesRaw: unknown): EntityRecord {
+    const file = this.file;
+    const str = (field: string): string => {
+      const v = raw[field];
+      if (v === undefined || v === null) return "";
+      if (typeof v === "string") return v.trim();
+      if (typeof v === "number" || typeof v === "boolean") return String(v);
+      throw new InputError({ file, line, field }, `expected text, got ${Array.isArray(v) ? "an array" : typeof v}`);
+    };
+    for (const field of REQUIRED_COLUMNS) {
+      if (str(field) === "") throw new InputError({ file, line, field }, `missing ${field}: every row needs id, name and type`);
+    }
+    const id = str("id");
+    if (this.seen.has(id)) throw new InputError({ file, line, field: "id" }, `duplicate id "${id}"`);
+    this.seen.add(id);
+    const name = str("name");
+    let prior = 0;
+    const priorRaw = raw.prior;
+    if (priorRaw !== undefined && priorRaw !== null && priorRaw !== "") {
+      prior = typeof priorRaw === "number" ? priorRaw : Number(String(priorRaw).trim());
+      if (typeof priorRaw === "boolean" || !Number.isFinite(prior)) {
+        throw new InputError({ file, line, field: "prior" }, `prior must be a number, got "${String(priorRaw)}"`);
+      }
+      if (prior < 0) throw new InputError({ file, line, field: "prior" }, `prior must be >= 0, got ${prior}`);
+    }
+    const aliases = this.aliases(line, aliasesRaw, name);
+    const attributes: Record<string, string> = {};
+    for (const [k, v] of Object.entries(raw)) {
+      if ((RESERVED_COLUMNS as readonly string[]).includes(k) || v === undefined || v === null) continue;
+      const s = typeof v === "string" ? v.trim() : typeof v === "object" ? JSON.stringify(v) : String(v);
+      if (s !== "") attributes[k] = s;
+    }
+    return { id, name, type: str("type"), aliases, description: str("description"), prior, attributes };
+  }
+
+  private aliases(line: number, v: unknown, name: string): string[] {
+    let list: string[];
+    if (v === undefined || v === null || v === "") list = [];
+    else if (typeof v === "string") list = v.split(ALIAS_SEPARATOR);
+    else if (Array.isArray(v)) {
+      list = v.map((a, i) => {
+        if (typeof a !== "string") throw new InputError({ file: this.file, line, field: `aliases[${i}]` }, "aliases must be strings");
+        return a;
+      });
+    } else throw new InputError({ file: this.file, line, field: "aliases" }, "aliases must be an array of strings or a |-separated string");
+    const out: string[] = [];
+    const seen = new Set<string>([name]);
+    for (const a of list) {
+      const t = a.trim();
+      if (t === "" || seen.has(t)) continue;
+      seen.add(t);
+      out.push(t);
+    }
+    return out;
+  }
+}
+
+async function* readDelimited(file: string, delimiter: string): AsyncGenerator<TableRow> {
+  const validator = new RowValidator(file);
+  const parser = parse({
+    delimiter,
+    columns: (header: string[]) => {
+      const cols = header.map((h) => h.trim());
+      for (const c of REQUIRED_COLUMNS) {
+        if (!cols.includes(c)) throw new InputError({ file, line: 1, field: c }, `the header has no "${c}" column (found: ${cols.join(", ")})`);
+      }
+      const dup = cols.find((c, i) => cols.indexOf(c) !== i);
+      if (dup !== undefined) throw new InputError({ file, line: 1, field: dup }, `column "${dup}" appears twice in the header`);
+      return cols;
+    },
+    info: true,
+    relax_quotes: false,
+    skip_empty_lines: true,
+    quote: delimiter === "\t" ? false : '"',
+  });
+  const source = createReadStream(file);
+  const check = new Utf8Check(file);
+  source.on("error", (e) => parser.destroy(e));
+  check.on("error", (e) => parser.destroy(e));
+  source.pipe(check).pipe(parser);
+  try {
+    for await (const item of parser as AsyncIterable<{ record: Record<string, string>; info: { lines: number } }>) {
+      const line = item.info.lines;
+      yield { record: validator.build(line, item.record, item.record.aliases), line };
+    }
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    const ce = e as CsvError & { lines?: number; code?: string };
+    if (ce.code === "CSV_RECORD_INCONSISTENT_FIELDS_LENGTH" || ce.code === "CSV_RECORD_INCONSISTENT_COLUMNS") {
+      throw new InputError({ file, line: ce.lines }, `wrong number of fields: ${ce.message.replace(/^Invalid Record Length: /, "")}`);
+    }
+    if (typeof ce.code === "string" && ce.code.startsWith("CSV_")) throw new InputError({ file, line: ce.lines }, ce.message);
+    throw e;
+  } finally {
+    source.destroy();
+  }
+}
+
+async function* readJsonlTable(file: string): AsyncGenerator<TableRow> {
+  const { readJsonLines } = await import("../read/jsonl.js");
+  const validator = new RowValidator(file);
+  for await (const { line, value } of readJsonLines(file)) {
+    const obj = value as Record<string, unknown>;
+    yield { record: validator.build(line, obj, obj.aliases), line };
+  }
+}
+
+/** Stream the validated rows of a knowledge table. */
+export function readTable(file: string, from?: string): AsyncGenerator<TableRow> {
+  const format = tableFormatOf(file, from);
+  if (format === "jsonl") return readJsonlTable(file);
+  return readDelimited(file, format === "tsv" ? "\t" : ",");
+}

@@ -1,0 +1,58 @@
+/**
+ * The KB file: one SQLite database. Version 1 of the schema.
+ *
+ * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
+ *   counts, fingerprint, largest prior, number of context documents).
+ * - entities: one row per table row; `terms` holds the stemmed context words of the description
+ *   and attributes (sorted, repeated per occurrence) from which TF-IDF vectors are built.
+ * - aliases: the canonical name and every alias, with their normalized key and full forms.
+ * - keys: blocking keys per alias and class: exact, ocr, acronym, initials.
+ * - alias_fts: FTS5 over alias core tokens (contentless; rowid = alias id).
+ * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
+ *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
+ * - idf: document frequency of each context term.
+ */
+
+/** Identifies a hawser KB among SQLite files. */
+export const KB_FORMAT = "hawser-kb";
+/** Bumped on any incompatible schema change; a KB with a newer version is refused. */
+export const SCHEMA_VERSION = 1;
+
+export const SCHEMA_SQL = `
+CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL) WITHOUT ROWID;
+CREATE TABLE entities (
+  eid INTEGER PRIMARY KEY,
+  id TEXT NOT NULL,
+  name TEXT NOT NULL,
+  type TEXT NOT NULL,
+  class TEXT NOT NULL,
+  description TEXT NOT NULL,
+  prior REAL NOT NULL,
+  attributes TEXT NOT NULL,
+  terms TEXT NOT NULL
+);
+CREATE TABLE aliases (
+  aid INTEGER PRIMARY KEY,
+  eid INTEGER NOT NULL,
+  text TEXT NOT NULL,
+  key TEXT NOT NULL,
+  full TEXT NOT NULL,
+  ocr TEXT NOT NULL,
+  canonical INTEGER NOT NULL
+);
+CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, aid INTEGER NOT NULL);
+CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', detail=column, tokenize='unicode61 remove_diacritics 0');
+CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
+CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
+CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
+`;
+
+/** Indexes created after the bulk load (faster than maintaining them row by row). */
+export const INDEX_SQL = `
+CREATE UNIQUE INDEX entities_id ON entities(id);
+CREATE INDEX aliases_eid ON aliases(eid);
+CREATE INDEX keys_lookup ON keys(key, class, kind);
+`;
+
+/** Key kinds stored in `keys.kind`. */
+export type KeyKind = "exact" | "ocr" | "acronym" | "initials";

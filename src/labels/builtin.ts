@@ -1,0 +1,105 @@
+/**
+ * Built-in label sets: how NER labels and table type spellings reach an entity class.
+ *
+ * - CoNLL-2003 shared task: PER, ORG, LOC, MISC (from memory).
+ * - OntoNotes 5: PERSON, NORP, FAC, ORG, GPE, LOC, PRODUCT, EVENT, WORK_OF_ART, LAW, LANGUAGE,
+ *   DATE, TIME, PERCENT, MONEY, QUANTITY, ORDINAL, CARDINAL (from memory).
+ * - Common spellings of table types (person, firm, company, town, place, vessel...).
+ *
+ * Each label maps to a class and a row of compatibility weights against entity classes, so that
+ * confusable types are penalized rather than blocked: GPE vs organization (a town council, a
+ * firm named after its town), LOC vs FAC, ORG vs person (a firm named after its founder).
+ */
+import type { EntityClass } from "../types.js";
+
+/** Compatibility of a label with each entity class, 0 (incompatible) to 1 (same class). */
+export type CompatRow = Record<EntityClass, number>;
+
+export interface LabelInfo {
+  /** The class a mention with this label is normalized as. */
+  cls: EntityClass;
+  /** False for numeric and date labels: such mentions are not linked (NIL with reason `not-linkable`). */
+  linkable: boolean;
+  compat: CompatRow;
+}
+
+/** Weights for a person label: firms are often named after people, vessels too. */
+const PERSON_ROW: CompatRow = { person: 1, organization: 0.3, location: 0.15, other: 0.3 };
+/** Organizations: often named after a town (GPE/ORG confusion is the most common NER type error). */
+const ORG_ROW: CompatRow = { person: 0.25, organization: 1, location: 0.5, other: 0.45 };
+/** Places: towns are confused with their councils and firms, and with facilities. */
+const LOC_ROW: CompatRow = { person: 0.15, organization: 0.5, location: 1, other: 0.45 };
+/** GPE (geo-political entity): a place that acts; closer to organization than LOC is. */
+const GPE_ROW: CompatRow = { person: 0.15, organization: 0.6, location: 1, other: 0.35 };
+/** FAC (facility: wharves, bridges, buildings): between places and other things. */
+const FAC_ROW: CompatRow = { person: 0.1, organization: 0.45, location: 0.8, other: 0.8 };
+/** MISC, products, events, works: anything but most often an "other" entity (a vessel). */
+const MISC_ROW: CompatRow = { person: 0.35, organization: 0.45, location: 0.4, other: 1 };
+/** NORP (nationalities, religious or political groups): weakly linked to places and organizations. */
+const NORP_ROW: CompatRow = { person: 0.1, organization: 0.5, location: 0.5, other: 0.6 };
+/** Not linkable: zero everywhere. */
+const NONE_ROW: CompatRow = { person: 0, organization: 0, location: 0, other: 0 };
+
+function info(cls: EntityClass, compat: CompatRow, linkable = true): LabelInfo {
+  return { cls, compat, linkable };
+}
+
+/** Folded label (lowercase, `-`/space -> `_`) -> info. */
+export const BUILTIN_LABELS: ReadonlyMap<string, LabelInfo> = new Map<string, LabelInfo>([
+  // CoNLL-2003
+  ["per", info("person", PERSON_ROW)],
+  ["org", info("organization", ORG_ROW)],
+  ["loc", info("location", LOC_ROW)],
+  ["misc", info("other", MISC_ROW)],
+  // OntoNotes 5
+  ["person", info("person", PERSON_ROW)],
+  ["norp", info("other", NORP_ROW)],
+  ["fac", info("location", FAC_ROW)],
+  ["gpe", info("location", GPE_ROW)],
+  ["product", info("other", MISC_ROW)],
+  ["event", info("other", MISC_ROW)],
+  ["work_of_art", info("other", MISC_ROW)],
+  ["law", info("other", MISC_ROW)],
+  ["language", info("other", MISC_ROW)],
+  ["date", info("other", NONE_ROW, false)],
+  ["time", info("other", NONE_ROW, false)],
+  ["percent", info("other", NONE_ROW, false)],
+  ["money", info("other", NONE_ROW, false)],
+  ["quantity", info("other", NONE_ROW, false)],
+  ["ordinal", info("other", NONE_ROW, false)],
+  ["cardinal", info("other", NONE_ROW, false)],
+  // Table type spellings
+  ["pers", info("person", PERSON_ROW)],
+  ["people", info("person", PERSON_ROW)],
+  ["individual", info("person", PERSON_ROW)],
+  ["human", info("person", PERSON_ROW)],
+  ["organization", info("organization", ORG_ROW)],
+  ["organisation", info("organization", ORG_ROW)],
+  ["company", info("organization", ORG_ROW)],
+  ["firm", info("organization", ORG_ROW)],
+  ["business", info("organization", ORG_ROW)],
+  ["corporation", info("organization", ORG_ROW)],
+  ["institution", info("organization", ORG_ROW)],
+  ["agency", info("organization", ORG_ROW)],
+  ["location", info("location", LOC_ROW)],
+  ["place", info("location", LOC_ROW)],
+  ["town", info("location", GPE_ROW)],
+  ["city", info("location", GPE_ROW)],
+  ["village", info("location", GPE_ROW)],
+  ["county", info("location", GPE_ROW)],
+  ["country", info("location", GPE_ROW)],
+  ["region", info("location", LOC_ROW)],
+  ["river", info("location", LOC_ROW)],
+  ["geo", info("location", LOC_ROW)],
+  ["facility", info("location", FAC_ROW)],
+  ["wharf", info("location", FAC_ROW)],
+  ["building", info("location", FAC_ROW)],
+  ["vessel", info("other", MISC_ROW)],
+  ["ship", info("other", MISC_ROW)],
+  ["boat", info("other", MISC_ROW)],
+  ["other", info("other", MISC_ROW)],
+  ["thing", info("other", MISC_ROW)],
+]);
+
+/** Compatibility used when a mention carries no label: neutral, so only names and context decide. */
+export const UNLABELED_COMPAT = 0.7;

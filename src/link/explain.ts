@@ -1,0 +1,138 @@
+/**
+ * Reasons: structured codes with the values they cite and one short sentence each, for the chosen
+ * candidate (why it won) and for the decision (why a link, or why NIL).
+ */
+import type { Decision } from "../decide/decide.js";
+import type { NameMatch } from "../score/features.js";
+import type { CandidatePath, Features, Reason } from "../types.js";
+
+const r3 = (x: number) => Math.round(x * 1000) / 1000;
+
+/** A name feature value at or above this is called "similar" in the reasons. */
+const SIMILAR_NAME = 0.85;
+/** A context cosine at or above this is cited as overlap. */
+const CONTEXT_CITED = 0.05;
+/** A type compatibility below this is cited as a mismatch. */
+const TYPE_MISMATCH_BELOW = 0.99;
+
+export interface Explained {
+  entity: string;
+  name: string;
+  features: Features;
+  name_: NameMatch;
+  paths: Set<CandidatePath>;
+  sharedTerms: string[];
+  entityType: string;
+  mentionType: string | null;
+}
+
+/** Reasons about the evidence for one candidate. */
+export function evidenceReasons(c: Explained): Reason[] {
+  const out: Reason[] = [];
+  const alias = c.name_.bestAlias;
+  const aliasWord = alias.canonical ? "the name" : "an alias";
+  if (c.name_.keyKind === "exact") {
+    out.push({
+      code: alias.canonical ? "name-exact" : "alias-exact",
+      message: `normalized text equals ${aliasWord} "${alias.text}"`,
+      alias: alias.text,
+    });
+  } else if (c.name_.keyKind === "ocr") {
+    out.push({ code: "ocr-key", message: `matches "${alias.text}" once common OCR confusions are folded`, alias: alias.text });
+  }
+  if (c.name_.abbreviationKind === "acronym") {
+    out.push({ code: "acronym", message: `reads as the acronym of "${c.name}"` });
+  } else if (c.name_.abbreviationKind === "initials") {
+    out.push({ code: "initials", message: `initials and surname fit "${alias.text}"`, alias: alias.text });
+  }
+  if (c.name_.keyKind === null && c.features.jaroWinkler >= SIMILAR_NAME) {
+    out.push({
+      code: "name-similar",
+      message: `name similar to ${aliasWord} "${alias.text}" (Jaro-Winkler ${r3(c.features.jaroWinkler)})`,
+      alias: alias.text,
+      jaroWinkler: r3(c.features.jaroWinkler),
+      levenshtein: r3(c.features.levenshtein),
+      tokenSet: r3(c.features.tokenSet),
+    });
+  }
+  if (c.features.context >= CONTEXT_CITED) {
+    out.push({
+      code: "context-overlap",
+      message: `context shares ${c.sharedTerms.length} weighted word(s) with the entry (${c.sharedTerms.slice(0, 4).join(", ")}); cosine ${r3(c.features.context)}`,
+      cosine: r3(c.features.context),
+      terms: c.sharedTerms.slice(0, 8),
+    });
+  }
+  if (c.mentionType !== null && c.features.typeMatch < TYPE_MISMATCH_BELOW) {
+    out.push({
+      code: "type-mismatch",
+      message: `mention labeled ${c.mentionType} but the entry is a ${c.entityType} (compatibility ${r3(c.features.typeMatch)})`,
+      label: c.mentionType,
+      entityType: c.entityType,
+      compatibility: r3(c.features.typeMatch),
+    });
+  }
+  out.push({ code: "found-by", message: `found by ${[...c.paths].join(", ")}`, paths: [...c.paths] });
+  return out;
+}
+
+/** The reason for the decision itself. */
+export function decisionReason(
+  d: Decision,
+  threshold: number,
+  minMargin: number,
+  best: { entity: string; name: string } | null,
+  runnerUp: { entity: string; name: string } | null,
+): Reason {
+  switch (d.outcome) {
+    case "link":
+      return {
+        code: "linked",
+        message: `score ${r3(d.bestScore)} >= threshold ${threshold} and margin ${r3(d.margin)} >= ${minMargin}`,
+        score: r3(d.bestScore),
+        threshold,
+        margin: r3(d.margin),
+        minMargin,
+      };
+    case "no-candidates":
+      return { code: "no-candidates", message: "no entry of a compatible type matched any key, token or fuzzy variant" };
+    case "below-threshold":
+      return {
+        code: "below-threshold",
+        message: `best candidate ${best?.entity} "${best?.name}" scored ${r3(d.bestScore)}, below the threshold ${threshold}`,
+        best: best?.entity,
+        score: r3(d.bestScore),
+        threshold,
+      };
+    case "ambiguous":
+      return {
+        code: "ambiguous",
+        message: `${best?.entity} "${best?.name}" and ${runnerUp?.entity} "${runnerUp?.name}" score within ${r3(d.margin)} (< ${minMargin})`,
+        best: best?.entity,
+        runnerUp: runnerUp?.entity,
+        margin: r3(d.margin),
+        minMargin,
+      };
+  }
+}
+
+/** Terms both vectors contain, heaviest product first (the words the context reason cites). */
+export function sharedTerms(
+  a: { terms: string[]; weights: Float64Array },
+  b: { terms: string[]; weights: Float64Array },
+): string[] {
+  const out: Array<[string, number]> = [];
+  let i = 0;
+  let j = 0;
+  while (i < a.terms.length && j < b.terms.length) {
+    const x = a.terms[i]!;
+    const y = b.terms[j]!;
+    if (x === y) {
+      out.push([x, a.weights[i]! * b.weights[j]!]);
+      i++;
+      j++;
+    } else if (x < y) i++;
+    else j++;
+  }
+  return out.sort((p, q) => q[1] - p[1]).map(([t]) => t);
+}

@@ -1,0 +1,277 @@
+/**
+ * The linker: normalize a mention, generate candidates, score them, decide, explain. One instance
+ * per open KB; it is synchronous per mention and keeps no per-mention state, so a stream of any
+ * length links in constant memory.
+ */
+import { ALL_PATHS, type CandidateOptions, DEFAULT_CANDIDATE_OPTIONS, generateCandidates, type MentionForm } from "../candidates/generate.js";
+import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide } from "../decide/decide.js";
+import type { EntityRow, Kb } from "../kb/kb.js";
+import type { LabelInfo } from "../labels/builtin.js";
+import { LabelMap } from "../labels/label-map.js";
+import { normalizeName } from "../normalize/name.js";
+import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
+import { features, type NameMatch, nameMatch, priorFeature } from "../score/features.js";
+import { contextTerms } from "../score/terms.js";
+import { buildVector, idf, type TermVector } from "../score/tfidf.js";
+import {
+  type CandidateOut,
+  type CandidatePath,
+  ENTITY_CLASSES,
+  type EntityClass,
+  type Features,
+  type LinkConfig,
+  type LinkRow,
+  type Mention,
+  type Reason,
+  type Weights,
+} from "../types.js";
+import { UsageError } from "../util/errors.js";
+import { decisionReason, evidenceReasons, sharedTerms } from "./explain.js";
+
+export interface LinkerOptions {
+  /** Feature weights of the score combination. Default: DEFAULT_WEIGHTS (src/score/combine.ts). */
+  weights?: Weights;
+  /** Link only when the best score is at least this. Default 0.5. */
+  threshold?: number;
+  /** Link only when the best score beats the runner-up by at least this. Default 0.05. */
+  minMargin?: number;
+  /** Candidates listed per output row. Default 3. */
+  top?: number;
+  /** Most candidates scored per mention. Default 30. */
+  maxCandidates?: number;
+  /** Candidate paths to run. Default: all (exact, ocr, acronym, initials, fts, fuzzy). */
+  paths?: readonly CandidatePath[];
+  /** Further candidate-generation settings (see CandidateOptions). */
+  candidates?: Partial<CandidateOptions>;
+  /** Label map: NER labels and table types to classes and compatibilities. Default: built-in. */
+  labels?: LabelMap;
+  /**
+   * A mention is looked up among the entities of every class whose compatibility with its label is
+   * at least this. Default 0.3: a firm named after its town is still found for a LOC mention.
+   */
+  blockMinCompat?: number;
+}
+
+export const DEFAULT_TOP = 3;
+export const DEFAULT_BLOCK_MIN_COMPAT = 0.3;
+/** Longest stretch of mention text normalized: a 10,000-character "mention" is noise, not a name. */
+const MAX_NAME_CHARS = 300;
+
+/** One scored candidate, with everything the reasons and tuning need. */
+export interface ScoredCandidate {
+  entity: EntityRow;
+  features: Features;
+  score: number;
+  paths: Set<CandidatePath>;
+  name: NameMatch;
+  contextVector: TermVector;
+}
+
+interface Prepared {
+  mention: Mention;
+  info: LabelInfo;
+  forms: MentionForm[];
+  context: TermVector | null;
+}
+
+const r4 = (x: number) => Math.round(x * 10000) / 10000;
+
+export class Linker {
+  readonly kb: Kb;
+  readonly labels: LabelMap;
+  readonly config: LinkConfig;
+  readonly top: number;
+  private readonly cand: CandidateOptions;
+  private readonly blockMinCompat: number;
+  private readonly idfOf: (t: string) => number;
+  private readonly entityVectors = new WeakMap<EntityRow, TermVector>();
+
+  constructor(kb: Kb, options: LinkerOptions = {}) {
+    this.kb = kb;
+    this.labels = options.labels ?? new LabelMap();
+    this.config = {
+      weights: options.weights ?? DEFAULT_WEIGHTS,
+      threshold: options.threshold ?? DEFAULT_THRESHOLD,
+      minMargin: options.minMargin ?? DEFAULT_MIN_MARGIN,
+    };
+    checkUnit("threshold", this.config.threshold);
+    checkUnit("minMargin", this.config.minMargin);
+    this.top = options.top ?? DEFAULT_TOP;
+    if (!Number.isInteger(this.top) || this.top < 0) throw new UsageError(`top must be a whole number >= 0, got ${this.top}`);
+    const paths = options.paths ?? ALL_PATHS;
+    for (const p of paths) if (!ALL_PATHS.includes(p)) throw new UsageError(`unknown candidate path "${p}"; use ${ALL_PATHS.join(", ")}`);
+    this.cand = {
+      ...DEFAULT_CANDIDATE_OPTIONS,
+      ...options.candidates,
+      ...(options.maxCandidates !== undefined ? { maxCandidates: options.maxCandidates } : {}),
+      paths: new Set(paths),
+    };
+    if (!Number.isInteger(this.cand.maxCandidates) || this.cand.maxCandidates < 1) {
+      throw new UsageError(`maxCandidates must be a whole number >= 1, got ${this.cand.maxCandidates}`);
+    }
+    this.blockMinCompat = options.blockMinCompat ?? DEFAULT_BLOCK_MIN_COMPAT;
+    const n = kb.info.contextDocs;
+    this.idfOf = (t: string) => idf(kb.termDf(t), n);
+  }
+
+  private prepare(m: Mention): Prepared {
+    const info = this.labels.forMention(m.type);
+    const text = m.text.length > MAX_NAME_CHARS ? m.text.slice(0, MAX_NAME_CHARS) : m.text;
+    const forms: MentionForm[] = [];
+    if (info.linkable) {
+      for (const cls of ENTITY_CLASSES) {
+        if (info.compat[cls] >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls) });
+      }
+    }
+    let context: TermVector | null = null;
+    if (m.context !== undefined && m.context.trim() !== "") {
+      // The mention's own words are left out: every candidate shares them, so they say nothing.
+      const own = new Set(contextTerms(text));
+      const terms = contextTerms(m.context).filter((t) => !own.has(t));
+      if (terms.length > 0) context = buildVector(terms, this.idfOf);
+    }
+    return { mention: m, info, forms, context };
+  }
+
+  private vectorOf(e: EntityRow): TermVector {
+    let v = this.entityVectors.get(e);
+    if (v === undefined) {
+      v = buildVector(e.terms, this.idfOf);
+      this.entityVectors.set(e, v);
+    }
+    return v;
+  }
+
+  private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
+    const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
+    const name = nameMatch(form.norm, e);
+    const vector = this.vectorOf(e);
+    const f = features(name, p.context, vector, p.info.compat[e.cls], priorFeature(e.prior, this.kb.info.maxPrior));
+    return { entity: e, features: f, score: combine(f, this.config.weights), paths, name, contextVector: vector };
+  }
+
+  /** Every generated candidate, scored, best first. */
+  scoreCandidates(m: Mention): ScoredCandidate[] {
+    const p = this.prepare(m);
+    return this.scorePrepared(p);
+  }
+
+  private scorePrepared(p: Prepared): ScoredCandidate[] {
+    if (p.forms.length === 0) return [];
+    const raw = generateCandidates(this.kb, p.forms, this.cand);
+    const out = raw.map((c) => this.scoreOne(p, this.kb.entity(c.eid), c.cls, c.paths));
+    return out.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
+  }
+
+  /** Table ids of every generated candidate (for measuring pairs completeness). */
+  candidateIds(m: Mention): string[] {
+    const p = this.prepare(m);
+    if (p.forms.length === 0) return [];
+    return generateCandidates(this.kb, p.forms, this.cand).map((c) => this.kb.entity(c.eid).id);
+  }
+
+  /** Link one mention. */
+  link(m: Mention): LinkRow {
+    const p = this.prepare(m);
+    return this.rowFor(p, this.scorePrepared(p));
+  }
+
+  /**
+   * The baseline: score every entity of every class the mention may be, no blocking. Slow by
+   * design; benchmarks compare candidate generation against it.
+   */
+  bruteForce(m: Mention): LinkRow {
+    const p = this.prepare(m);
+    const scored: ScoredCandidate[] = [];
+    for (const f of p.forms) {
+      for (const eid of this.kb.entitiesOfClass(f.cls)) scored.push(this.scoreOne(p, this.kb.entity(eid), f.cls, new Set()));
+    }
+    scored.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
+    return this.rowFor(p, scored);
+  }
+
+  /** Link a stream of mentions, in order, one row each. */
+  async *linkAll(mentions: Iterable<Mention> | AsyncIterable<Mention>): AsyncGenerator<LinkRow> {
+    for await (const m of mentions) yield this.link(m);
+  }
+
+  private rowFor(p: Prepared, scored: ScoredCandidate[]): LinkRow {
+    const m = p.mention;
+    const reasons: Reason[] = [];
+    const base = {
+      mention: m.id,
+      text: m.text,
+      type: m.type ?? null,
+      ...(m.doc !== undefined ? { doc: m.doc } : {}),
+      ...(m.start !== undefined ? { start: m.start } : {}),
+      ...(m.end !== undefined ? { end: m.end } : {}),
+    };
+    if (!p.info.linkable) {
+      reasons.push({ code: "not-linkable", message: `label ${m.type} marks a value (date, number, amount), not an entity`, label: m.type });
+      return { ...base, entity: null, name: null, score: 0, margin: 0, reasons, candidates: [] };
+    }
+    const d = decide(
+      scored.map((s) => s.score),
+      this.config.threshold,
+      this.config.minMargin,
+    );
+    const best = d.best >= 0 ? scored[d.best]! : null;
+    const runner = scored.length > 1 ? scored[1]! : null;
+    const label = (s: ScoredCandidate | null) => (s === null ? null : { entity: s.entity.id, name: s.entity.name });
+    reasons.push(decisionReason(d, this.config.threshold, this.config.minMargin, label(best), label(runner)));
+    if (best !== null) {
+      const shared = p.context === null ? [] : sharedTerms(p.context, best.contextVector);
+      reasons.push(
+        ...evidenceReasons({
+          entity: best.entity.id,
+          name: best.entity.name,
+          features: best.features,
+          name_: best.name,
+          paths: best.paths,
+          sharedTerms: shared,
+          entityType: best.entity.type,
+          mentionType: m.type ?? null,
+        }),
+      );
+    }
+    if (runner !== null && d.outcome === "link") {
+      reasons.push({
+        code: "runner-up",
+        message: `next best ${runner.entity.id} "${runner.entity.name}" scored ${r4(runner.score)}`,
+        entity: runner.entity.id,
+        score: r4(runner.score),
+      });
+    }
+    const candidates: CandidateOut[] = scored.slice(0, this.top).map((s) => ({
+      entity: s.entity.id,
+      name: s.entity.name,
+      score: r4(s.score),
+      features: roundFeatures(s.features),
+      paths: [...s.paths],
+    }));
+    const chosen = d.outcome === "link" ? best : null;
+    return {
+      ...base,
+      entity: chosen?.entity.id ?? null,
+      name: chosen?.entity.name ?? null,
+      score: r4(d.bestScore),
+      margin: r4(d.margin),
+      reasons,
+      candidates,
+    };
+  }
+}
+
+function roundFeatures(f: Features): Features {
+  const out = { ...f };
+  for (const k of Object.keys(out) as Array<keyof Features>) out[k] = r4(out[k]);
+  return out;
+}
+
+function checkUnit(name: string, v: number): void {
+  if (!(typeof v === "number" && v >= 0 && v <= 1)) throw new UsageError(`${name} must be a number in [0, 1], got ${v}`);
+}
+
+export function createLinker(kb: Kb, options?: LinkerOptions): Linker {
+  return new Linker(kb, options);
+}

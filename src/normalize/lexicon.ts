@@ -1,0 +1,117 @@
+/**
+ * Word lists the normalizers use. All entries are folded (lowercase, no dots). The lists are
+ * common practice for English-language records of the late 19th and early 20th century:
+ * honorifics and ranks, generational suffixes, clerks' abbreviations of given names, legal forms
+ * of firms, and place-name abbreviations.
+ */
+
+/** Titles, ranks and courtesy words that precede a person's name and are not part of it. */
+export const HONORIFICS: ReadonlySet<string> = new Set([
+  "mr", "mrs", "miss", "ms", "mssrs", "messrs", "master", "madam", "mme", "mlle", "dr", "doctor",
+  "rev", "revd", "reverend", "fr", "father", "canon", "bishop", "capt", "captain", "cpt", "col",
+  "colonel", "maj", "major", "gen", "general", "lt", "lieut", "lieutenant", "sgt", "sergeant",
+  "cmdr", "commander", "adm", "admiral", "cdr", "hon", "honourable", "honorable", "sir", "dame",
+  "lady", "lord", "prof", "professor", "esq", "esquire", "alderman", "ald", "judge", "justice",
+  "supt", "superintendent", "insp", "inspector", "mayor", "widow", "the",
+]);
+
+/** Generational suffixes: removed from the matching key, kept as a separate field. */
+export const GENERATIONAL: Readonly<Record<string, string>> = {
+  jr: "jr",
+  jnr: "jr",
+  junior: "jr",
+  jun: "jr",
+  sr: "sr",
+  snr: "sr",
+  senior: "sr",
+  sen: "sr",
+  ii: "ii",
+  iii: "iii",
+  iv: "iv",
+  elder: "sr",
+  younger: "jr",
+};
+
+/** Period clerks' abbreviations of given names ("Jno." for John, "Wm." for William). */
+export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = {
+  jno: "john",
+  jn: "john",
+  wm: "william",
+  willm: "william",
+  chas: "charles",
+  thos: "thomas",
+  geo: "george",
+  jas: "james",
+  robt: "robert",
+  edw: "edward",
+  edwd: "edward",
+  benj: "benjamin",
+  saml: "samuel",
+  richd: "richard",
+  hy: "henry",
+  jos: "joseph",
+  danl: "daniel",
+  alexr: "alexander",
+  alex: "alexander",
+  fredk: "frederick",
+  fred: "frederick",
+  nathl: "nathaniel",
+  theo: "theodore",
+  abm: "abraham",
+  eliz: "elizabeth",
+  margt: "margaret",
+  mary: "mary",
+};
+
+/**
+ * Legal-form and firm-structure words. Each maps to a canonical spelling; all are removed from the
+ * matching key of an organization and kept (canonical) in its full form.
+ */
+export const LEGAL_FORMS: Readonly<Record<string, string>> = {
+  co: "co",
+  coy: "co",
+  company: "co",
+  cos: "co",
+  ltd: "ltd",
+  limited: "ltd",
+  lim: "ltd",
+  inc: "inc",
+  incorporated: "inc",
+  corp: "corp",
+  corporation: "corp",
+  plc: "plc",
+  llc: "llc",
+  llp: "llp",
+  sons: "sons",
+  son: "son",
+  bros: "bros",
+  brothers: "bros",
+  bro: "bros",
+  cie: "co",
+  gmbh: "gmbh",
+  ag: "ag",
+  sa: "sa",
+  nv: "nv",
+  bv: "bv",
+  and: "and",
+};
+
+/** Place-name abbreviations, expanded for locations (and for organizations named after places). */
+export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = {
+  st: "saint",
+  ste: "sainte",
+  ft: "fort",
+  pt: "port",
+  mt: "mount",
+  mtn: "mountain",
+  pte: "pointe",
+  hts: "heights",
+  jct: "junction",
+  isl: "island",
+  riv: "river",
+  upr: "upper",
+  lwr: "lower",
+};
+
+/** Joiner words skipped when forming an acronym ("Bank of the Delta" -> "bd"). */
+export const ACRONYM_SKIP: ReadonlySet<string> = new Set(["and", "of", "the", "de", "la", "du", "von", "van", "for", "&"]);

@@ -1,0 +1,176 @@
+/**
+ * Name normalization per entity class. One function, `normalizeName`, turns a raw name or mention
+ * text into the forms every later stage uses: folded tokens, a matching key, a full form for
+ * string similarity, an OCR-folded key, an acronym reading and initials keys.
+ */
+import type { EntityClass } from "../types.js";
+import { foldTokens } from "./fold.js";
+import {
+  ACRONYM_SKIP,
+  GENERATIONAL,
+  GIVEN_NAME_ABBREVIATIONS,
+  HONORIFICS,
+  LEGAL_FORMS,
+  PLACE_ABBREVIATIONS,
+} from "./lexicon.js";
+import { ocrFold } from "./ocr.js";
+
+/** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
+export const NORMALIZER_VERSION = "1";
+
+export interface NormalizedName {
+  /** Every folded token of the input, nothing removed. */
+  folded: string[];
+  /** Core tokens: honorifics, generational suffixes and legal forms removed, abbreviations expanded, order fixed. */
+  tokens: string[];
+  /** `tokens` joined by single spaces: the exact-lookup key. */
+  key: string;
+  /** Core tokens plus canonical legal form and suffix: the form string similarity compares. */
+  full: string;
+  /** OCR-folded key (see ocr.ts), spaces removed. */
+  ocrKey: string;
+  /** Generational suffix ("jr", "sr", "ii"...) when present. */
+  suffix: string | null;
+  /** The letters when the raw text reads as an acronym ("S.G.E." -> "sge"), else null. */
+  acronym: string | null;
+  /** Acronym formed from the core tokens (2+ tokens), for organizations and places. */
+  acronymKey: string | null;
+  /** Person names: first initial + surname ("j aldous"); null for other classes or a lone token. */
+  initialsKey: string | null;
+}
+
+/** Longest run of letters an acronym may have; longer all-capital words are headlines, not acronyms. */
+const MAX_ACRONYM_LETTERS = 6;
+/** Shortest acronym worth a key: one letter is an initial, not an acronym. */
+const MIN_ACRONYM_LETTERS = 2;
+
+const DOTTED_ACRONYM = /^(?:\p{Lu}\.\s?){2,}\p{Lu}?\.?$/u;
+const CAPS_ACRONYM = /^\p{Lu}{2,}$/u;
+
+/** Reads "S.G.E.", "S. G. E.", "SGE" (2-6 capitals, dots optional) as an acronym. */
+export function readAcronym(raw: string): string | null {
+  const t = raw.trim().replace(/&/g, "");
+  if (t.length === 0) return null;
+  let letters: string | null = null;
+  if (DOTTED_ACRONYM.test(t)) letters = t.replace(/[^\p{Lu}]/gu, "");
+  else if (CAPS_ACRONYM.test(t) && t.length <= MAX_ACRONYM_LETTERS) letters = t;
+  if (letters === null) return null;
+  if (letters.length < MIN_ACRONYM_LETTERS || letters.length > MAX_ACRONYM_LETTERS) return null;
+  return letters.toLowerCase();
+}
+
+/** First letters of the tokens, joiner words skipped. */
+export function acronymOfTokens(tokens: readonly string[]): string {
+  let out = "";
+  for (const t of tokens) if (!ACRONYM_SKIP.has(t) && t.length > 0) out += t[0];
+  return out;
+}
+
+/** "Aldous, J. H." -> "J. H. Aldous" when the text is one comma between two non-empty parts. */
+function reorderLastFirst(raw: string): string {
+  const parts = raw.split(",");
+  if (parts.length !== 2) return raw;
+  const last = parts[0]!.trim();
+  const first = parts[1]!.trim();
+  if (last.length === 0 || first.length === 0) return raw;
+  // "Pell, Sr." is a suffix, not a given name.
+  const firstTokens = foldTokens(first);
+  if (firstTokens.every((t) => GENERATIONAL[t] !== undefined || HONORIFICS.has(t))) {
+    return `${last} ${first}`;
+  }
+  return `${first} ${last}`;
+}
+
+interface Stripped {
+  tokens: string[];
+  suffix: string | null;
+  legal: string[];
+}
+
+function stripPerson(tokens: string[]): Stripped {
+  let start = 0;
+  while (start < tokens.length - 1 && HONORIFICS.has(tokens[start]!)) start++;
+  const core: string[] = [];
+  let suffix: string | null = null;
+  for (let i = start; i < tokens.length; i++) {
+    const t = tokens[i]!;
+    const gen = GENERATIONAL[t];
+    // A suffix only counts after the first core token ("Junior Pell" keeps "junior").
+    if (gen !== undefined && core.length > 0) {
+      suffix = gen;
+      continue;
+    }
+    if ((t === "esq" || t === "esquire") && core.length > 0) continue;
+    core.push(GIVEN_NAME_ABBREVIATIONS[t] ?? t);
+  }
+  return { tokens: core.length > 0 ? core : tokens.slice(), suffix, legal: [] };
+}
+
+function stripOrganization(tokens: string[]): Stripped {
+  const core: string[] = [];
+  const legal: string[] = [];
+  for (let i = 0; i < tokens.length; i++) {
+    const t = tokens[i]!;
+    const form = LEGAL_FORMS[t];
+    // Legal forms are only stripped after the first core word ("Company of Watermen" keeps its head).
+    if (form !== undefined && core.length > 0) {
+      if (form !== "and") legal.push(form);
+      continue;
+    }
+    core.push(PLACE_ABBREVIATIONS[t] ?? t);
+  }
+  // A trailing "and" left over from "X and Y" is kept inside; only legal words are removed.
+  return { tokens: core.length > 0 ? core : tokens.slice(), suffix: null, legal };
+}
+
+function stripLocation(tokens: string[]): Stripped {
+  return { tokens: tokens.map((t) => PLACE_ABBREVIATIONS[t] ?? t), suffix: null, legal: [] };
+}
+
+/**
+ * Normalize a raw name for the given class.
+ * - person: "Last, First" reordered, leading honorifics removed, generational suffix split off,
+ *   clerks' given-name abbreviations expanded (Jno. -> john);
+ * - organization: legal forms removed from the key (kept canonical in `full`), place abbreviations expanded;
+ * - location: place abbreviations expanded (St. -> saint, Ft. -> fort, Pt. -> port, Mt. -> mount);
+ * - other: folding only.
+ */
+export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
+  const text = cls === "person" ? reorderLastFirst(raw) : raw;
+  const folded = foldTokens(text);
+  let s: Stripped;
+  switch (cls) {
+    case "person":
+      s = stripPerson(folded);
+      break;
+    case "organization":
+      s = stripOrganization(folded);
+      break;
+    case "location":
+      s = stripLocation(folded);
+      break;
+    default:
+      s = { tokens: folded.slice(), suffix: null, legal: [] };
+  }
+  const key = s.tokens.join(" ");
+  const fullParts = s.tokens.slice();
+  for (const l of s.legal) fullParts.push(l);
+  if (s.suffix !== null) fullParts.push(s.suffix);
+  const acronym = readAcronym(raw);
+  const acronymKey = cls !== "person" && s.tokens.length >= 2 ? acronymOfTokens(s.tokens) : null;
+  let initialsKey: string | null = null;
+  if (cls === "person" && s.tokens.length >= 2) {
+    initialsKey = `${s.tokens[0]![0]} ${s.tokens[s.tokens.length - 1]}`;
+  }
+  return {
+    folded,
+    tokens: s.tokens,
+    key,
+    full: fullParts.join(" "),
+    ocrKey: ocrFold(key),
+    suffix: s.suffix,
+    acronym,
+    acronymKey: acronymKey !== null && acronymKey.length >= MIN_ACRONYM_LETTERS ? acronymKey : null,
+    initialsKey,
+  };
+}

@@ -1,0 +1,40 @@
+/**
+ * JSON Lines reading shared by every stage: one JSON object a line, streamed, blank lines skipped.
+ * Malformed JSON, a value that is not an object and invalid UTF-8 are errors naming file and line.
+ */
+
+import { InputError } from "../util/errors.js";
+import { readTextLines } from "./lines.js";
+
+/** One parsed line: its 1-based line number and the object it holds. */
+export interface JsonLine {
+  line: number;
+  value: unknown;
+}
+
+/** Short name of a JSON value's kind, for error messages. */
+export function jsonKind(value: unknown): string {
+  if (value === null) return "null";
+  if (Array.isArray(value)) return "an array";
+  return `a ${typeof value}`;
+}
+
+/**
+ * Stream the objects of a JSONL file. `value` is always a plain object (never an array, string,
+ * number or null); the declared type stays `unknown` so that callers validate fields themselves.
+ */
+export async function* readJsonLines(file: string): AsyncGenerator<JsonLine> {
+  for await (const { line, text } of readTextLines(file)) {
+    if (text.trim() === "") continue;
+    let value: unknown;
+    try {
+      value = JSON.parse(text);
+    } catch (error) {
+      throw new InputError({ file, line }, `malformed JSON: ${(error as Error).message}`);
+    }
+    if (typeof value !== "object" || value === null || Array.isArray(value)) {
+      throw new InputError({ file, line }, `expected a JSON object, found ${jsonKind(value)}`);
+    }
+    yield { line, value };
+  }
+}

@@ -1,0 +1,57 @@
+/**
+ * Streaming text lines of a file, strictly decoded as UTF-8 (see `utf8.ts`), with 1-based line
+ * numbers. Every line-oriented reader (JSONL, CoNLL) is built on this.
+ */
+
+import { createReadStream } from "node:fs";
+import { createInterface } from "node:readline";
+import { pipeline, type Transform } from "node:stream";
+import { InputError } from "../util/errors.js";
+import { strictUtf8 } from "./utf8.js";
+
+/** One line of text without its line end. */
+export interface TextLine {
+  /** 1-based line number in the file. */
+  line: number;
+  text: string;
+}
+
+/** Turn a file-system error (missing file, directory, no permission) into an InputError naming the file. */
+export function fileError(file: string, error: unknown): Error {
+  if (error instanceof InputError) return error;
+  const code = (error as NodeJS.ErrnoException | undefined)?.code;
+  if (typeof code === "string" && code.startsWith("E")) {
+    return new InputError({ file }, `cannot read the file (${code}): ${(error as Error).message}`);
+  }
+  return error instanceof Error ? error : new Error(String(error));
+}
+
+/**
+ * The decoded text of `file` as a readable stream of strings (object mode), for parsers that take
+ * a stream (CSV). Errors (file system, invalid UTF-8) surface on the returned stream.
+ */
+export function openText(file: string): Transform {
+  const decoder = strictUtf8(file);
+  pipeline(createReadStream(file), decoder, () => {
+    // Errors are forwarded to `decoder` by pipeline; its consumer reports them.
+  });
+  return decoder;
+}
+
+/** Yield the lines of `file` one by one (LF, CRLF or CR line ends), streaming. */
+export async function* readTextLines(file: string): AsyncGenerator<TextLine> {
+  const input = openText(file);
+  const lines = createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY });
+  let line = 0;
+  try {
+    for await (const text of lines) {
+      line++;
+      yield { line, text };
+    }
+  } catch (error) {
+    throw fileError(file, error);
+  } finally {
+    lines.close();
+    input.destroy();
+  }
+}

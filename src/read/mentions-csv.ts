@@ -1,0 +1,42 @@
+/** Mentions from a CSV or TSV file with a header row, same column names as the JSONL format. */
+
+import { InputError } from "../util/errors.js";
+import { type CsvOptions, readCsvRows } from "./csv.js";
+import { UniqueIds } from "./fields.js";
+import {
+  type MentionRowOptions,
+  mentionFromRow,
+  type ReadLabeledMention,
+  type ReadMention,
+} from "./mention-row.js";
+
+/** Options of `readMentionsCsv`. */
+export type MentionsCsvOptions = MentionRowOptions & CsvOptions;
+
+export function readMentionsCsv(
+  file: string,
+  options: MentionsCsvOptions & { labeled: true },
+): AsyncGenerator<ReadLabeledMention>;
+export function readMentionsCsv(file: string, options?: MentionsCsvOptions): AsyncGenerator<ReadMention>;
+/**
+ * Stream validated mentions from a CSV/TSV file. The header must have a `text` column (and a
+ * `gold` column when `labeled`); ids must be unique within the file.
+ */
+export async function* readMentionsCsv(
+  file: string,
+  options: MentionsCsvOptions = {},
+): AsyncGenerator<ReadMention | ReadLabeledMention> {
+  const ids = new UniqueIds(file);
+  const required = options.labeled ? ["text", "gold"] : ["text"];
+  const checkHeader = ({ line, columns }: { line: number; columns: string[] }): void => {
+    for (const name of required) {
+      if (!columns.includes(name))
+        throw new InputError({ file, line, field: name }, "missing column in header");
+    }
+  };
+  for await (const { line, values } of readCsvRows(file, options, checkHeader)) {
+    const mention = mentionFromRow({ file, line, cells: true }, values, options);
+    ids.claim(mention.id, line);
+    yield mention;
+  }
+}

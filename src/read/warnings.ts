@@ -1,0 +1,16 @@
+/** Non-fatal findings of the readers (e.g. ill-formed tag sequences), reported through `onWarning`. */
+
+export interface ReadWarning {
+  /** Stable code for programs: e.g. "ill-formed-tags". */
+  code: string;
+  file: string;
+  /** First line where the problem was seen. */
+  line?: number | undefined;
+  /** How many times it was seen in the file. */
+  count: number;
+  /** A sentence for people. */
+  message: string;
+}
+
+/** Callback receiving warnings as they are found. */
+export type WarningHandler = (warning: ReadWarning) => void;

@@ -1,0 +1,91 @@
+/**
+ * The named features of one (mention, candidate entity) pair. Each is in [0, 1]; see `Features`
+ * in types.ts for what each measures. Name features are the best over the entity's aliases.
+ */
+import type { AliasRow, EntityRow } from "../kb/kb.js";
+import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
+import type { Features } from "../types.js";
+import { initialsCompatible, jaroWinkler, levenshteinSimilarity, tokenSetSimilarity } from "./name-similarity.js";
+import { cosine, type TermVector } from "./tfidf.js";
+
+/** exactKey credit when only the OCR-folded keys agree: strong evidence, weaker than an exact key. */
+export const OCR_KEY_CREDIT = 0.75;
+
+export interface NameMatch {
+  jaroWinkler: number;
+  levenshtein: number;
+  tokenSet: number;
+  abbreviation: number;
+  exactKey: number;
+  /** The alias that gave the best Jaro-Winkler value (cited by the reasons). */
+  bestAlias: AliasRow;
+  /** What the abbreviation feature recognised, when it fired. */
+  abbreviationKind: "acronym" | "initials" | null;
+  /** What the exactKey feature matched, when it fired. */
+  keyKind: "exact" | "ocr" | null;
+}
+
+export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
+  let jw = 0;
+  let lev = 0;
+  let tok = 0;
+  let abbr = 0;
+  let exact = 0;
+  let bestAlias = entity.aliases[0]!;
+  let abbreviationKind: NameMatch["abbreviationKind"] = null;
+  let keyKind: NameMatch["keyKind"] = null;
+  const personLike = entity.cls === "person";
+  for (const a of entity.aliases) {
+    const j = Math.max(jaroWinkler(norm.key, a.key), norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full));
+    if (j > jw) {
+      jw = j;
+      bestAlias = a;
+    }
+    const l = Math.max(levenshteinSimilarity(norm.key, a.key), levenshteinSimilarity(norm.full, a.full));
+    if (l > lev) lev = l;
+    const t = tokenSetSimilarity(norm.tokens, a.tokens);
+    if (t > tok) tok = t;
+    if (norm.key === a.key) {
+      exact = 1;
+      keyKind = "exact";
+    } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
+      exact = OCR_KEY_CREDIT;
+      keyKind = "ocr";
+    }
+    if (abbr < 1) {
+      if (norm.acronym !== null && a.tokens.length >= 2 && norm.acronym === acronymOfTokens(a.tokens)) {
+        abbr = 1;
+        abbreviationKind = "acronym";
+      } else if (personLike && initialsCompatible(norm.tokens, a.tokens)) {
+        abbr = 1;
+        abbreviationKind = "initials";
+      }
+    }
+  }
+  return { jaroWinkler: jw, levenshtein: lev, tokenSet: tok, abbreviation: abbr, exactKey: exact, bestAlias, abbreviationKind, keyKind };
+}
+
+/** log1p(prior) / log1p(max prior): popularity on a log scale, so a city does not drown a village. */
+export function priorFeature(prior: number, maxPrior: number): number {
+  if (maxPrior <= 0 || prior <= 0) return 0;
+  return Math.min(1, Math.log1p(prior) / Math.log1p(maxPrior));
+}
+
+export function features(
+  name: NameMatch,
+  mentionContext: TermVector | null,
+  entityContext: TermVector,
+  typeMatch: number,
+  prior: number,
+): Features {
+  return {
+    jaroWinkler: name.jaroWinkler,
+    levenshtein: name.levenshtein,
+    tokenSet: name.tokenSet,
+    abbreviation: name.abbreviation,
+    exactKey: name.exactKey,
+    context: mentionContext === null ? 0 : cosine(mentionContext, entityContext),
+    typeMatch,
+    prior,
+  };
+}

@@ -1,0 +1,106 @@
+/**
+ * Context terms: the words of a mention's context, or of an entity's description and attributes,
+ * reduced to comparable stems for the TF-IDF context feature.
+ *
+ * natural is loaded by deep module path (its package index pulls in database clients, is slow to
+ * load and prints to stdout). Both modules used here are CommonJS: the stopword list exports
+ * `{ words: string[] }`, the Porter stemmer exports an object with `stem(token): string`.
+ */
+import { createRequire } from "node:module";
+
+const requireCjs = createRequire(import.meta.url);
+
+/** The part of natural's Porter stemmer module used here. */
+interface PorterStemmerModule {
+  stem(token: string): string;
+}
+
+/** The shape of natural's English stopword module. */
+interface StopwordModule {
+  words: string[];
+}
+
+const porter = requireCjs("natural/lib/natural/stemmers/porter_stemmer.js") as PorterStemmerModule;
+const stopwordModule = requireCjs("natural/lib/natural/util/stopwords.js") as StopwordModule;
+
+/** natural's English stopword list (about 170 words, plus single letters and digits). */
+export const STOPWORDS: ReadonlySet<string> = new Set(stopwordModule.words);
+
+/** Tokens shorter than this carry no context (stray letters, OCR specks). */
+const MIN_TERM_LENGTH = 2;
+
+/**
+ * Four-digit numbers in this range are kept as terms: years carry context in historical archives
+ * ("the 1897 flood", "founded 1902"), while other bare numbers (prices, page numbers) are noise.
+ */
+export const MIN_YEAR = 1000;
+export const MAX_YEAR = 2099;
+/** Digits in a year term. */
+const YEAR_DIGITS = 4;
+
+/**
+ * Most stems memoized. The same words recur across every mention and entity, so a cache of this
+ * size holds the working vocabulary of a large batch (tens of thousands of distinct words) while
+ * staying a few megabytes; when full, the oldest entry is evicted.
+ */
+export const STEM_CACHE_SIZE = 50_000;
+
+const stemCache = new Map<string, string>();
+
+/** Porter stem of a lowercase token, memoized in a bounded map. */
+export function stem(token: string): string {
+  const hit = stemCache.get(token);
+  if (hit !== undefined) return hit;
+  const stemmed = porter.stem(token);
+  if (stemCache.size >= STEM_CACHE_SIZE) {
+    const oldest = stemCache.keys().next();
+    if (oldest.done !== true) stemCache.delete(oldest.value);
+  }
+  stemCache.set(token, stemmed);
+  return stemmed;
+}
+
+/** Combining marks left after NFKD decomposition (accents, diaeresis...). */
+const COMBINING_MARKS = /\p{M}+/gu;
+/** Separators between terms: anything that is neither a letter nor a digit. */
+const NON_WORD = /[^\p{L}\p{N}]+/u;
+
+const CODE_0 = 48; // "0"
+const CODE_9 = 57; // "9"
+
+/** True when every character of `token` is an ASCII digit. */
+function isAllDigits(token: string): boolean {
+  for (let i = 0; i < token.length; i++) {
+    const c = token.charCodeAt(i);
+    if (c < CODE_0 || c > CODE_9) return false;
+  }
+  return true;
+}
+
+/** Unicode fold used for context words: lowercase, NFKD, combining marks removed. */
+export function foldText(text: string): string {
+  return text.toLowerCase().normalize("NFKD").replace(COMBINING_MARKS, "");
+}
+
+/**
+ * Splits text into context terms, in text order, duplicates kept (term frequency matters):
+ * fold (lowercase, NFKD, strip combining marks), split on anything that is not a letter or digit,
+ * drop tokens shorter than 2 characters and English stopwords (natural's list), drop pure numbers
+ * except years 1000-2099, and Porter-stem the rest. Mixed tokens ("1st", "no5") are kept.
+ */
+export function contextTerms(text: string): string[] {
+  const out: string[] = [];
+  if (text.length === 0) return out;
+  for (const token of foldText(text).split(NON_WORD)) {
+    if (token.length < MIN_TERM_LENGTH || STOPWORDS.has(token)) continue;
+    if (isAllDigits(token)) {
+      if (token.length === YEAR_DIGITS) {
+        const year = Number(token);
+        if (year >= MIN_YEAR && year <= MAX_YEAR) out.push(token);
+      }
+      continue;
+    }
+    out.push(stem(token));
+  }
+  return out;
+}

@@ -1,0 +1,188 @@
+/**
+ * Operating-point sweep: score every candidate with given weights, then decide every mention at
+ * each (threshold, minimum margin) of a fixed grid and measure link precision, recall and F1.
+ *
+ * The threshold grid is 0.00, 0.01, ..., 1.00 (101 points) and nothing else: distinct scores are
+ * not added, so every curve has exactly one point per grid threshold and curves of different
+ * weights line up point for point.
+ */
+import { decide } from "../decide/decide.js";
+import { combine } from "../score/combine.js";
+import type { Weights } from "../types.js";
+import { f1, ratio } from "../evaluate/metrics.js";
+import type { Objective, ScoredMention } from "./types.js";
+
+/** Threshold steps of the grid: a 0.01 step resolves score differences that matter in practice. */
+const THRESHOLD_STEPS = 100;
+
+/** The swept thresholds, 0.00 to 1.00 by 0.01 (computed as i / 100 so they are exact decimals). */
+export const THRESHOLD_GRID: readonly number[] = Array.from(
+  { length: THRESHOLD_STEPS + 1 },
+  (_, i) => i / THRESHOLD_STEPS,
+);
+
+/**
+ * The swept minimum margins: 0 (no ambiguity check) up to 0.2 (a clear winner), denser near 0
+ * where most runner-up gaps of look-alike names fall.
+ */
+export const MARGIN_GRID: readonly number[] = [0, 0.01, 0.02, 0.05, 0.1, 0.15, 0.2];
+
+/** Two figures closer than this are equal when ranking operating points (float noise). */
+const TIE_EPSILON = 1e-12;
+
+export interface OperatingPoint {
+  threshold: number;
+  minMargin: number;
+  linkPrecision: number;
+  linkRecall: number;
+  linkF1: number;
+  /** Mentions decided right (correct link, or NIL for a gold NIL) / all mentions. */
+  accuracy: number;
+  predictedLinks: number;
+  correctLinks: number;
+  goldLinks: number;
+  mentions: number;
+}
+
+export interface SweepOptions {
+  /** How to choose the point. Default `f1`. */
+  objective?: Objective;
+  /** Minimum link precision for `recall-at-precision` (required there, in [0, 1]). */
+  minPrecision?: number;
+  /** Thresholds to sweep. Default THRESHOLD_GRID. */
+  thresholds?: readonly number[];
+  /** Minimum margins to sweep. Default MARGIN_GRID. */
+  margins?: readonly number[];
+}
+
+export interface SweepResult {
+  /** The chosen point; null when no point meets `minPrecision`. */
+  chosen: OperatingPoint | null;
+  /** Why `chosen` is null (names the best precision reached). */
+  message?: string;
+  /** The point of highest precision (ties: higher recall, lower threshold): a fallback when chosen is null. */
+  highestPrecision: OperatingPoint;
+  /** One point per threshold, at the chosen margin (at the fallback's margin when chosen is null). */
+  curve: OperatingPoint[];
+  /** Every point of the grid, margin-major. */
+  grid: OperatingPoint[];
+}
+
+/** A mention's candidate scores under the weights, with the gold entity. */
+export interface ScoredSet {
+  gold: string | null;
+  entities: string[];
+  scores: number[];
+}
+
+export function scoreAll(data: readonly ScoredMention[], weights: Weights): ScoredSet[] {
+  return data.map((m) => ({
+    gold: m.mention.gold,
+    entities: m.candidates.map((c) => c.entity),
+    scores: m.candidates.map((c) => combine(c.features, weights)),
+  }));
+}
+
+/** Measure one (threshold, margin) point over scored mentions, deciding each with `decide`. */
+export function measurePoint(
+  sets: readonly ScoredSet[],
+  threshold: number,
+  minMargin: number,
+): OperatingPoint {
+  let predictedLinks = 0;
+  let correctLinks = 0;
+  let goldLinks = 0;
+  let correctNil = 0;
+  for (const s of sets) {
+    if (s.gold !== null) goldLinks++;
+    const d = decide(s.scores, threshold, minMargin);
+    if (d.chosen < 0) {
+      if (s.gold === null) correctNil++;
+      continue;
+    }
+    predictedLinks++;
+    if (s.entities[d.chosen] === s.gold) correctLinks++;
+  }
+  const linkPrecision = ratio(correctLinks, predictedLinks);
+  const linkRecall = ratio(correctLinks, goldLinks);
+  return {
+    threshold,
+    minMargin,
+    linkPrecision,
+    linkRecall,
+    linkF1: f1(linkPrecision, linkRecall),
+    accuracy: ratio(correctLinks + correctNil, sets.length),
+    predictedLinks,
+    correctLinks,
+    goldLinks,
+    mentions: sets.length,
+  };
+}
+
+/** Compare two numbers with TIE_EPSILON: positive when a is larger. */
+function cmp(a: number, b: number): number {
+  return Math.abs(a - b) <= TIE_EPSILON ? 0 : a - b;
+}
+
+/** Ties after the objective: higher precision, then lower threshold, then smaller margin. Negative when a is better. */
+function tieBreak(a: OperatingPoint, b: OperatingPoint): number {
+  return -cmp(a.linkPrecision, b.linkPrecision) || a.threshold - b.threshold || a.minMargin - b.minMargin;
+}
+
+function best(
+  points: readonly OperatingPoint[],
+  better: (a: OperatingPoint, b: OperatingPoint) => number,
+): OperatingPoint | null {
+  let top: OperatingPoint | null = null;
+  for (const p of points) if (top === null || better(p, top) < 0) top = p;
+  return top;
+}
+
+export function sweep(
+  data: readonly ScoredMention[],
+  weights: Weights,
+  opts: SweepOptions = {},
+): SweepResult {
+  const objective = opts.objective ?? "f1";
+  const thresholds = opts.thresholds ?? THRESHOLD_GRID;
+  const margins = opts.margins ?? MARGIN_GRID;
+  if (thresholds.length === 0 || margins.length === 0)
+    throw new RangeError("sweep: empty threshold or margin grid");
+  const minPrecision = opts.minPrecision;
+  if (
+    objective === "recall-at-precision" &&
+    (minPrecision === undefined || !(minPrecision >= 0 && minPrecision <= 1))
+  )
+    throw new RangeError(`sweep: recall-at-precision needs minPrecision in [0, 1], got ${minPrecision}`);
+
+  const sets = scoreAll(data, weights);
+  const grid: OperatingPoint[] = [];
+  for (const m of margins) for (const t of thresholds) grid.push(measurePoint(sets, t, m));
+
+  const highestPrecision = best(
+    grid,
+    (a, b) =>
+      -cmp(a.linkPrecision, b.linkPrecision) ||
+      -cmp(a.linkRecall, b.linkRecall) ||
+      a.threshold - b.threshold ||
+      a.minMargin - b.minMargin,
+  )!;
+  let chosen: OperatingPoint | null;
+  let message: string | undefined;
+  if (objective === "f1") {
+    chosen = best(grid, (a, b) => -cmp(a.linkF1, b.linkF1) || tieBreak(a, b));
+  } else {
+    const eligible = grid.filter((p) => p.linkPrecision >= minPrecision! - TIE_EPSILON);
+    chosen = best(eligible, (a, b) => -cmp(a.linkRecall, b.linkRecall) || tieBreak(a, b));
+    if (chosen === null)
+      message =
+        `no operating point reaches link precision ${minPrecision}; the highest is ` +
+        `${highestPrecision.linkPrecision.toFixed(3)} (threshold ${highestPrecision.threshold.toFixed(2)}, ` +
+        `margin ${highestPrecision.minMargin})`;
+  }
+  const curveMargin = (chosen ?? highestPrecision).minMargin;
+  const curve = grid.filter((p) => p.minMargin === curveMargin);
+  return message === undefined
+    ? { chosen, highestPrecision, curve, grid }
+    : { chosen, message, highestPrecision, curve, grid };
+}

@@ -1,0 +1,39 @@
+/**
+ * Atomic output: write to a temporary file beside the target, rename over it when complete.
+ * A run that fails midway removes the temporary file, so no half-written output is ever left.
+ */
+import { createWriteStream, renameSync, rmSync, type WriteStream } from "node:fs";
+import { basename, dirname, join } from "node:path";
+import { once } from "node:events";
+
+export class AtomicWriter {
+  private readonly tmp: string;
+  private readonly stream: WriteStream;
+  private done = false;
+
+  constructor(readonly target: string) {
+    this.tmp = join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
+    this.stream = createWriteStream(this.tmp, { encoding: "utf8" });
+  }
+
+  /** Write a chunk, waiting when the stream's buffer is full (keeps memory flat). */
+  async write(chunk: string): Promise<void> {
+    if (!this.stream.write(chunk)) await once(this.stream, "drain");
+  }
+
+  /** Finish and move into place. */
+  async commit(): Promise<void> {
+    this.stream.end();
+    await once(this.stream, "finish");
+    renameSync(this.tmp, this.target);
+    this.done = true;
+  }
+
+  /** Throw the partial output away (safe to call after commit: then it does nothing). */
+  abort(): void {
+    if (this.done) return;
+    this.done = true;
+    this.stream.destroy();
+    rmSync(this.tmp, { force: true });
+  }
+}

@@ -1,0 +1,107 @@
+import { describe, expect, it } from "vitest";
+import { decide } from "../src/decide/decide.js";
+import { evaluate } from "../src/evaluate/metrics.js";
+import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
+import { linkRowsFor } from "../src/tune/rows.js";
+import { MARGIN_GRID, THRESHOLD_GRID, measurePoint, scoreAll, sweep } from "../src/tune/sweep.js";
+import type { ScoredMention } from "../src/tune/types.js";
+import type { Weights } from "../src/types.js";
+import { ZERO_FEATURES } from "./eval-helpers.js";
+import { syntheticSet } from "./tune-fixtures.js";
+
+/** Weights under which a candidate's score is sigmoid(logit) of its `prior` feature alone, set as a logit. */
+const PRIOR_ONLY: Weights = {
+  bias: 0,
+  features: {
+    ...Object.fromEntries(Object.keys(ZERO_FEATURES).map((k) => [k, 0])),
+    prior: 1,
+  } as Weights["features"],
+};
+
+/** A candidate scoring exactly `score` under PRIOR_ONLY. */
+function cand(entity: string, score: number) {
+  return { entity, features: { ...ZERO_FEATURES, prior: Math.log(score / (1 - score)) } };
+}
+
+// Hand-made: scores are known, so the P/R at a threshold can be counted by hand.
+const data: ScoredMention[] = [
+  { mention: { id: "a", text: "Port Ellery", gold: "E1" }, candidates: [cand("E1", 0.9), cand("E2", 0.3)] },
+  { mention: { id: "b", text: "Vell Ford", gold: "E3" }, candidates: [cand("E3", 0.6), cand("E4", 0.55)] },
+  { mention: { id: "c", text: "Calder", gold: "E5" }, candidates: [cand("E6", 0.7), cand("E5", 0.2)] },
+  { mention: { id: "d", text: "Tench", gold: null }, candidates: [cand("E7", 0.4)] },
+];
+
+describe("sweep", () => {
+  it("sweeps the documented grid", () => {
+    expect(THRESHOLD_GRID).toHaveLength(101);
+    expect(THRESHOLD_GRID[37]).toBe(0.37);
+    expect(MARGIN_GRID).toEqual([0, 0.01, 0.02, 0.05, 0.1, 0.15, 0.2]);
+    const r = sweep(data, PRIOR_ONLY);
+    expect(r.grid).toHaveLength(101 * MARGIN_GRID.length);
+    expect(r.curve).toHaveLength(101);
+    expect(new Set(r.curve.map((p) => p.minMargin)).size).toBe(1);
+  });
+
+  it("measures points by counting decisions (hand-checked)", () => {
+    const sets = scoreAll(data, PRIOR_ONLY);
+    // threshold 0.5, margin 0: links a->E1 (right), b->E3 (right), c->E6 (wrong); d NIL (right)
+    const p = measurePoint(sets, 0.5, 0);
+    expect([p.predictedLinks, p.correctLinks, p.goldLinks]).toEqual([3, 2, 3]);
+    expect(p.linkPrecision).toBeCloseTo(2 / 3, 12);
+    expect(p.accuracy).toBeCloseTo(3 / 4, 12);
+    // margin 0.1 makes b ambiguous (0.6 - 0.55 = 0.05)
+    const q = measurePoint(sets, 0.5, 0.1);
+    expect([q.predictedLinks, q.correctLinks]).toEqual([2, 1]);
+    // threshold 0.8: only a
+    const s = measurePoint(sets, 0.8, 0);
+    expect([s.linkPrecision, s.linkRecall]).toEqual([1, 1 / 3]);
+  });
+
+  it("chooses by F1 with ties to higher precision, then lower threshold", () => {
+    const r = sweep(data, PRIOR_ONLY);
+    // best F1 = 2/3 (P 2/3, R 2/3) at thresholds 0.41..0.60 with a small margin; the smallest such threshold and margin win.
+    expect(r.chosen!.linkF1).toBeCloseTo(2 / 3, 12);
+    expect(r.chosen!.threshold).toBe(0.41);
+    expect(r.chosen!.minMargin).toBe(0);
+  });
+
+  it("chooses by recall at a minimum precision, or says none reaches it", () => {
+    const r = sweep(data, PRIOR_ONLY, { objective: "recall-at-precision", minPrecision: 0.9 });
+    // precision >= 0.9 needs c's false link gone: threshold in (0.7, 0.9] links only a
+    expect(r.chosen!.linkPrecision).toBe(1);
+    expect(r.chosen!.linkRecall).toBeCloseTo(1 / 3, 12);
+    expect(r.chosen!.threshold).toBe(0.71);
+    const none = sweep([data[2]!], PRIOR_ONLY, { objective: "recall-at-precision", minPrecision: 0.5 });
+    expect(none.chosen).toBeNull();
+    expect(none.message).toMatch(/no operating point reaches link precision 0\.5/);
+    expect(none.curve).toHaveLength(101);
+    expect(() => sweep(data, PRIOR_ONLY, { objective: "recall-at-precision" })).toThrow(/needs minPrecision/);
+  });
+
+  it("agrees with evaluate over rebuilt link rows", () => {
+    const set = syntheticSet(60, { seed: 3, noise: 0.25 });
+    for (const [t, m] of [
+      [0.5, 0.05],
+      [0.3, 0],
+      [0.8, 0.1],
+    ] as const) {
+      const point = measurePoint(scoreAll(set, DEFAULT_WEIGHTS), t, m);
+      const rows = linkRowsFor(set, { weights: DEFAULT_WEIGHTS, threshold: t, minMargin: m });
+      const o = evaluate(set.map((s, i) => ({ gold: s.mention, predicted: rows[i]! }))).overall;
+      expect([point.linkPrecision, point.linkRecall, point.accuracy]).toEqual([
+        o.linkPrecision,
+        o.linkRecall,
+        o.accuracy,
+      ]);
+      // and every row's entity is what decide picks
+      rows.forEach((r) => {
+        const d = decide(
+          r.candidates.map((c) => c.score),
+          t,
+          m,
+        );
+        expect(r.entity).toBe(d.chosen < 0 ? null : r.candidates[d.chosen]!.entity);
+      });
+    }
+  });
+});
