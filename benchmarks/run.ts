@@ -310,7 +310,8 @@ function spawnPhase(phase: Phase, cfg: RunConfig): Measure[] {
     { stdio: ["ignore", "pipe", "inherit"], encoding: "utf8", maxBuffer: CHILD_MAX_BUFFER },
   );
   if (child.error !== undefined) throw child.error;
-  if (child.status !== 0) throw new Error(`phase ${phase} failed (exit status ${child.status ?? child.signal})`);
+  if (child.status !== 0)
+    throw new Error(`phase ${phase} failed (exit status ${child.status ?? child.signal})`);
   return child.stdout
     .split("\n")
     .filter((line) => line.trim() !== "")
@@ -326,7 +327,9 @@ function cachedManifest(cfg: RunConfig): GenerateManifest | null {
     m.entities === cfg.entities &&
     m.mentions === cfg.mentions &&
     m.seed === cfg.seed;
-  return same && existsSync(join(cfg.dataDir, TABLE_FILE)) && existsSync(join(cfg.dataDir, MENTIONS_FILE)) ? m : null;
+  return same && existsSync(join(cfg.dataDir, TABLE_FILE)) && existsSync(join(cfg.dataDir, MENTIONS_FILE))
+    ? m
+    : null;
 }
 
 interface CliOptions {

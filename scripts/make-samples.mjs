@@ -265,21 +265,21 @@ const OCR_SKIP = /^(?:[A-Za-z]{1,5}\.|(?:[A-Za-z]\.)+|&|and|the|of|on|Sons|Bros\
 
 /** Damage one letter group in one word of `text`; returns the text unchanged when nothing applies. */
 function ocrDamage(text) {
-  const words = [...text.matchAll(/[\p{L}\p{N}'.&]+/gu)].filter(
+  const words = [...text.matchAll(/[\p{L}\p{N}]+\.?/gu)].filter(
     (m) => m[0].replace(/[^\p{L}]/gu, "").length >= OCR_MIN_WORD && !OCR_SKIP.test(m[0]),
   );
   if (words.length === 0) return text;
   const word = pick(words);
   const options = [];
+  const letters = word[0].replace(/\.$/, "").length;
   for (const [from, to] of OCR_RULES) {
     let at = word[0].indexOf(from, 1);
-    while (at > 0) {
+    while (at > 0 && at + from.length <= letters) {
       options.push({ at, from, to });
       at = word[0].indexOf(from, at + 1);
     }
   }
   // A dropped letter inside the word is the other common damage.
-  const letters = word[0].length;
   for (let at = 1; at < letters - 1; at++) {
     if (/\p{Ll}/u.test(word[0][at])) options.push({ at, from: word[0][at], to: "" });
   }

@@ -87,7 +87,15 @@ export const FEATURE_NAMES: readonly FeatureName[] = [
 ];
 
 /** Which generation path found a candidate. */
-export type CandidatePath = "exact" | "ocr" | "acronym" | "initials" | "fts" | "fuzzy" | "phonetic" | "document";
+export type CandidatePath =
+  | "exact"
+  | "ocr"
+  | "acronym"
+  | "initials"
+  | "fts"
+  | "fuzzy"
+  | "phonetic"
+  | "document";
 
 /** A candidate as it appears in a link row. */
 export interface CandidateOut {

@@ -6,6 +6,7 @@ import { afterAll, describe, expect, it } from "vitest";
 import { generate, MENTIONS_FILE, TABLE_FILE } from "../benchmarks/generate.js";
 import { OCR_CONFUSIONS, ocrConfusion } from "../benchmarks/gen/noise.js";
 import { mixSeed, Rng } from "../benchmarks/gen/prng.js";
+import { CompletenessCounter, evenSample, QualityCounter } from "../benchmarks/measure.js";
 import type { LabeledMention } from "../src/types.js";
 
 /** Small sizes keep the test fast on a shared 2-core machine. */
@@ -116,5 +117,37 @@ describe("benchmark generator", () => {
       expect(Math.abs(out.length - "Quarelby & Sons".length)).toBeLessThanOrEqual(1);
       expect(out).not.toBe("Quarelby & Sons");
     }
+  });
+});
+
+describe("benchmark measures", () => {
+  it("counts precision, recall and F1 of link decisions, NIL decisions not being links", () => {
+    const q = new QualityCounter();
+    q.add("a", { entity: "a" }); // right link
+    q.add("b", { entity: "c" }); // wrong link
+    q.add("d", { entity: null }); // missed link
+    q.add(null, { entity: null }); // right NIL
+    q.add(null, { entity: "e" }); // false link
+    const r = q.result();
+    // 1 right of 3 predicted links, 1 right of 3 gold links.
+    expect(r.precision).toBeCloseTo(1 / 3, 4);
+    expect(r.recall).toBeCloseTo(1 / 3, 4);
+    expect(r.f1).toBeCloseTo(1 / 3, 4);
+    expect(r.accuracy).toBeCloseTo(2 / 5, 4);
+  });
+
+  it("measures pairs completeness over non-NIL mentions only", () => {
+    const c = new CompletenessCounter();
+    c.add("a", ["x", "a"]);
+    c.add("b", ["x"]);
+    c.add(null, ["y", "z", "w"]);
+    expect(c.completeness()).toBe(0.5);
+    expect(c.nonNil()).toBe(2);
+    expect(c.candidatesPerMention()).toBe(2);
+  });
+
+  it("samples evenly and never more than there is", () => {
+    expect(evenSample(10, 5)).toEqual([0, 2, 4, 6, 8]);
+    expect(evenSample(3, 10)).toEqual([0, 1, 2]);
   });
 });

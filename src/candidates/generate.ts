@@ -63,7 +63,11 @@ export interface MentionForm {
   norm: NormalizedName;
 }
 
-export function generateCandidates(kb: Kb, forms: readonly MentionForm[], opts: CandidateOptions): RawCandidate[] {
+export function generateCandidates(
+  kb: Kb,
+  forms: readonly MentionForm[],
+  opts: CandidateOptions,
+): RawCandidate[] {
   const found = new Map<number, RawCandidate>();
   let order = 0;
   const add = (eid: number, cls: EntityClass, path: CandidatePath) => {
@@ -83,7 +87,8 @@ export function generateCandidates(kb: Kb, forms: readonly MentionForm[], opts: 
     if (on.has("initials") && norm.initialsKey !== null && norm.tokens[0]!.length === 1) {
       for (const eid of kb.lookupKey(norm.initialsKey, cls, "initials")) add(eid, cls, "initials");
     }
-    if (on.has("ocr") && norm.ocrKey !== "") for (const eid of kb.lookupKey(norm.ocrKey, cls, "ocr")) add(eid, cls, "ocr");
+    if (on.has("ocr") && norm.ocrKey !== "")
+      for (const eid of kb.lookupKey(norm.ocrKey, cls, "ocr")) add(eid, cls, "ocr");
   }
 
   // Token search runs once over the union of the forms' tokens; hits of a class the mention cannot be are dropped.
@@ -98,7 +103,8 @@ export function generateCandidates(kb: Kb, forms: readonly MentionForm[], opts: 
     else if (df <= opts.ftsMaxDf) known.push(t);
   }
   if (on.has("fts") && known.length > 0) {
-    for (const hit of kb.searchAliases(known, opts.ftsLimit)) if (classes.has(hit.cls)) add(hit.eid, hit.cls, "fts");
+    for (const hit of kb.searchAliases(known, opts.ftsLimit))
+      if (classes.has(hit.cls)) add(hit.eid, hit.cls, "fts");
   }
   if (on.has("fuzzy") && unknown.length > 0) {
     const corrected = new Map<string, string[]>();
@@ -108,8 +114,10 @@ export function generateCandidates(kb: Kb, forms: readonly MentionForm[], opts: 
     }
     if (corrected.size > 0) {
       const terms = [...known];
-      for (const fixes of corrected.values()) for (const f of fixes) if (kb.tokenDf(f) <= opts.ftsMaxDf) terms.push(f);
-      for (const hit of kb.searchAliases(terms, opts.ftsLimit)) if (classes.has(hit.cls)) add(hit.eid, hit.cls, "fuzzy");
+      for (const fixes of corrected.values())
+        for (const f of fixes) if (kb.tokenDf(f) <= opts.ftsMaxDf) terms.push(f);
+      for (const hit of kb.searchAliases(terms, opts.ftsLimit))
+        if (classes.has(hit.cls)) add(hit.eid, hit.cls, "fuzzy");
       // The best correction of every token, as a whole key.
       for (const { cls, norm } of forms) {
         const key = norm.tokens.map((t) => corrected.get(t)?.[0] ?? t).join(" ");
@@ -120,12 +128,16 @@ export function generateCandidates(kb: Kb, forms: readonly MentionForm[], opts: 
 
   const all = [...found.values()];
   const isPrecise = (c: RawCandidate) => [...c.paths].some((p) => PRECISE_PATHS.has(p));
-  all.sort((a, b) => Number(isPrecise(b)) - Number(isPrecise(a)) || b.paths.size - a.paths.size || a.rank - b.rank);
+  all.sort(
+    (a, b) => Number(isPrecise(b)) - Number(isPrecise(a)) || b.paths.size - a.paths.size || a.rank - b.rank,
+  );
   if (all.length <= opts.maxCandidates) return all;
   // Too many: precise hits beyond the cap are chosen by popularity (many entities share one full name).
   const precise = all.filter(isPrecise);
   if (precise.length >= opts.maxCandidates) {
-    return precise.sort((a, b) => kb.entity(b.eid).prior - kb.entity(a.eid).prior || a.rank - b.rank).slice(0, opts.maxCandidates);
+    return precise
+      .sort((a, b) => kb.entity(b.eid).prior - kb.entity(a.eid).prior || a.rank - b.rank)
+      .slice(0, opts.maxCandidates);
   }
   return all.slice(0, opts.maxCandidates);
 }

@@ -18,7 +18,9 @@ import { ALL_PATHS } from "../candidates/generate.js";
 import type { CandidatePath } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 
-const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version: string };
+const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as {
+  version: string;
+};
 
 function unit(name: string) {
   return (v: string) => {
@@ -30,13 +32,19 @@ function unit(name: string) {
 function whole(name: string, min: number) {
   return (v: string) => {
     const x = Number(v);
-    if (!Number.isInteger(x) || x < min) throw new InvalidArgumentError(`${name} must be a whole number >= ${min}`);
+    if (!Number.isInteger(x) || x < min)
+      throw new InvalidArgumentError(`${name} must be a whole number >= ${min}`);
     return x;
   };
 }
 function pathList(v: string): CandidatePath[] {
-  const list = v.split(",").map((s) => s.trim()).filter(Boolean) as CandidatePath[];
-  for (const p of list) if (!ALL_PATHS.includes(p)) throw new InvalidArgumentError(`unknown path "${p}"; use ${ALL_PATHS.join(",")}`);
+  const list = v
+    .split(",")
+    .map((s) => s.trim())
+    .filter(Boolean) as CandidatePath[];
+  for (const p of list)
+    if (!ALL_PATHS.includes(p))
+      throw new InvalidArgumentError(`unknown path "${p}"; use ${ALL_PATHS.join(",")}`);
   return list;
 }
 
@@ -47,34 +55,87 @@ const pct = (x: number) => `${(100 * x).toFixed(1)}%`;
 /** Options shared by link, eval and tune for reading mentions. */
 function readerOptions(cmd: Command): Command {
   return cmd
-    .addOption(new Option("--from <format>", "mentions format (default: from the extension)").choices(["jsonl", "csv", "conll", "spans"]))
+    .addOption(
+      new Option("--from <format>", "mentions format (default: from the extension)").choices([
+        "jsonl",
+        "csv",
+        "conll",
+        "spans",
+      ]),
+    )
     .option("--documents <file>", "documents JSONL ({id, text}) the span rows point into (spans input)")
     .option("--tag-column <n>", "CoNLL: tag column, 0-based, negative from the end (default -1)", Number)
-    .option("--scheme <scheme>", "CoNLL: tag scheme IOB1, IOB2/BIO, IOE1, IOE2, BIOES/BILOU (default: detected)")
-    .option("--context-sentences <n>", "CoNLL: sentences of context either side (default 1)", whole("--context-sentences", 0))
-    .option("--window-chars <n>", "spans: characters of context either side (default 200)", whole("--window-chars", 0))
-    .option("--window-sentences <n>", "spans: sentences of context either side instead of characters", whole("--window-sentences", 0));
+    .option(
+      "--scheme <scheme>",
+      "CoNLL: tag scheme IOB1, IOB2/BIO, IOE1, IOE2, BIOES/BILOU (default: detected)",
+    )
+    .option(
+      "--context-sentences <n>",
+      "CoNLL: sentences of context either side (default 1)",
+      whole("--context-sentences", 0),
+    )
+    .option(
+      "--window-chars <n>",
+      "spans: characters of context either side (default 200)",
+      whole("--window-chars", 0),
+    )
+    .option(
+      "--window-sentences <n>",
+      "spans: sentences of context either side instead of characters",
+      whole("--window-sentences", 0),
+    );
 }
 function linkerOptions(cmd: Command): Command {
   return cmd
     .option("--config <file>", "tuned config (from `hawser tune`): weights, threshold, margin")
     .option("--force", "use a config tuned on another KB")
-    .option("--threshold <x>", "link when the best score is at least this (default 0.5, or the config's)", unit("--threshold"))
-    .option("--min-margin <x>", "and beats the runner-up by at least this (default 0.05, or the config's)", unit("--min-margin"))
+    .option(
+      "--threshold <x>",
+      "link when the best score is at least this (default 0.5, or the config's)",
+      unit("--threshold"),
+    )
+    .option(
+      "--min-margin <x>",
+      "and beats the runner-up by at least this (default 0.05, or the config's)",
+      unit("--min-margin"),
+    )
     .option("--top <k>", "candidates listed per row (default 3)", whole("--top", 0))
-    .option("--max-candidates <n>", "candidates scored per mention (default 30)", whole("--max-candidates", 1))
-    .option("--paths <list>", `candidate paths to run, comma-separated (default ${ALL_PATHS.join(",")})`, pathList)
+    .option(
+      "--max-candidates <n>",
+      "candidates scored per mention (default 30)",
+      whole("--max-candidates", 1),
+    )
+    .option(
+      "--paths <list>",
+      `candidate paths to run, comma-separated (default ${ALL_PATHS.join(",")})`,
+      pathList,
+    )
     .option("--labels <file>", "JSON label map overriding the built-in NER label sets");
 }
 function window(o: { windowChars?: number; windowSentences?: number }) {
-  if (o.windowChars !== undefined && o.windowSentences !== undefined) throw new UsageError("give --window-chars or --window-sentences, not both");
+  if (o.windowChars !== undefined && o.windowSentences !== undefined)
+    throw new UsageError("give --window-chars or --window-sentences, not both");
   if (o.windowChars !== undefined) return { window: { chars: o.windowChars } };
   if (o.windowSentences !== undefined) return { window: { sentences: o.windowSentences } };
   return {};
 }
 /** Commander's camelCase option object -> library options (only those given). */
 function common(o: Record<string, unknown>) {
-  const keep = ["from", "documents", "tagColumn", "scheme", "contextSentences", "config", "force", "threshold", "minMargin", "top", "maxCandidates", "paths", "labels"];
+  const keep = [
+    "from",
+    "documents",
+    "tagColumn",
+    "scheme",
+    "contextSentences",
+    "config",
+    "force",
+    "threshold",
+    "minMargin",
+    "top",
+    "maxCandidates",
+    "paths",
+    "labels",
+  ];
   const r: Record<string, unknown> = {};
   for (const k of keep) if (o[k] !== undefined) r[k] = o[k];
   return { ...r, ...window(o as { windowChars?: number; windowSentences?: number }) };
@@ -89,14 +150,26 @@ export function program(): Command {
 
   p.command("index")
     .description("build a KB file (SQLite) from a knowledge table (CSV, TSV or JSONL)")
-    .argument("<table>", "knowledge table: id, name, type, aliases, description, prior, other columns as attributes")
+    .argument(
+      "<table>",
+      "knowledge table: id, name, type, aliases, description, prior, other columns as attributes",
+    )
     .requiredOption("--out <kb>", "KB file to write (atomically)")
-    .addOption(new Option("--from <format>", "table format (default: from the extension)").choices(["csv", "tsv", "jsonl"]))
+    .addOption(
+      new Option("--from <format>", "table format (default: from the extension)").choices([
+        "csv",
+        "tsv",
+        "jsonl",
+      ]),
+    )
     .option("--labels <file>", "JSON label map for table types")
     .action(async (table: string, o: { out: string; from?: "csv" | "tsv" | "jsonl"; labels?: string }) => {
       const s = await index({ table, ...o });
-      err(`indexed ${s.entities} entities (${s.aliases} names and aliases, ${s.keys} keys) into ${o.out} in ${s.seconds.toFixed(2)}s`);
-      for (const [t, n] of Object.entries(s.unknownTypes)) err(`hawser: warning: table type "${t}" is not a known type (${n} rows): indexed as class "other"`);
+      err(
+        `indexed ${s.entities} entities (${s.aliases} names and aliases, ${s.keys} keys) into ${o.out} in ${s.seconds.toFixed(2)}s`,
+      );
+      for (const [t, n] of Object.entries(s.unknownTypes))
+        err(`hawser: warning: table type "${t}" is not a known type (${n} rows): indexed as class "other"`);
     });
 
   linkerOptions(
@@ -104,14 +177,30 @@ export function program(): Command {
       p
         .command("link")
         .description("link a file of mentions: one output row per mention, in input order")
-        .argument("<mentions>", "mentions: JSONL, CSV, CoNLL (.conll/.bio/.iob) or span rows with --documents")
+        .argument(
+          "<mentions>",
+          "mentions: JSONL, CSV, CoNLL (.conll/.bio/.iob) or span rows with --documents",
+        )
         .requiredOption("--kb <kb>", "KB file built by `hawser index`")
         .option("--out <file>", "output file, written atomically (default: stdout)")
-        .addOption(new Option("--to <format>", "output format (default: jsonl, or csv for a .csv --out)").choices(["jsonl", "csv"])),
+        .addOption(
+          new Option("--to <format>", "output format (default: jsonl, or csv for a .csv --out)").choices([
+            "jsonl",
+            "csv",
+          ]),
+        ),
     ),
   ).action(async (mentions: string, o: Record<string, unknown>) => {
-    const s = await link({ kb: o.kb as string, mentions, ...common(o), ...(o.out ? { out: o.out as string } : {}), ...(o.to ? { to: o.to as "jsonl" | "csv" } : {}) });
-    err(`linked ${s.linked} of ${s.mentions} mentions (${s.nil} NIL) in ${s.seconds.toFixed(2)}s${s.out ? ` -> ${s.out}` : ""}`);
+    const s = await link({
+      kb: o.kb as string,
+      mentions,
+      ...common(o),
+      ...(o.out ? { out: o.out as string } : {}),
+      ...(o.to ? { to: o.to as "jsonl" | "csv" } : {}),
+    });
+    err(
+      `linked ${s.linked} of ${s.mentions} mentions (${s.nil} NIL) in ${s.seconds.toFixed(2)}s${s.out ? ` -> ${s.out}` : ""}`,
+    );
   });
 
   linkerOptions(
@@ -122,7 +211,9 @@ export function program(): Command {
         .requiredOption("--kb <kb>", "KB file")
         .requiredOption("--gold <file>", "labeled link set: mentions plus gold (entity id or null)")
         .option("--predicted <file>", "link rows (JSONL) from another NER run, aligned to the gold spans")
-        .addOption(new Option("--span-match <mode>", "span alignment with --predicted").choices(["strict", "relaxed"]))
+        .addOption(
+          new Option("--span-match <mode>", "span alignment with --predicted").choices(["strict", "relaxed"]),
+        )
         .option("--k <k>", "k of candidate recall at k (default 3)", whole("--k", 1))
         .option("--json", "print the full report as JSON"),
     ),
@@ -145,16 +236,30 @@ export function program(): Command {
       .requiredOption("--kb <kb>", "KB file")
       .requiredOption("--gold <file>", "labeled link set")
       .requiredOption("--out <config>", "config file to write (JSON)")
-      .option("--min-precision <p>", "choose the highest recall with precision >= p (default: highest F1)", unit("--min-precision"))
+      .option(
+        "--min-precision <p>",
+        "choose the highest recall with precision >= p (default: highest F1)",
+        unit("--min-precision"),
+      )
       .option("--report <html>", "write a self-contained HTML report")
       .option("--folds <k>", "cross-validation folds (default 5)", whole("--folds", 2))
       .option("--seed <s>", "seed of the fold assignment (default 1)", whole("--seed", 0))
       .option("--l2 <x>", "L2 penalty of the logistic fit (default 1)", Number)
-      .option("--max-candidates <n>", "candidates scored per mention (default 30)", whole("--max-candidates", 1))
+      .option(
+        "--max-candidates <n>",
+        "candidates scored per mention (default 30)",
+        whole("--max-candidates", 1),
+      )
       .option("--labels <file>", "JSON label map"),
   ).action(async (o: Record<string, unknown>) => {
-    const opt = { kb: o.kb as string, gold: o.gold as string, out: o.out as string, ...common(o) } as Parameters<typeof tune>[0];
-    for (const k of ["minPrecision", "report", "folds", "seed", "l2"] as const) if (o[k] !== undefined) (opt as unknown as Record<string, unknown>)[k] = o[k];
+    const opt = {
+      kb: o.kb as string,
+      gold: o.gold as string,
+      out: o.out as string,
+      ...common(o),
+    } as Parameters<typeof tune>[0];
+    for (const k of ["minPrecision", "report", "folds", "seed", "l2"] as const)
+      if (o[k] !== undefined) (opt as unknown as Record<string, unknown>)[k] = o[k];
     const { config, result } = await tune(opt);
     const f = result.figures;
     out(
@@ -181,7 +286,9 @@ export function program(): Command {
       const r = await agree({ a, b, ...(o.out ? { out: o.out } : {}) });
       if (o.json) out(JSON.stringify(r, null, 2));
       else {
-        out(`mentions ${r.n}\nobserved agreement ${r.observed.toFixed(4)}\nchance agreement ${r.expected.toFixed(4)}\nCohen's kappa ${r.kappa.toFixed(4)}\ndisagreements ${r.disagreements.length}`);
+        out(
+          `mentions ${r.n}\nobserved agreement ${r.observed.toFixed(4)}\nchance agreement ${r.expected.toFixed(4)}\nCohen's kappa ${r.kappa.toFixed(4)}\ndisagreements ${r.disagreements.length}`,
+        );
         if (!o.out) for (const d of r.disagreements) out(JSON.stringify(d));
       }
     });

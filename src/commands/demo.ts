@@ -67,8 +67,11 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
     .filter(Boolean)
     .map((l) => JSON.parse(l) as LinkRow);
   for (const r of pickExamples(rows, options.examples ?? 4)) {
-    print(`   - "${r.text}" (${r.type ?? "no label"}) -> ${r.entity === null ? "NIL" : `${r.entity} ${r.name}`}, score ${r.score}`);
-    for (const reason of r.reasons.filter((x) => x.code !== "found-by")) print(`       ${reason.code}: ${reason.message}`);
+    print(
+      `   - "${r.text}" (${r.type ?? "no label"}) -> ${r.entity === null ? "NIL" : `${r.entity} ${r.name}`}, score ${r.score}`,
+    );
+    for (const reason of r.reasons.filter((x) => x.code !== "found-by"))
+      print(`       ${reason.code}: ${reason.message}`);
   }
   const tuned = await tune({ kb, gold, out: config, report });
   const after = (await evaluate({ kb, gold, config })) as EvalReport;

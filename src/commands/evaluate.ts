@@ -9,7 +9,20 @@ import { InputError, UsageError } from "../util/errors.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
 
 export interface EvalOptions
-  extends Pick<LinkOptions, "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels" | "from" | "documents" | "window"> {
+  extends Pick<
+    LinkOptions,
+    | "config"
+    | "force"
+    | "threshold"
+    | "minMargin"
+    | "top"
+    | "maxCandidates"
+    | "paths"
+    | "labels"
+    | "from"
+    | "documents"
+    | "window"
+  > {
   /** KB file. */
   kb: string;
   /** Labeled link set: mentions plus `gold` (entity id or null). */
@@ -25,7 +38,10 @@ export interface EvalOptions
   k?: number;
 }
 
-export async function readLabeled(file: string, options: Parameters<typeof readerOptions>[0] = {}): Promise<LabeledMention[]> {
+export async function readLabeled(
+  file: string,
+  options: Parameters<typeof readerOptions>[0] = {},
+): Promise<LabeledMention[]> {
   const out: LabeledMention[] = [];
   for await (const m of readMentions(file, { ...readerOptions(options), labeled: true })) out.push(m);
   if (out.length === 0) throw new InputError({ file }, "the labeled set is empty");
@@ -36,16 +52,29 @@ async function readLinkRows(file: string): Promise<LinkRow[]> {
   const rows: LinkRow[] = [];
   for await (const { line, value } of readJsonLines(file)) {
     const r = value as Partial<LinkRow>;
-    if (typeof r.mention !== "string") throw new InputError({ file, line, field: "mention" }, "a link row needs a mention id");
-    if (r.entity !== null && typeof r.entity !== "string") throw new InputError({ file, line, field: "entity" }, "entity must be an id or null");
-    rows.push({ candidates: [], reasons: [], score: 0, margin: 0, text: "", type: null, name: null, ...r } as LinkRow);
+    if (typeof r.mention !== "string")
+      throw new InputError({ file, line, field: "mention" }, "a link row needs a mention id");
+    if (r.entity !== null && typeof r.entity !== "string")
+      throw new InputError({ file, line, field: "entity" }, "entity must be an id or null");
+    rows.push({
+      candidates: [],
+      reasons: [],
+      score: 0,
+      margin: 0,
+      text: "",
+      type: null,
+      name: null,
+      ...r,
+    } as LinkRow);
   }
   return rows;
 }
 
 export async function evaluate(options: EvalOptions): Promise<EvalReport | AlignedEvalReport> {
   if (options.spanMatch !== undefined && options.predicted === undefined) {
-    throw new UsageError("--span-match needs --predicted (rows from another NER run to align with the gold spans)");
+    throw new UsageError(
+      "--span-match needs --predicted (rows from another NER run to align with the gold spans)",
+    );
   }
   if (options.spanMatch !== undefined && options.spanMatch !== "strict" && options.spanMatch !== "relaxed") {
     throw new UsageError(`unknown span match "${options.spanMatch}": use strict or relaxed`);

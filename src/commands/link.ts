@@ -54,7 +54,10 @@ export interface LinkSummary {
 
 /** Build linker options from a config file and explicit overrides (shared by link, eval, demo). */
 export function linkerOptionsFrom(
-  o: Pick<LinkOptions, "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels">,
+  o: Pick<
+    LinkOptions,
+    "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels"
+  >,
   kbFingerprint: string,
 ): LinkerOptions {
   const opts: LinkerOptions = {};
@@ -75,7 +78,15 @@ export function linkerOptionsFrom(
 
 /** The reader settings among a command's options (only those given, so the reader can check them). */
 export function readerOptions(o: Omit<ReadMentionsOptions, "labeled">): ReadMentionsOptions {
-  const keys = ["from", "documents", "tagColumn", "tokenColumn", "scheme", "contextSentences", "window"] as const;
+  const keys = [
+    "from",
+    "documents",
+    "tagColumn",
+    "tokenColumn",
+    "scheme",
+    "contextSentences",
+    "window",
+  ] as const;
   const out: Record<string, unknown> = {};
   for (const k of keys) if (o[k] !== undefined) out[k] = o[k];
   return out as ReadMentionsOptions;
@@ -83,7 +94,8 @@ export function readerOptions(o: Omit<ReadMentionsOptions, "labeled">): ReadMent
 
 export function outputFormat(out: string | undefined, to: string | undefined): OutputFormat {
   if (to !== undefined) {
-    if (to !== "jsonl" && to !== "csv") throw new UsageError(`unknown output format "${to}": use jsonl or csv`);
+    if (to !== "jsonl" && to !== "csv")
+      throw new UsageError(`unknown output format "${to}": use jsonl or csv`);
     return to;
   }
   return out?.toLowerCase().endsWith(".csv") ? "csv" : "jsonl";
@@ -130,7 +142,14 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
       bar.stop();
     }
     for (const w of linker.labels.warnings()) note(w);
-    return { mentions: n, linked, nil: n - linked, out: options.out ?? null, warnings, seconds: (Date.now() - started) / 1000 };
+    return {
+      mentions: n,
+      linked,
+      nil: n - linked,
+      out: options.out ?? null,
+      warnings,
+      seconds: (Date.now() - started) / 1000,
+    };
   } finally {
     kb.close();
   }

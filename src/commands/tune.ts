@@ -5,13 +5,14 @@ import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { configFromTune, type TunedConfig, writeConfig } from "../tune/config.js";
 import { renderReport } from "../tune/report-html.js";
-import { type TuneResult, tune as fit } from "../tune/tune.js";
+import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
 import { UsageError } from "../util/errors.js";
 import { readLabeled } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
 
-export interface TuneCommandOptions extends Pick<LinkOptions, "maxCandidates" | "paths" | "labels" | "from" | "documents" | "window"> {
+export interface TuneCommandOptions
+  extends Pick<LinkOptions, "maxCandidates" | "paths" | "labels" | "from" | "documents" | "window"> {
   kb: string;
   /** Labeled link set. */
   gold: string;
@@ -35,10 +36,15 @@ export interface TuneCommandResult {
 }
 
 /** Every candidate the linker scores for each labeled mention: the training data of tuning. */
-export function scoredMentionsFor(linker: ReturnType<typeof createLinker>, gold: Awaited<ReturnType<typeof readLabeled>>): ScoredMention[] {
+export function scoredMentionsFor(
+  linker: ReturnType<typeof createLinker>,
+  gold: Awaited<ReturnType<typeof readLabeled>>,
+): ScoredMention[] {
   return gold.map((m) => ({
     mention: m,
-    candidates: linker.scoreCandidates(m).map((c) => ({ entity: c.entity.id, features: c.features, name: c.entity.name })),
+    candidates: linker
+      .scoreCandidates(m)
+      .map((c) => ({ entity: c.entity.id, features: c.features, name: c.entity.name })),
   }));
 }
 
@@ -52,7 +58,7 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const data = scoredMentionsFor(linker, gold);
     const objective: Objective = options.minPrecision !== undefined ? "recall-at-precision" : "f1";
-    const result = fit(data, {
+    const result = tuneScored(data, {
       objective,
       ...(options.minPrecision !== undefined ? { minPrecision: options.minPrecision } : {}),
       ...(options.folds !== undefined ? { folds: options.folds } : {}),

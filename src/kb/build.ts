@@ -139,7 +139,9 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   const insEntity = db.prepare(
     "INSERT INTO entities (eid, id, name, type, class, description, prior, attributes, terms) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
   );
-  const insAlias = db.prepare("INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)");
+  const insAlias = db.prepare(
+    "INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)",
+  );
   const insKey = db.prepare("INSERT INTO keys (key, class, kind, aid) VALUES (?, ?, ?, ?)");
   const insFts = db.prepare("INSERT INTO alias_fts (rowid, tokens) VALUES (?, ?)");
   const vocab = new Map<string, number>();
@@ -165,7 +167,17 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
       for (let i = 0; i < terms.length; i++) {
         if (i === 0 || terms[i] !== terms[i - 1]) termDf.set(terms[i]!, (termDf.get(terms[i]!) ?? 0) + 1);
       }
-      insEntity.run(eid, r.id, r.name, r.type, cls, r.description, r.prior, JSON.stringify(r.attributes), terms.join(" "));
+      insEntity.run(
+        eid,
+        r.id,
+        r.name,
+        r.type,
+        cls,
+        r.description,
+        r.prior,
+        JSON.stringify(r.attributes),
+        terms.join(" "),
+      );
       const seenKeys = new Set<string>();
       const entityTokens = new Set<string>();
       for (const a of aliasForms(r, cls)) {
@@ -212,7 +224,8 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   db.transaction(() => {
     for (const [token, df] of vocab) {
       insVocab.run(token, df);
-      if (token.length >= FUZZY_MIN_TOKEN_LENGTH) for (const v of deletionVariants(token)) insDelete.run(v, token);
+      if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
+        for (const v of deletionVariants(token)) insDelete.run(v, token);
     }
     for (const [term, df] of termDf) insIdf.run(term, df);
   })();

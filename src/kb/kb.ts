@@ -98,7 +98,8 @@ export class Kb {
   private readonly vocabCache = new Lru<string, number>(IDF_CACHE_SIZE);
 
   constructor(file: string) {
-    if (!existsSync(file)) throw new InputError({ file }, "no such KB file (build one with `hawser index TABLE --out KB`)");
+    if (!existsSync(file))
+      throw new InputError({ file }, "no such KB file (build one with `hawser index TABLE --out KB`)");
     let db: Database.Database;
     try {
       db = new Database(file, { readonly: true, fileMustExist: true });
@@ -109,14 +110,22 @@ export class Kb {
     this.db = db;
     this.info = readInfo(db, file);
     this.stmts = {
-      key: db.prepare("SELECT DISTINCT a.eid AS eid FROM keys k JOIN aliases a ON a.aid = k.aid WHERE k.key = ? AND k.class = ? AND k.kind = ?"),
+      key: db.prepare(
+        "SELECT DISTINCT a.eid AS eid FROM keys k JOIN aliases a ON a.aid = k.aid WHERE k.key = ? AND k.class = ? AND k.kind = ?",
+      ),
       fts: db.prepare("SELECT rowid AS aid FROM alias_fts WHERE alias_fts MATCH ? ORDER BY rank LIMIT ?"),
-      aliasEntity: db.prepare("SELECT a.eid AS eid, e.class AS class FROM aliases a JOIN entities e ON e.eid = a.eid WHERE a.aid = ?"),
+      aliasEntity: db.prepare(
+        "SELECT a.eid AS eid, e.class AS class FROM aliases a JOIN entities e ON e.eid = a.eid WHERE a.aid = ?",
+      ),
       vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
       deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
       idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
-      entity: db.prepare("SELECT eid, id, name, type, class, description, prior, attributes, terms FROM entities WHERE eid = ?"),
-      aliases: db.prepare("SELECT aid, text, key, full, ocr, canonical FROM aliases WHERE eid = ? ORDER BY aid"),
+      entity: db.prepare(
+        "SELECT eid, id, name, type, class, description, prior, attributes, terms FROM entities WHERE eid = ?",
+      ),
+      aliases: db.prepare(
+        "SELECT aid, text, key, full, ocr, canonical FROM aliases WHERE eid = ? ORDER BY aid",
+      ),
       byClass: db.prepare("SELECT eid FROM entities WHERE class = ? ORDER BY eid"),
       byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
     };
@@ -225,14 +234,22 @@ function readInfo(db: Database.Database, file: string): KbInfo {
     rows = db.prepare("SELECT key, value FROM meta").all() as Array<{ key: string; value: string }>;
   } catch (e) {
     const msg = (e as Error).message;
-    throw new InputError({ file }, /not a database|no such table/.test(msg) ? "not a hawser KB file" : `cannot read KB: ${msg}`);
+    throw new InputError(
+      { file },
+      /not a database|no such table/.test(msg) ? "not a hawser KB file" : `cannot read KB: ${msg}`,
+    );
   }
   const m = new Map(rows.map((r) => [r.key, r.value]));
-  if (m.get("format") !== KB_FORMAT) throw new InputError({ file }, "not a hawser KB file (no hawser format tag)");
+  if (m.get("format") !== KB_FORMAT)
+    throw new InputError({ file }, "not a hawser KB file (no hawser format tag)");
   const version = Number(m.get("schema_version"));
-  if (!Number.isInteger(version) || version < 1) throw new InputError({ file }, "KB file has no valid schema version");
+  if (!Number.isInteger(version) || version < 1)
+    throw new InputError({ file }, "KB file has no valid schema version");
   if (version > SCHEMA_VERSION) {
-    throw new InputError({ file }, `KB schema version ${version} is newer than this hawser reads (${SCHEMA_VERSION}); upgrade hawser`);
+    throw new InputError(
+      { file },
+      `KB schema version ${version} is newer than this hawser reads (${SCHEMA_VERSION}); upgrade hawser`,
+    );
   }
   const normalizerVersion = m.get("normalizer_version") ?? "";
   if (normalizerVersion !== NORMALIZER_VERSION) {

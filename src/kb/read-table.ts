@@ -7,7 +7,7 @@ import { extname } from "node:path";
 import { type CsvError, parse } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
-import { Utf8Check } from "../util/utf8-check.js";
+import { strictUtf8 } from "../read/utf8.js";
 
 export type TableFormat = "csv" | "tsv" | "jsonl";
 
@@ -46,10 +46,14 @@ class RowValidator {
       if (v === undefined || v === null) return "";
       if (typeof v === "string") return v.trim();
       if (typeof v === "number" || typeof v === "boolean") return String(v);
-      throw new InputError({ file, line, field }, `expected text, got ${Array.isArray(v) ? "an array" : typeof v}`);
+      throw new InputError(
+        { file, line, field },
+        `expected text, got ${Array.isArray(v) ? "an array" : typeof v}`,
+      );
     };
     for (const field of REQUIRED_COLUMNS) {
-      if (str(field) === "") throw new InputError({ file, line, field }, `missing ${field}: every row needs id, name and type`);
+      if (str(field) === "")
+        throw new InputError({ file, line, field }, `missing ${field}: every row needs id, name and type`);
     }
     const id = str("id");
     if (this.seen.has(id)) throw new InputError({ file, line, field: "id" }, `duplicate id "${id}"`);
@@ -60,7 +64,10 @@ class RowValidator {
     if (priorRaw !== undefined && priorRaw !== null && priorRaw !== "") {
       prior = typeof priorRaw === "number" ? priorRaw : Number(String(priorRaw).trim());
       if (typeof priorRaw === "boolean" || !Number.isFinite(prior)) {
-        throw new InputError({ file, line, field: "prior" }, `prior must be a number, got "${String(priorRaw)}"`);
+        throw new InputError(
+          { file, line, field: "prior" },
+          `prior must be a number, got "${String(priorRaw)}"`,
+        );
       }
       if (prior < 0) throw new InputError({ file, line, field: "prior" }, `prior must be >= 0, got ${prior}`);
     }
@@ -80,10 +87,15 @@ class RowValidator {
     else if (typeof v === "string") list = v.split(ALIAS_SEPARATOR);
     else if (Array.isArray(v)) {
       list = v.map((a, i) => {
-        if (typeof a !== "string") throw new InputError({ file: this.file, line, field: `aliases[${i}]` }, "aliases must be strings");
+        if (typeof a !== "string")
+          throw new InputError({ file: this.file, line, field: `aliases[${i}]` }, "aliases must be strings");
         return a;
       });
-    } else throw new InputError({ file: this.file, line, field: "aliases" }, "aliases must be an array of strings or a |-separated string");
+    } else
+      throw new InputError(
+        { file: this.file, line, field: "aliases" },
+        "aliases must be an array of strings or a |-separated string",
+      );
     const out: string[] = [];
     const seen = new Set<string>([name]);
     for (const a of list) {
@@ -103,10 +115,15 @@ async function* readDelimited(file: string, delimiter: string): AsyncGenerator<T
     columns: (header: string[]) => {
       const cols = header.map((h) => h.trim());
       for (const c of REQUIRED_COLUMNS) {
-        if (!cols.includes(c)) throw new InputError({ file, line: 1, field: c }, `the header has no "${c}" column (found: ${cols.join(", ")})`);
+        if (!cols.includes(c))
+          throw new InputError(
+            { file, line: 1, field: c },
+            `the header has no "${c}" column (found: ${cols.join(", ")})`,
+          );
       }
       const dup = cols.find((c, i) => cols.indexOf(c) !== i);
-      if (dup !== undefined) throw new InputError({ file, line: 1, field: dup }, `column "${dup}" appears twice in the header`);
+      if (dup !== undefined)
+        throw new InputError({ file, line: 1, field: dup }, `column "${dup}" appears twice in the header`);
       return cols;
     },
     info: true,
@@ -115,22 +132,32 @@ async function* readDelimited(file: string, delimiter: string): AsyncGenerator<T
     quote: delimiter === "\t" ? false : '"',
   });
   const source = createReadStream(file);
-  const check = new Utf8Check(file);
+  const check = strictUtf8(file);
   source.on("error", (e) => parser.destroy(e));
   check.on("error", (e) => parser.destroy(e));
   source.pipe(check).pipe(parser);
   try {
-    for await (const item of parser as AsyncIterable<{ record: Record<string, string>; info: { lines: number } }>) {
+    for await (const item of parser as AsyncIterable<{
+      record: Record<string, string>;
+      info: { lines: number };
+    }>) {
       const line = item.info.lines;
       yield { record: validator.build(line, item.record, item.record.aliases), line };
     }
   } catch (e) {
     if (e instanceof InputError) throw e;
     const ce = e as CsvError & { lines?: number; code?: string };
-    if (ce.code === "CSV_RECORD_INCONSISTENT_FIELDS_LENGTH" || ce.code === "CSV_RECORD_INCONSISTENT_COLUMNS") {
-      throw new InputError({ file, line: ce.lines }, `wrong number of fields: ${ce.message.replace(/^Invalid Record Length: /, "")}`);
+    if (
+      ce.code === "CSV_RECORD_INCONSISTENT_FIELDS_LENGTH" ||
+      ce.code === "CSV_RECORD_INCONSISTENT_COLUMNS"
+    ) {
+      throw new InputError(
+        { file, line: ce.lines },
+        `wrong number of fields: ${ce.message.replace(/^Invalid Record Length: /, "")}`,
+      );
     }
-    if (typeof ce.code === "string" && ce.code.startsWith("CSV_")) throw new InputError({ file, line: ce.lines }, ce.message);
+    if (typeof ce.code === "string" && ce.code.startsWith("CSV_"))
+      throw new InputError({ file, line: ce.lines }, ce.message);
     throw e;
   } finally {
     source.destroy();

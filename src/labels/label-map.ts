@@ -20,7 +20,12 @@ export function foldLabel(label: string): string {
 const UNKNOWN_INFO: LabelInfo = {
   cls: "other",
   linkable: true,
-  compat: { person: UNLABELED_COMPAT, organization: UNLABELED_COMPAT, location: UNLABELED_COMPAT, other: UNLABELED_COMPAT },
+  compat: {
+    person: UNLABELED_COMPAT,
+    organization: UNLABELED_COMPAT,
+    location: UNLABELED_COMPAT,
+    other: UNLABELED_COMPAT,
+  },
 };
 
 export class LabelMap {
@@ -66,9 +71,12 @@ export class LabelMap {
   warnings(): string[] {
     const out: string[] = [];
     for (const [label, n] of this.unknown) {
-      out.push(`unknown label "${label}" on ${n} mention(s): compared with every type at neutral weight ${UNLABELED_COMPAT}`);
+      out.push(
+        `unknown label "${label}" on ${n} mention(s): compared with every type at neutral weight ${UNLABELED_COMPAT}`,
+      );
     }
-    for (const [label, n] of this.skipped) out.push(`label "${label}" is not linkable: ${n} mention(s) left NIL`);
+    for (const [label, n] of this.skipped)
+      out.push(`label "${label}" is not linkable: ${n} mention(s) left NIL`);
     return out;
   }
 }
@@ -92,14 +100,19 @@ export function readLabelMapFile(file: string): LabelMap {
   for (const [label, v] of Object.entries(data as Record<string, unknown>)) {
     const spec = typeof v === "string" ? { class: v } : v;
     if (typeof spec !== "object" || spec === null) {
-      throw new InputError({ file, field: label }, "expected a class name or an object with \"class\"");
+      throw new InputError({ file, field: label }, 'expected a class name or an object with "class"');
     }
     const s = spec as { class?: unknown; linkable?: unknown; compat?: unknown };
     if (typeof s.class !== "string" || !(ENTITY_CLASSES as readonly string[]).includes(s.class)) {
-      throw new InputError({ file, field: `${label}.class` }, `class must be one of ${ENTITY_CLASSES.join(", ")}`);
+      throw new InputError(
+        { file, field: `${label}.class` },
+        `class must be one of ${ENTITY_CLASSES.join(", ")}`,
+      );
     }
     const cls = s.class as EntityClass;
-    const base = BUILTIN_LABELS.get(cls === "organization" ? "org" : cls === "location" ? "loc" : cls === "person" ? "per" : "misc")!;
+    const base = BUILTIN_LABELS.get(
+      cls === "organization" ? "org" : cls === "location" ? "loc" : cls === "person" ? "per" : "misc",
+    )!;
     const compat: CompatRow = { ...base.compat };
     if (s.compat !== undefined) {
       if (typeof s.compat !== "object" || s.compat === null) {
@@ -107,7 +120,10 @@ export function readLabelMapFile(file: string): LabelMap {
       }
       for (const [c, w] of Object.entries(s.compat as Record<string, unknown>)) {
         if (!(ENTITY_CLASSES as readonly string[]).includes(c)) {
-          throw new InputError({ file, field: `${label}.compat.${c}` }, `unknown class; use ${ENTITY_CLASSES.join(", ")}`);
+          throw new InputError(
+            { file, field: `${label}.compat.${c}` },
+            `unknown class; use ${ENTITY_CLASSES.join(", ")}`,
+          );
         }
         if (typeof w !== "number" || w < 0 || w > 1) {
           throw new InputError({ file, field: `${label}.compat.${c}` }, "weight must be a number in [0, 1]");

@@ -38,7 +38,11 @@ export function evidenceReasons(c: Explained): Reason[] {
       alias: alias.text,
     });
   } else if (c.name_.keyKind === "ocr") {
-    out.push({ code: "ocr-key", message: `matches "${alias.text}" once common OCR confusions are folded`, alias: alias.text });
+    out.push({
+      code: "ocr-key",
+      message: `matches "${alias.text}" once common OCR confusions are folded`,
+      alias: alias.text,
+    });
   }
   if (c.name_.abbreviationKind === "acronym") {
     out.push({ code: "acronym", message: `reads as the acronym of "${c.name}"` });
@@ -95,7 +99,10 @@ export function decisionReason(
         minMargin,
       };
     case "no-candidates":
-      return { code: "no-candidates", message: "no entry of a compatible type matched any key, token or fuzzy variant" };
+      return {
+        code: "no-candidates",
+        message: "no entry of a compatible type matched any key, token or fuzzy variant",
+      };
     case "below-threshold":
       return {
         code: "below-threshold",

@@ -3,7 +3,13 @@
  * per open KB; it is synchronous per mention and keeps no per-mention state, so a stream of any
  * length links in constant memory.
  */
-import { ALL_PATHS, type CandidateOptions, DEFAULT_CANDIDATE_OPTIONS, generateCandidates, type MentionForm } from "../candidates/generate.js";
+import {
+  ALL_PATHS,
+  type CandidateOptions,
+  DEFAULT_CANDIDATE_OPTIONS,
+  generateCandidates,
+  type MentionForm,
+} from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide } from "../decide/decide.js";
 import type { EntityRow, Kb } from "../kb/kb.js";
 import type { LabelInfo } from "../labels/builtin.js";
@@ -97,9 +103,12 @@ export class Linker {
     checkUnit("threshold", this.config.threshold);
     checkUnit("minMargin", this.config.minMargin);
     this.top = options.top ?? DEFAULT_TOP;
-    if (!Number.isInteger(this.top) || this.top < 0) throw new UsageError(`top must be a whole number >= 0, got ${this.top}`);
+    if (!Number.isInteger(this.top) || this.top < 0)
+      throw new UsageError(`top must be a whole number >= 0, got ${this.top}`);
     const paths = options.paths ?? ALL_PATHS;
-    for (const p of paths) if (!ALL_PATHS.includes(p)) throw new UsageError(`unknown candidate path "${p}"; use ${ALL_PATHS.join(", ")}`);
+    for (const p of paths)
+      if (!ALL_PATHS.includes(p))
+        throw new UsageError(`unknown candidate path "${p}"; use ${ALL_PATHS.join(", ")}`);
     this.cand = {
       ...DEFAULT_CANDIDATE_OPTIONS,
       ...options.candidates,
@@ -146,8 +155,21 @@ export class Linker {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
     const name = nameMatch(form.norm, e);
     const vector = this.vectorOf(e);
-    const f = features(name, p.context, vector, p.info.compat[e.cls], priorFeature(e.prior, this.kb.info.maxPrior));
-    return { entity: e, features: f, score: combine(f, this.config.weights), paths, name, contextVector: vector };
+    const f = features(
+      name,
+      p.context,
+      vector,
+      p.info.compat[e.cls],
+      priorFeature(e.prior, this.kb.info.maxPrior),
+    );
+    return {
+      entity: e,
+      features: f,
+      score: combine(f, this.config.weights),
+      paths,
+      name,
+      contextVector: vector,
+    };
   }
 
   /** Every generated candidate, scored, best first. */
@@ -184,7 +206,8 @@ export class Linker {
     const p = this.prepare(m);
     const scored: ScoredCandidate[] = [];
     for (const f of p.forms) {
-      for (const eid of this.kb.entitiesOfClass(f.cls)) scored.push(this.scoreOne(p, this.kb.entity(eid), f.cls, new Set()));
+      for (const eid of this.kb.entitiesOfClass(f.cls))
+        scored.push(this.scoreOne(p, this.kb.entity(eid), f.cls, new Set()));
     }
     scored.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
     return this.rowFor(p, scored);
@@ -207,7 +230,11 @@ export class Linker {
       ...(m.end !== undefined ? { end: m.end } : {}),
     };
     if (!p.info.linkable) {
-      reasons.push({ code: "not-linkable", message: `label ${m.type} marks a value (date, number, amount), not an entity`, label: m.type });
+      reasons.push({
+        code: "not-linkable",
+        message: `label ${m.type} marks a value (date, number, amount), not an entity`,
+        label: m.type,
+      });
       return { ...base, entity: null, name: null, score: 0, margin: 0, reasons, candidates: [] };
     }
     const d = decide(
@@ -217,7 +244,8 @@ export class Linker {
     );
     const best = d.best >= 0 ? scored[d.best]! : null;
     const runner = scored.length > 1 ? scored[1]! : null;
-    const label = (s: ScoredCandidate | null) => (s === null ? null : { entity: s.entity.id, name: s.entity.name });
+    const label = (s: ScoredCandidate | null) =>
+      s === null ? null : { entity: s.entity.id, name: s.entity.name };
     reasons.push(decisionReason(d, this.config.threshold, this.config.minMargin, label(best), label(runner)));
     if (best !== null) {
       const shared = p.context === null ? [] : sharedTerms(p.context, best.contextVector);
@@ -269,7 +297,8 @@ function roundFeatures(f: Features): Features {
 }
 
 function checkUnit(name: string, v: number): void {
-  if (!(typeof v === "number" && v >= 0 && v <= 1)) throw new UsageError(`${name} must be a number in [0, 1], got ${v}`);
+  if (!(typeof v === "number" && v >= 0 && v <= 1))
+    throw new UsageError(`${name} must be a number in [0, 1], got ${v}`);
 }
 
 export function createLinker(kb: Kb, options?: LinkerOptions): Linker {

@@ -19,7 +19,18 @@ export type { ContextWindow } from "./context-window.js";
 export type { ReadLabeledMention, ReadMention } from "./mention-row.js";
 export { chunkTags, detectScheme, parseScheme, TAG_SCHEMES, type TagScheme } from "./tags.js";
 export type { ReadWarning, WarningHandler } from "./warnings.js";
+export { type ConllOptions, type ConllSummary, readConll } from "./conll.js";
 export { readJsonLines } from "./jsonl.js";
+export { readMentionsCsv } from "./mentions-csv.js";
+export { readMentionsJsonl } from "./mentions-jsonl.js";
+export {
+  type Documents,
+  loadDocuments,
+  readSpans,
+  type Span,
+  spansFromTokens,
+  tokensFromSpans,
+} from "./spans.js";
 
 /** Mention input formats. */
 export type MentionFormat = "jsonl" | "csv" | "conll" | "spans";

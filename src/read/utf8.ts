@@ -48,7 +48,8 @@ function lastLineEnd(bytes: Buffer): number {
 export function strictUtf8(file: string): Transform {
   // ignoreBOM keeps a BOM in the output so that only the one at the very start is removed (below).
   const decoder = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true });
-  let carry: Buffer = Buffer.alloc(0);
+  // Bytes after the last line end seen, kept as parts so that a long line is joined only once.
+  let carry: Buffer[] = [];
   let line = 1;
   let afterCR = false;
   let first = true;
@@ -77,13 +78,14 @@ export function strictUtf8(file: string): Transform {
     readableObjectMode: true,
     transform(chunk: Buffer, _encoding: BufferEncoding, callback: TransformCallback) {
       try {
-        const bytes = carry.length === 0 ? chunk : Buffer.concat([carry, chunk]);
-        const cut = lastLineEnd(bytes);
+        const cut = lastLineEnd(chunk);
         if (cut < 0) {
-          carry = bytes;
+          carry.push(chunk);
         } else {
-          carry = bytes.subarray(cut + 1);
-          emit(this, bytes.subarray(0, cut + 1));
+          const head = chunk.subarray(0, cut + 1);
+          const block = carry.length === 0 ? head : Buffer.concat([...carry, head]);
+          carry = cut + 1 < chunk.length ? [chunk.subarray(cut + 1)] : [];
+          emit(this, block);
         }
         callback();
       } catch (error) {
@@ -92,7 +94,7 @@ export function strictUtf8(file: string): Transform {
     },
     flush(callback: TransformCallback) {
       try {
-        if (carry.length > 0) emit(this, carry);
+        if (carry.length > 0) emit(this, Buffer.concat(carry));
         callback();
       } catch (error) {
         callback(error as Error);

@@ -54,7 +54,10 @@ export function combine(features: Features, weights: Weights): number {
 }
 
 /** Each feature's contribution in log-odds, largest first: what the reasons cite. */
-export function contributions(features: Features, weights: Weights): Array<{ feature: string; value: number; weight: number; contribution: number }> {
+export function contributions(
+  features: Features,
+  weights: Weights,
+): Array<{ feature: string; value: number; weight: number; contribution: number }> {
   return FEATURE_NAMES.map((name) => ({
     feature: name,
     value: features[name],

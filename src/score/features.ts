@@ -5,7 +5,12 @@
 import type { AliasRow, EntityRow } from "../kb/kb.js";
 import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
-import { initialsCompatible, jaroWinkler, levenshteinSimilarity, tokenSetSimilarity } from "./name-similarity.js";
+import {
+  initialsCompatible,
+  jaroWinkler,
+  levenshteinSimilarity,
+  tokenSetSimilarity,
+} from "./name-similarity.js";
 import { cosine, type TermVector } from "./tfidf.js";
 
 /** exactKey credit when only the OCR-folded keys agree: strong evidence, weaker than an exact key. */
@@ -36,7 +41,10 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
   let keyKind: NameMatch["keyKind"] = null;
   const personLike = entity.cls === "person";
   for (const a of entity.aliases) {
-    const j = Math.max(jaroWinkler(norm.key, a.key), norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full));
+    const j = Math.max(
+      jaroWinkler(norm.key, a.key),
+      norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full),
+    );
     if (j > jw) {
       jw = j;
       bestAlias = a;
@@ -62,7 +70,16 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       }
     }
   }
-  return { jaroWinkler: jw, levenshtein: lev, tokenSet: tok, abbreviation: abbr, exactKey: exact, bestAlias, abbreviationKind, keyKind };
+  return {
+    jaroWinkler: jw,
+    levenshtein: lev,
+    tokenSet: tok,
+    abbreviation: abbr,
+    exactKey: exact,
+    bestAlias,
+    abbreviationKind,
+    keyKind,
+  };
 }
 
 /** log1p(prior) / log1p(max prior): popularity on a log scale, so a city does not drown a village. */

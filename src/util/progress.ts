@@ -17,7 +17,12 @@ const REDRAW_EVERY = 500;
 export function progress(label: string, enabled: boolean = process.stderr.isTTY === true): Progress {
   if (!enabled) return SILENT;
   const bar = new cliProgress.SingleBar(
-    { format: `${label} {value} rows | {rate}/s | {duration}s`, stream: process.stderr, hideCursor: true, fps: 5 },
+    {
+      format: `${label} {value} rows | {rate}/s | {duration}s`,
+      stream: process.stderr,
+      hideCursor: true,
+      fps: 5,
+    },
     cliProgress.Presets.shades_classic,
   );
   const started = Date.now();
