@@ -26,11 +26,13 @@ const LAST_YEAR = 1930;
 /** Age from which a person can appear in the news in their own right. */
 const ADULT_AGE = 20;
 /** Chance that an ordinary actor slot is filled by someone the table lacks; tuned for ~20% NIL. */
-const NIL_CHANCE = 0.3;
+const NIL_CHANCE = 0.29;
 /** Chance that OCR damage hits a mention's surface (on top of the chosen form). */
 const OCR_CHANCE = 0.22;
+/** OCR chance for a clean non-person name: places, firms and vessels have fewer written variants. */
+const CLEAN_OCR_CHANCE = 0.4;
 /** Chance that a first mention uses the canonical name unchanged (the rest are variants). */
-const CLEAN_FIRST_CHANCE = 0.5;
+const CLEAN_FIRST_CHANCE = 0.35;
 /** Chance that a person's honorific is written outside the mention span ("Mr. " + "Pell"). */
 const HONORIFIC_OUTSIDE_CHANCE = 0.12;
 /** Chance that a name with diacritics loses them (type-setting without accented sorts). */
@@ -95,7 +97,6 @@ const logUniform = (lo, hi) => Math.round(Math.exp(Math.log(lo) + rand() * (Math
 // Vocabulary of the invented world
 // ---------------------------------------------------------------------------------------------
 
-const RIVERS = ["Wend", "Sten", "Carrow", "Ossel", "Harrow", "Mirrin", "Tolland"];
 const COUNTIES = ["Wendshire", "Carrowshire", "Stenholt", "Ambry Vale"];
 
 /** Trades: the core of a descriptive firm name, what it handles, and a few context words. */
@@ -108,22 +109,47 @@ const TRADES = [
   { core: "Brewery", goods: "ale, stout and malt", words: "maltings and brewhouse" },
   { core: "Salt Works", goods: "salt", words: "salt pans and boiling houses" },
   { core: "Ice", goods: "ice and fresh fish", words: "ice house and fish market stalls" },
-  { core: "Lighterage", goods: "lighterage of cargoes", words: "lighters and dumb barges" },
-  { core: "Towing", goods: "towage", words: "steam tugs" },
+  {
+    core: "Lighterage",
+    goods: "lighterage of cargoes",
+    words: "lighters and dumb barges",
+    cargo: "general cargo",
+  },
+  { core: "Towing", goods: "towage", words: "steam tugs", cargo: "general cargo" },
   { core: "Ship Chandlery", goods: "ship's stores, paint and canvas", words: "chandler's store on the quay" },
   { core: "Sailcloth Mills", goods: "sailcloth and canvas", words: "looms and bleaching greens" },
   { core: "Flour Mills", goods: "flour and bran", words: "roller mills and granary" },
   { core: "Brick and Tile", goods: "bricks, tiles and drainpipes", words: "clay pits and kilns" },
-  { core: "Marine Insurance", goods: "hull and cargo insurance", words: "underwriting room" },
+  {
+    core: "Marine Insurance",
+    goods: "hull and cargo insurance",
+    words: "underwriting room",
+    cargo: "general cargo",
+  },
   { core: "Foundry", goods: "castings, anchors and chain", words: "cupola furnace and chain shop" },
-  { core: "Dredging", goods: "dredging of the fairway", words: "bucket dredgers and hopper barges" },
+  {
+    core: "Dredging",
+    goods: "dredging of the fairway",
+    words: "bucket dredgers and hopper barges",
+    cargo: "ballast",
+  },
   { core: "Wine", goods: "wine and brandy", words: "bonded cellars" },
   { core: "Fish Curing", goods: "herring and kippers", words: "smoke houses and curing sheds" },
   { core: "Oil Cake", goods: "linseed and oil cake", words: "crushing mill" },
 ];
+/** What a vessel carries for a firm of this trade. */
+const cargoOf = (trade) => trade.cargo ?? trade.goods;
 /** Trade cores that are already a place noun and so take "Ltd." rather than "Company". */
-const WORKS_CORES = new Set(["Rope Works", "Brewery", "Salt Works", "Sailcloth Mills", "Flour Mills", "Foundry"]);
+const WORKS_CORES = new Set([
+  "Rope Works",
+  "Brewery",
+  "Salt Works",
+  "Sailcloth Mills",
+  "Flour Mills",
+  "Foundry",
+]);
 
+// biome-ignore format: compact data table
 const MALE_FIRST = [
   "John", "William", "Charles", "Thomas", "George", "James", "Robert", "Joseph", "Benjamin", "Samuel",
   "Henry", "Edward", "Frederick", "Josiah", "Jabez", "Ezra", "Silas", "Amos", "Reuben", "Obadiah",
@@ -131,9 +157,21 @@ const MALE_FIRST = [
   "Ebenezer", "Harold", "Ernest", "Alfred", "Isaac", "Jonas", "Lemuel", "Tobias", "Ambrose", "Barnabas",
 ];
 /** Weight of the names clerks abbreviate, so "Jno." and "Wm." turn up often enough. */
-const ABBREVIATED_NAME_WEIGHT = 3;
-const FEMALE_FIRST = ["Mary", "Eliza", "Hannah", "Martha", "Sarah", "Harriet", "Louisa", "Ada", "Clara", "Emily"];
+const ABBREVIATED_NAME_WEIGHT = 5;
+const FEMALE_FIRST = [
+  "Mary",
+  "Eliza",
+  "Hannah",
+  "Martha",
+  "Sarah",
+  "Harriet",
+  "Louisa",
+  "Ada",
+  "Clara",
+  "Emily",
+];
 /** Clerks' abbreviations of first names (common practice in 19th-century registers, from memory). */
+// biome-ignore format: compact data table
 const FIRST_ABBREV = {
   John: "Jno.", William: "Wm.", Charles: "Chas.", Thomas: "Thos.", George: "Geo.", James: "Jas.",
   Robert: "Robt.", Joseph: "Jos.", Benjamin: "Benj.", Samuel: "Saml.", Henry: "Hy.", Edward: "Edwd.",
@@ -142,6 +180,7 @@ const FIRST_ABBREV = {
 const MIDDLE = ["Henry", "James", "Thomas", "Edward", "Augustus", "Albert", "Harcourt", "Marsh", "Oliver"];
 
 /** Surnames of people in the table (each used once by the generated part). */
+// biome-ignore format: compact data table
 const TABLE_SURNAMES = [
   "Harland", "Crake", "Marrable", "Quint", "Tollivant", "Vessey", "Brannock", "Ormsby", "Fettle", "Gaskarth",
   "Hebblethwaite", "Inchbald", "Jowsey", "Kettleby", "Lumb", "Mardle", "Nettlecombe", "Oddie", "Pickersgill",
@@ -158,6 +197,7 @@ const TABLE_SURNAMES = [
   "Gawthorpe", "Heaton", "Midgley", "Normington", "Rushworth", "Shillito", "Townend", "Wormald",
 ];
 /** Surnames of people the table lacks (NIL persons). */
+// biome-ignore format: compact data table
 const NIL_SURNAMES = [
   "Grindrod", "Hoyle", "Blamire", "Copley", "Drabble", "Fozzard", "Gomersal", "Jowitt", "Kenworthy",
   "Longbottom", "Mitchinson", "Nettleton", "Ramsbottom", "Stansfield", "Whitehead", "Wilby", "Broadbent",
@@ -169,42 +209,50 @@ const ROLES = {
   merchant: {
     weight: 18,
     hon: "Mr.",
-    desc: (p) => `${capitalize(p.trade.core)} merchant of ${p.town}; buys ${p.trade.goods} off the river barges and keeps a warehouse on the quay.`,
+    desc: (p) =>
+      `${capitalize(p.trade.core)} merchant of ${p.town}; buys ${p.trade.goods} off the river barges and keeps a warehouse on the quay.`,
   },
   "ship owner": {
     weight: 12,
     hon: "Mr.",
-    desc: (p) => `Ship owner of ${p.town} whose schooners and steamers carry ${p.trade.goods} down the ${p.river}.`,
+    desc: (p) =>
+      `Ship owner of ${p.town} whose schooners and steamers carry ${p.trade.goods} down the ${p.river}.`,
   },
   "master mariner": {
     weight: 14,
     hon: "Capt.",
-    desc: (p) => `Master mariner of ${p.town}, long in command of coasting schooners in the ${p.trade.goods} trade.`,
+    desc: (p) =>
+      `Master mariner of ${p.town}, long in command of coasting schooners in the ${p.trade.goods} trade.`,
   },
   "harbour master": {
     weight: 3,
     hon: "Capt.",
-    desc: (p) => `Harbour master of ${p.town}; keeps the mooring register, the pilotage rota and the dock dues of the port.`,
+    desc: (p) =>
+      `Harbour master of ${p.town}; keeps the mooring register, the pilotage rota and the dock dues of the port.`,
   },
   "customs collector": {
     weight: 3,
     hon: "Mr.",
-    desc: (p) => `Collector of customs at ${p.town}; signs bonded-warehouse permits and prosecutes smuggling and excise cases.`,
+    desc: (p) =>
+      `Collector of customs at ${p.town}; signs bonded-warehouse permits and prosecutes smuggling and excise cases.`,
   },
   magistrate: {
     weight: 7,
     hon: "Hon.",
-    desc: (p) => `Justice of the peace on the ${p.town} bench; hears licensing, assault and harbour bylaw cases at the police court.`,
+    desc: (p) =>
+      `Justice of the peace on the ${p.town} bench; hears licensing, assault and harbour bylaw cases at the police court.`,
   },
   clerk: {
     weight: 7,
     hon: "Mr.",
-    desc: (p) => `Clerk at ${p.town}; keeps the minutes, ledgers and correspondence of a board and gives evidence from its books.`,
+    desc: (p) =>
+      `Clerk at ${p.town}; keeps the minutes, ledgers and correspondence of a board and gives evidence from its books.`,
   },
   auctioneer: {
     weight: 5,
     hon: "Mr.",
-    desc: (p) => `Auctioneer and valuer at ${p.town}; sells ships, cargoes and warehouse stock by auction at his salerooms.`,
+    desc: (p) =>
+      `Auctioneer and valuer at ${p.town}; sells ships, cargoes and warehouse stock by auction at his salerooms.`,
   },
   shipbuilder: {
     weight: 4,
@@ -214,7 +262,8 @@ const ROLES = {
   "river pilot": {
     weight: 5,
     hon: "Mr.",
-    desc: (p) => `Licensed river pilot at ${p.town}; brings vessels over the bar and up the ${p.river} channel.`,
+    desc: (p) =>
+      `Licensed river pilot at ${p.town}; brings vessels over the bar and up the ${p.river} channel.`,
   },
   alderman: {
     weight: 5,
@@ -229,7 +278,8 @@ const ROLES = {
   physician: {
     weight: 4,
     hon: "Dr.",
-    desc: (p) => `Surgeon at ${p.town} and medical officer to the port sanitary authority; attends the infirmary.`,
+    desc: (p) =>
+      `Surgeon at ${p.town} and medical officer to the port sanitary authority; attends the infirmary.`,
   },
   innkeeper: {
     weight: 4,
@@ -254,10 +304,13 @@ function stripDiacritics(s) {
 const hasDiacritics = (s) => stripDiacritics(s) !== s;
 
 /** OCR confusions of worn 1890s type (common practice in OCR post-correction work). */
+// biome-ignore format: compact data table
 const OCR_RULES = [
   ["rn", "m"], ["m", "rn"], ["cl", "d"], ["d", "cl"], ["l", "1"], ["o", "0"], ["O", "0"],
   ["s", "5"], ["S", "5"], ["e", "c"], ["c", "e"], ["h", "b"], ["n", "u"], ["i", "l"],
 ];
+/** Share of OCR damage that drops a letter rather than confusing one. */
+const DROP_SHARE = 0.3;
 /** Shortest word OCR damage is applied to: shorter words become unrecognizable. */
 const OCR_MIN_WORD = 4;
 /** Words that are never damaged (abbreviations and honorifics carry the form, not the name). */
@@ -280,11 +333,13 @@ function ocrDamage(text) {
     }
   }
   // A dropped letter inside the word is the other common damage.
+  const drops = [];
   for (let at = 1; at < letters - 1; at++) {
-    if (/\p{Ll}/u.test(word[0][at])) options.push({ at, from: word[0][at], to: "" });
+    if (/\p{Ll}/u.test(word[0][at])) drops.push({ at, from: word[0][at], to: "" });
   }
-  if (options.length === 0) return text;
-  const { at, from, to } = pick(options);
+  const pool = options.length > 0 && (drops.length === 0 || !chance(DROP_SHARE)) ? options : drops;
+  if (pool.length === 0) return text;
+  const { at, from, to } = pick(pool);
   const damaged = word[0].slice(0, at) + to + word[0].slice(at + from.length);
   return text.slice(0, word.index) + damaged + text.slice(word.index + word[0].length);
 }
@@ -294,6 +349,7 @@ function ocrDamage(text) {
 // ---------------------------------------------------------------------------------------------
 
 /** Columns of the knowledge table, in order. */
+// biome-ignore format: compact data table
 const COLUMNS = [
   "id", "name", "type", "aliases", "description", "prior",
   "born", "died", "founded", "river", "county", "owner", "tonnage", "role", "town",
@@ -325,6 +381,7 @@ function register(e, inTable = true) {
 // --- Towns -----------------------------------------------------------------------------------
 
 /** [name, short form or "", river] — hand-written so the look-alikes are deliberate. */
+// biome-ignore format: compact data table
 const TOWN_LIST = [
   ["Harrowmouth", "", "Wend"], ["Stenmouth", "", "Sten"], ["Stenmoor", "", "Sten"], ["Carrowby", "", "Carrow"],
   ["St. Aldric's", "", "Wend"], ["Port Wendle", "", "Wend"], ["Mount Carrick", "", "Carrow"],
@@ -347,6 +404,7 @@ const TOWN_LIST = [
   ["Lanterby", "", "Tolland"], ["Mossingham", "", "Harrow"], ["Netherwend", "", "Wend"], ["Upper Carrow", "", "Carrow"],
 ];
 /** Towns the table lacks, several of them close to table towns on purpose. */
+// biome-ignore format: compact data table
 const NIL_TOWN_LIST = [
   ["Stenford", "", "Sten"], ["Port Ambry", "", "Ossel"], ["Mount Carrow", "", "Carrow"],
   ["Little Quaybridge", "", "Wend"], ["Carrowmouth", "", "Carrow"], ["Harrowby Marsh", "Harrowby", "Harrow"],
@@ -374,9 +432,18 @@ const TOWN_SPECIAL = {
     pop: 48210,
     desc: "Chief port of the Wend estuary and seat of the Harbour Board; docks, bonded warehouses, corn exchange and shipyards.",
   },
-  Stenmouth: { pop: 6240, desc: "Fishing and ferry town at the mouth of the Sten; herring curing, oyster beds and a lifeboat station." },
-  Stenmoor: { pop: 910, desc: "Moorland market village on the upper Sten; sheep fairs, peat cutting and a wool market." },
-  Carrowby: { pop: 9420, desc: "Mill town on the Carrow; ropewalks and hemp spinning, the seat of the rope trade." },
+  Stenmouth: {
+    pop: 6240,
+    desc: "Fishing and ferry town at the mouth of the Sten; herring curing, oyster beds and a lifeboat station.",
+  },
+  Stenmoor: {
+    pop: 910,
+    desc: "Moorland market village on the upper Sten; sheep fairs, peat cutting and a wool market.",
+  },
+  Carrowby: {
+    pop: 9420,
+    desc: "Mill town on the Carrow; ropewalks and hemp spinning, the seat of the rope trade.",
+  },
 };
 
 function townKind(name) {
@@ -392,7 +459,8 @@ function townKind(name) {
 function makeTown([name, short, river], inTable) {
   const special = TOWN_SPECIAL[name];
   const county = river === "Carrow" ? "Carrowshire" : river === "Ossel" ? "Ambry Vale" : pick(COUNTIES);
-  const description = special?.desc ?? `${townKind(name)} on the ${river}, ${county}; ${pick(TOWN_FEATURES)}.`;
+  const description =
+    special?.desc ?? `${townKind(name)} on the ${river}, ${county}; ${pick(TOWN_FEATURES)}.`;
   const aliases = [];
   if (name.startsWith("St. ")) aliases.push(name.replace("St. ", "Saint "));
   return register(
@@ -427,7 +495,8 @@ function makePerson(spec, inTable) {
   const name = [first, middle, last].filter(Boolean).join(" ") + (suffix ? " " + suffix : "");
   const born = spec.born ?? int(1815, 1880);
   const diedGuess = born + int(48, 86);
-  const died = spec.died !== undefined ? spec.died : diedGuess <= LAST_YEAR && diedGuess >= FIRST_YEAR ? diedGuess : "";
+  const died =
+    spec.died !== undefined ? spec.died : diedGuess <= LAST_YEAR && diedGuess >= FIRST_YEAR ? diedGuess : "";
   const p = {
     type: "person",
     name,
@@ -452,8 +521,7 @@ function makePerson(spec, inTable) {
   return register(p, inTable);
 }
 
-const firstName = () =>
-  weighted(MALE_FIRST.map((n) => [n, FIRST_ABBREV[n] ? ABBREVIATED_NAME_WEIGHT : 1]));
+const firstName = () => weighted(MALE_FIRST.map((n) => [n, FIRST_ABBREV[n] ? ABBREVIATED_NAME_WEIGHT : 1]));
 const role = () => weighted(Object.entries(ROLES).map(([k, r]) => [k, r.weight]));
 
 // The deliberate look-alikes first.
@@ -533,7 +601,7 @@ for (const last of shuffle(TABLE_SURNAMES).slice(0, GENERATED_PERSONS)) {
   makePerson(
     {
       first: female ? pick(FEMALE_FIRST) : firstName(),
-      middle: chance(0.35) ? pick(MIDDLE) : "",
+      middle: !female && chance(0.35) ? pick(MIDDLE) : "",
       last,
       female,
       role: female ? pick(FEMALE_ROLES) : role(),
@@ -544,7 +612,8 @@ for (const last of shuffle(TABLE_SURNAMES).slice(0, GENERATED_PERSONS)) {
 const tablePersons = entities.filter((e) => e.type === "person");
 // Some people are also known by their initials, as directories print them.
 for (const p of tablePersons) {
-  if (p.aliases.length === 0 && p.middle && chance(0.5)) p.aliases.push(`${initial(p.first)} ${initial(p.middle)} ${p.last}`);
+  if (p.aliases.length === 0 && p.middle && chance(0.5))
+    p.aliases.push(`${initial(p.first)} ${initial(p.middle)} ${p.last}`);
 }
 
 // NIL persons: a third Aldous, another Pell, look-alike surnames and strangers.
@@ -563,7 +632,7 @@ for (let i = 0; i < NIL_GENERATED_PERSONS; i++) {
   makePerson(
     {
       first: female ? pick(FEMALE_FIRST) : firstName(),
-      middle: chance(0.3) ? pick(MIDDLE) : "",
+      middle: !female && chance(0.3) ? pick(MIDDLE) : "",
       last,
       female,
       role: female ? pick(FEMALE_ROLES) : role(),
@@ -602,14 +671,54 @@ for (const name of NIL_WHARVES) {
 
 /** [name, acronym or "", short form or "", description] */
 const INSTITUTION_LIST = [
-  ["Harrowmouth Harbour Board", "H.H.B.", "Harbour Board", "Board of the port: moorings, dock dues, dredging, pilotage and the harbour master's department."],
-  ["Harrowmouth Custom House", "", "Custom House", "Office of the collector of customs: bonded warehouses, duties, seizures of contraband."],
-  ["Harrowmouth Police Court", "", "Police Court", "Court of the borough magistrates: drunkenness, assault, licensing and harbour bylaw cases."],
-  ["Wendshire Quarter Sessions", "", "Quarter Sessions", "County court of the justices, sitting four times a year for felonies and appeals."],
-  ["Mariners' Benevolent Society", "M.B.S.", "", "Friendly society paying pensions to the widows and orphans of drowned seamen."],
-  ["Wend Conservancy Commissioners", "", "Conservancy", "Commissioners of the river navigation: locks, tolls, buoys and the dredging of the Wend."],
-  ["Harrowmouth Chamber of Commerce", "", "Chamber of Commerce", "Association of the port's merchants, ship owners and bankers."],
-  ["Seamen's Mission of St. Aldric's", "", "Seamen's Mission", "Mission hall and reading room for sailors, run by the parish of St. Aldric's."],
+  [
+    "Harrowmouth Harbour Board",
+    "H.H.B.",
+    "Harbour Board",
+    "Board of the port: moorings, dock dues, dredging, pilotage and the harbour master's department.",
+  ],
+  [
+    "Harrowmouth Custom House",
+    "",
+    "Custom House",
+    "Office of the collector of customs: bonded warehouses, duties, seizures of contraband.",
+  ],
+  [
+    "Harrowmouth Police Court",
+    "",
+    "Police Court",
+    "Court of the borough magistrates: drunkenness, assault, licensing and harbour bylaw cases.",
+  ],
+  [
+    "Wendshire Quarter Sessions",
+    "",
+    "Quarter Sessions",
+    "County court of the justices, sitting four times a year for felonies and appeals.",
+  ],
+  [
+    "Mariners' Benevolent Society",
+    "M.B.S.",
+    "",
+    "Friendly society paying pensions to the widows and orphans of drowned seamen.",
+  ],
+  [
+    "Wend Conservancy Commissioners",
+    "",
+    "Conservancy",
+    "Commissioners of the river navigation: locks, tolls, buoys and the dredging of the Wend.",
+  ],
+  [
+    "Harrowmouth Chamber of Commerce",
+    "",
+    "Chamber of Commerce",
+    "Association of the port's merchants, ship owners and bankers.",
+  ],
+  [
+    "Seamen's Mission of St. Aldric's",
+    "",
+    "Seamen's Mission",
+    "Mission hall and reading room for sailors, run by the parish of St. Aldric's.",
+  ],
 ];
 const institutions = {};
 for (const [name, acronym, short, desc] of INSTITUTION_LIST) {
@@ -627,14 +736,27 @@ for (const [name, acronym, short, desc] of INSTITUTION_LIST) {
 
 // --- Firms -----------------------------------------------------------------------------------
 
+const tableFirms = () => entities.filter((e) => e.type === "firm");
+/** How the gazette varies each legal form ("Pell & Sons" / "Pell and Sons Ltd"). */
 const LEGAL_VARIANTS = {
   "& Sons": ["and Sons", "& Sons, Ltd.", "and Sons Ltd", "& Son"],
   "Bros.": ["Brothers", "Bros", "Bros., Ltd."],
   "& Co.": ["and Co.", "& Company", "and Company", "& Co., Ltd."],
-  "Ltd.": ["Limited", "Ltd", "Co. Ltd."],
-  Company: ["Co.", "Company Ltd.", "Co. Ltd.", "Coy."],
-  "": ["Ltd.", "& Co."],
+  "Ltd.": ["Limited", "Ltd", ""],
+  Company: ["Co.", "Coy.", "Company, Ltd."],
 };
+/** Variants of a form-less name, by firm style: partnerships gain a form, descriptive firms "Ltd.". */
+const BARE_VARIANTS = { pair: ["Ltd.", "& Co."], desc: ["Ltd.", "Limited"], surname: [], acronym: [] };
+/** A varied full name of a firm: legal form changed, or "Company" written "Co.". */
+function firmVariant(f) {
+  const forms = f.form ? LEGAL_VARIANTS[f.form] : BARE_VARIANTS[f.style];
+  const stemVariant = f.stem.endsWith(" Company")
+    ? f.stem.replace(/ Company$/, pick([" Co.", " Coy."]))
+    : null;
+  if (stemVariant && chance(0.5)) return joinForm(stemVariant, f.form);
+  if (forms.length === 0) return f.name;
+  return joinForm(f.stem, pick(forms));
+}
 const joinForm = (stem, form) => (form ? (form.startsWith(",") ? stem + form : stem + " " + form) : stem);
 
 function makeFirm(spec, inTable) {
@@ -710,7 +832,12 @@ const WVSN = makeFirm(
     style: "acronym",
     acronym: "W.V.S.N. Co.",
     town: HARROWMOUTH,
-    trade: { core: "Steam Navigation", goods: "passengers, parcels and market produce", words: "river steamers" },
+    trade: {
+      core: "Steam Navigation",
+      goods: "passengers, parcels and market produce",
+      words: "river steamers",
+      cargo: "parcels",
+    },
     founded: 1872,
     prior: 520,
     desc: "Runs the passenger and parcel steamers up the Wend between Harrowmouth, Stenby and Port Wendle.",
@@ -724,7 +851,12 @@ const HD_BANK = makeFirm(
     style: "acronym",
     acronym: "H. & D. Bank",
     town: HARROWMOUTH,
-    trade: { core: "Bank", goods: "deposits, loans and bills of exchange", words: "banking hall" },
+    trade: {
+      core: "Bank",
+      goods: "deposits, loans and bills of exchange",
+      words: "banking hall",
+      cargo: "specie",
+    },
     founded: 1838,
     prior: 410,
     desc: "Country bank of Harrowmouth with branches up the river; discounts bills of the corn and coal trades.",
@@ -744,17 +876,18 @@ const CMIC = makeFirm(
   },
   true,
 );
-const HARLAND_BROS = makeFirm(
+// The brothers whose name the NIL "Harland & Sons" imitates.
+makeFirm(
   { stem: "Harland", form: "Bros.", style: "surname", trade: TRADES[3], owner: "", founded: 1871 },
   true,
 );
-const ACRONYM_FIRMS = [SGE, WVSN, HD_BANK, CMIC];
 
 /** Surname-based firms from table people (so owners exist), then descriptive ones from towns. */
 const SURNAME_FIRMS = 44;
-const DESCRIPTIVE_FIRMS = 90 - 7 - SURNAME_FIRMS;
 const ownerPool = shuffle(
-  tablePersons.filter((p) => ["merchant", "ship owner", "shipbuilder", "auctioneer"].includes(p.role) && !p.female),
+  tablePersons.filter(
+    (p) => ["merchant", "ship owner", "shipbuilder", "auctioneer"].includes(p.role) && !p.female,
+  ),
 );
 const usedStems = new Set(["Pell", "Harland"]);
 let madeSurname = 0;
@@ -792,22 +925,24 @@ for (const owner of ownerPool) {
   madeSurname++;
 }
 const descTowns = shuffle(tableTowns);
-for (let i = 0, made = 0; made < DESCRIPTIVE_FIRMS && i < 500; i++) {
+/** Total firms in the table: ~90 as the brief asks. */
+const FIRM_TARGET = 90;
+for (let i = 0; tableFirms().length < FIRM_TARGET && i < 500; i++) {
   const town = descTowns[i % descTowns.length];
   const trade = pick(TRADES);
-  const stem = `${town.name.replace(/^St\. /, "St. ")} ${trade.core}`;
+  const works = WORKS_CORES.has(trade.core);
+  const stem = works ? `${town.name} ${trade.core}` : `${town.name} ${trade.core} Company`;
   if (entities.some((e) => e.type === "firm" && e.stem === stem)) continue;
-  const form = WORKS_CORES.has(trade.core) ? pick(["Ltd.", ""]) : pick(["Company", "Company", "Ltd."]);
+  const form = pick(["Ltd.", ""]);
   makeFirm({ stem, form, style: "desc", trade, town }, true);
-  made++;
 }
 // NIL firms, several look-alikes of table firms.
 const NIL_FIRM_SPECS = [
   { stem: "Harland", form: "& Sons", style: "surname" },
-  { stem: "Carrowby Tannery", form: "Company", style: "desc" },
-  { stem: "Stenford Brick", form: "Company", style: "desc" },
-  { stem: "Port Ambry Ice", form: "Company", style: "desc" },
-  { stem: "Stenmouth Coal", form: "Ltd.", style: "desc" },
+  { stem: "Carrowby Tannery Company", form: "", style: "desc" },
+  { stem: "Stenford Brick Company", form: "Ltd.", style: "desc" },
+  { stem: "Port Ambry Ice Company", form: "", style: "desc" },
+  { stem: "Stenmouth Coal Company", form: "Ltd.", style: "desc" },
   { stem: "Aldous", form: "& Co.", style: "surname" },
 ];
 for (const spec of NIL_FIRM_SPECS) makeFirm(spec, false);
@@ -818,6 +953,7 @@ for (const last of NIL_SURNAMES.slice(0, 14)) {
 // --- Vessels ---------------------------------------------------------------------------------
 
 /** [bare name, kind] — kinds: steamer, schooner, barge, ketch, tug. */
+// biome-ignore format: compact data table
 const VESSEL_LIST = [
   ["Carrowby", "steamer"], ["Wendle Belle", "steamer"], ["Stenmoor Lass", "steamer"], ["Ossel Queen", "steamer"],
   ["Merrowick", "steamer"], ["Pennant", "steamer"], ["Fleetwing", "steamer"], ["Tarrow", "steamer"],
@@ -832,6 +968,7 @@ const VESSEL_LIST = [
   ["Brisk", "tug"], ["Vigilant", "tug"], ["Sturdy", "tug"], ["Samson", "tug"], ["Tempest", "tug"], ["Busy Bee", "tug"],
   ["Hector", "tug"], ["Resolute", "tug"], ["Snipe", "tug"],
 ];
+// biome-ignore format: compact data table
 const NIL_VESSEL_LIST = [
   ["Stenmoor", "steamer"], ["Harrowmouth", "steamer"], ["Fort Ambry", "steamer"], ["Hopewell", "schooner"],
   ["Sarah Aldous", "schooner"], ["Lively", "ketch"], ["Whimbrel", "schooner"], ["Trusty", "tug"],
@@ -844,7 +981,6 @@ const VESSEL_KIND = {
   ketch: { word: "ketch", role: "ketch", tons: [40, 110], hull: "Trading ketch" },
   tug: { word: "tug", role: "steam tug", tons: [40, 160], hull: "Paddle tug" },
 };
-const tableFirms = () => entities.filter((e) => e.type === "firm");
 
 function makeVessel([bare, kind], inTable) {
   const k = VESSEL_KIND[kind];
@@ -864,7 +1000,13 @@ function makeVessel([bare, kind], inTable) {
     aliases: kind === "steamer" ? [`Steamship ${bare}`] : [],
     description: `${k.hull} of ${tonnage} tons registered at ${town.name}, in the ${trade.goods} trade to ${other.name}; owned by ${owner.name}.`,
     prior: logUniform(1, 150),
-    attrs: { founded: String(built), owner: owner.name, tonnage: String(tonnage), role: k.role, town: town.name },
+    attrs: {
+      founded: String(built),
+      owner: owner.name,
+      tonnage: String(tonnage),
+      role: k.role,
+      town: town.name,
+    },
   };
   return register(v, inTable);
 }
@@ -880,12 +1022,14 @@ josiahPellSchooner.description = `Collier schooner of ${josiahPellSchooner.attrs
 // ---------------------------------------------------------------------------------------------
 
 /** Abbreviations whose period belongs to the word (tokenizer and mention rules share this list). */
+// biome-ignore format: compact data table
 const ABBREVIATIONS = new Set([
   "mr", "mrs", "messrs", "capt", "rev", "dr", "hon", "st", "pt", "mt", "ft", "co", "coy", "ltd", "bros",
   "jno", "wm", "chas", "thos", "geo", "jas", "robt", "jos", "benj", "saml", "hy", "edwd", "fredk", "sr", "jr",
   "no", "esq",
 ]);
-const isAbbreviation = (word) => /^\p{Lu}/u.test(word) && (ABBREVIATIONS.has(word.toLowerCase()) || /^\p{Lu}$/u.test(word));
+const isAbbreviation = (word) =>
+  /^\p{Lu}/u.test(word) && (ABBREVIATIONS.has(word.toLowerCase()) || /^\p{Lu}$/u.test(word));
 
 const PLACE_VARIANTS = [
   [/^St\. /, ["Saint ", "St "]],
@@ -895,7 +1039,8 @@ const PLACE_VARIANTS = [
   [/-on-/, [" on "]],
 ];
 function placeVariant(name) {
-  for (const [re, replacements] of PLACE_VARIANTS) if (re.test(name)) return name.replace(re, pick(replacements));
+  for (const [re, replacements] of PLACE_VARIANTS)
+    if (re.test(name)) return name.replace(re, pick(replacements));
   return null;
 }
 
@@ -933,18 +1078,16 @@ function firmSurface(f, form) {
   if (form === "caps") return { text: f.name.toUpperCase() };
   const messrs = f.style === "surname" || f.style === "pair";
   if (form === "short") {
-    if (f.style === "acronym" && f.acronym) return { text: f.acronym };
-    if (f.style === "surname") return { pre: "Messrs. ", text: f.stem };
-    if (f.style === "pair") return { pre: "Messrs. ", text: f.stem };
-    if (f.style === "desc" && /Company$/.test(f.name) && chance(0.3)) {
-      return { pre: "the ", text: f.name.replace(/^.*? (?=\S+ Company$)/, "") };
-    }
+    if (f.style === "acronym" && f.acronym) return { pre: "the ", text: f.acronym };
+    if (messrs) return { pre: "Messrs. ", text: f.stem };
+    // "the Tallow Company" for "the Stenmouth Tallow Company Ltd.": the town dropped.
+    const core = f.stem.endsWith(" Company") ? f.trade.core + " Company" : null;
+    if (core && chance(0.35)) return { pre: "the ", text: core };
     return { pre: "the ", text: f.stem };
   }
   const pre = messrs ? (chance(0.4) ? "Messrs. " : "") : "the ";
   if (chance(CLEAN_FIRST_CHANCE)) return { pre, text: f.name };
-  const variants = LEGAL_VARIANTS[f.form] ?? [];
-  return { pre, text: joinForm(f.stem, pick(variants)) };
+  return { pre, text: firmVariant(f) };
 }
 
 function townSurface(t, form) {
@@ -982,10 +1125,10 @@ function wharfSurface(w) {
 function institutionSurface(i, form) {
   if (form === "caps") return { text: i.name.toUpperCase() };
   if (form === "short") {
-    if (i.acronym && chance(0.7)) return { text: i.acronym };
-    if (i.short) return { text: i.short };
+    if (i.acronym && chance(0.7)) return { pre: "the ", text: i.acronym };
+    if (i.short) return { pre: "the ", text: i.short };
   }
-  return { text: i.name };
+  return { pre: "the ", text: i.name };
 }
 
 /** Surface of a mention: {pre, text}; `pre` is literal text written before the span. */
@@ -1003,7 +1146,9 @@ function surface(e, form, state) {
     if (chance(HONORIFIC_OUTSIDE_CHANCE)) pre = e.hon + " ";
   }
   if (hasDiacritics(text) && chance(STRIP_DIACRITICS_CHANCE)) text = stripDiacritics(text);
-  if (form !== "caps" && chance(OCR_CHANCE)) text = ocrDamage(text);
+  const clean = text === e.name || e.aliases.includes(text);
+  const damage = clean && e.type !== "person" ? CLEAN_OCR_CHANCE : OCR_CHANCE;
+  if (form !== "caps" && chance(damage)) text = ocrDamage(text);
   return { pre, text };
 }
 
@@ -1012,6 +1157,7 @@ function surface(e, form, state) {
 // ---------------------------------------------------------------------------------------------
 
 const LABEL = { person: "PER", firm: "ORG", institution: "ORG", town: "LOC", wharf: "LOC", vessel: "MISC" };
+// biome-ignore format: compact data table
 const MONTHS = [
   "January", "February", "March", "April", "May", "June",
   "July", "August", "September", "October", "November", "December",
@@ -1098,8 +1244,22 @@ class DocBuilder {
 
 // --- Phrase pools for the templates ----------------------------------------------------------
 
-const WEATHER = ["a strong south-westerly gale", "thick fog", "heavy seas", "light and variable winds", "a snow squall", "a fresh easterly breeze"];
-const SAILED_WITH = ["in ballast", "with coal", "with general cargo", "with bricks and tiles", "with salt", "with barley"];
+const WEATHER = [
+  "a strong south-westerly gale",
+  "thick fog",
+  "heavy seas",
+  "light and variable winds",
+  "a snow squall",
+  "a fresh easterly breeze",
+];
+const SAILED_WITH = [
+  "in ballast",
+  "with coal",
+  "with general cargo",
+  "with bricks and tiles",
+  "with salt",
+  "with barley",
+];
 const OFFENCES = [
   "being drunk and disorderly on the quay",
   "assaulting a watchman of the dock company",
@@ -1108,16 +1268,32 @@ const OFFENCES = [
   "selling ale after hours",
   "refusing to pay dock dues",
 ];
-const CONTRABAND = ["forty pounds of tobacco", "two kegs of brandy", "a case of Hollands gin", "undeclared cigars"];
+const CONTRABAND = [
+  "forty pounds of tobacco",
+  "two kegs of brandy",
+  "a case of Hollands gin",
+  "undeclared cigars",
+];
 const EXCUSES = [
   "he had been paid off that morning and met old shipmates",
   "the rope had been left lying and he thought it abandoned",
   "the tide had turned before he could shift his berth",
   "he had never been told of the new bylaw",
 ];
-const FINES = ["five shillings and costs", "ten shillings or seven days", "twenty shillings", "forty shillings and costs"];
+const FINES = [
+  "five shillings and costs",
+  "ten shillings or seven days",
+  "twenty shillings",
+  "forty shillings and costs",
+];
 const COMMODITIES = ["English wheat", "Grinding barley", "Malting barley", "White oats", "Beans", "Linseed"];
-const PRICES = ["32s. 6d. per quarter", "28s. per quarter", "19s. 6d. per quarter", "41s. per quarter", "24s. 3d. per quarter"];
+const PRICES = [
+  "32s. 6d. per quarter",
+  "28s. per quarter",
+  "19s. 6d. per quarter",
+  "41s. per quarter",
+  "24s. 3d. per quarter",
+];
 const HM_TASKS = [
   "warn the owners of",
   "report on the moorings used by",
@@ -1139,24 +1315,54 @@ const hasRole =
 function shipping(d) {
   const port = d.use(chance(0.75) ? HARROWMOUTH : pick(tableTowns));
   const v1 = d.pick("vessel", { filter: (v) => v.kind !== "tug" });
-  const master = d.pick("person", { filter: hasRole("master mariner", "ship owner") });
+  const master = d.pick("person", { filter: (p) => !p.female && hasRole("master mariner", "ship owner")(p) });
   const from = d.pick("town");
   const firm = d.pick("firm");
-  const cargo = firm.trade.goods;
+  const cargo = cargoOf(firm.trade);
   if (chance(0.5)) {
-    d.s(M(port, "caps"), `, ${monthDay(d.date)}. — Arrived, `, M(v1), ", ", M(master), ", from ", M(from), `, with ${cargo} for `, M(firm), ".");
+    d.s(
+      M(port, "caps"),
+      `, ${monthDay(d.date)}. — Arrived, `,
+      M(v1),
+      ", ",
+      M(master),
+      ", from ",
+      M(from),
+      `, with ${cargo} for `,
+      M(firm),
+      ".",
+    );
   } else {
-    d.s("Arrived at ", M(port), ", ", M(v1), ", ", M(master), ", master, from ", M(from), `, with ${cargo} for `, M(firm), ".");
+    d.s(
+      "Arrived at ",
+      M(port),
+      ", ",
+      M(v1),
+      ", ",
+      M(master),
+      ", master, from ",
+      M(from),
+      `, with ${cargo} for `,
+      M(firm),
+      ".",
+    );
   }
   if (chance(0.7)) {
     const v2 = d.pick("vessel");
     const to = d.pick("town");
     d.s("Sailed, ", M(v2), ", for ", M(to), `, ${pick(SAILED_WITH)}.`);
   }
-  if (chance(0.6)) d.s(M(master), ` reports ${pick(WEATHER)} off `, M(chance(0.5) ? from : d.pick("town")), ".");
+  if (chance(0.6))
+    d.s(M(master), ` reports ${pick(WEATHER)} off `, M(chance(0.5) ? from : d.pick("town")), ".");
   if (chance(0.6)) {
     const wharf = d.pick("wharf", { nil: 0.1 });
-    d.s("The cargo is discharging at ", M(wharf), ", where ", M(firm), ` have ${pick(["taken the whole of it", "warehoused part of it under bond", "engaged extra hands"])}.`);
+    d.s(
+      "The cargo is discharging at ",
+      M(wharf),
+      ", where ",
+      M(firm),
+      ` have ${pick(["taken the whole of it", "warehoused part of it under bond", "engaged extra hands"])}.`,
+    );
   }
   if (chance(0.35)) {
     const pilot = d.pick("person", { filter: hasRole("river pilot") });
@@ -1166,26 +1372,59 @@ function shipping(d) {
     d.use(WVSN);
     const steamer = d.pick("vessel", { filter: (v) => v.kind === "steamer" });
     const t = d.pick("town");
-    d.s(M(WVSN), " announce that ", M(steamer), ` will resume the passenger service to `, M(t), ` on ${weekday(d.date)}.`);
+    d.s(
+      M(WVSN),
+      " announce that ",
+      M(steamer),
+      ` will resume the passenger service to `,
+      M(t),
+      ` on ${weekday(d.date)}.`,
+    );
     if (chance(0.5)) d.s("Tickets may be had at the office of ", M(WVSN), " on the quay.");
   }
   return pick(["Shipping Intelligence", "Arrivals and Sailings", "Port of Harrowmouth", "The River"]);
 }
 
 function court(d) {
-  const bench = d.use(chance(0.7) ? institutions["Harrowmouth Police Court"] : institutions["Wendshire Quarter Sessions"]);
+  const bench = d.use(
+    chance(0.7) ? institutions["Harrowmouth Police Court"] : institutions["Wendshire Quarter Sessions"],
+  );
   const mag = d.pick("person", { filter: hasRole("magistrate", "alderman"), nil: 0.05 });
-  const def = d.pick("person", { filter: (p) => !p.female, nil: 0.6 });
+  const def = d.pick("person", {
+    filter: (p) => !p.female && !["magistrate", "alderman", "clergyman", "physician"].includes(p.role),
+    nil: 0.6,
+  });
   const town = d.pick("town");
-  d.s("At ", M(bench), ` on ${weekday(d.date)}, before `, M(mag), " and other justices, ", M(def), ", of ", M(town), `, was charged with ${pick(OFFENCES)}.`);
+  d.s(
+    "At ",
+    M(bench),
+    ` on ${weekday(d.date)}, before `,
+    M(mag),
+    " and other justices, ",
+    M(def),
+    ", of ",
+    M(town),
+    `, was charged with ${pick(OFFENCES)}.`,
+  );
   if (chance(0.45)) {
     const collector = d.pick("person", { filter: hasRole("customs collector"), nil: 0.05 });
     const vessel = d.pick("vessel");
-    d.s(M(collector), `, collector of customs, proved the finding of ${pick(CONTRABAND)} aboard `, M(vessel), ".");
+    d.s(
+      M(collector),
+      `, collector of customs, proved the finding of ${pick(CONTRABAND)} aboard `,
+      M(vessel),
+      ".",
+    );
   } else {
     const firm = d.pick("firm");
     const clerk = d.pick("person", { filter: hasRole("clerk") });
-    d.s("The prosecution was conducted on behalf of ", M(firm), ", whose clerk, ", M(clerk), ", produced the books.");
+    d.s(
+      "The prosecution was conducted on behalf of ",
+      M(firm),
+      ", whose clerk, ",
+      M(clerk),
+      ", produced the books.",
+    );
   }
   d.s(M(def), ` pleaded that ${pick(EXCUSES)}.`);
   d.s(M(mag), ` fined the defendant ${pick(FINES)}, and said the bench would protect the trade of the port.`);
@@ -1198,19 +1437,43 @@ function market(d) {
   const t1 = d.pick("town");
   const t2 = d.pick("town");
   const f1 = d.pick("firm");
-  d.s("At ", M(ex), ` on ${weekday(d.date)} there was a ${pick(["fair", "thin", "large"])} attendance of buyers from `, M(t1), " and ", M(t2), ".");
-  const v = d.pick("vessel");
-  d.s(`${pick(COMMODITIES)} was quoted ${pick(["firm", "easier", "dull"])} at ${pick(PRICES)}, `, M(f1), " reporting heavy arrivals by ", M(v), ".");
+  d.s(
+    "At ",
+    M(ex),
+    ` on ${weekday(d.date)} there was a ${pick(["fair", "thin", "large"])} attendance of buyers from `,
+    M(t1),
+    " and ",
+    M(t2),
+    ".",
+  );
+  const v = d.pick("vessel", { filter: (x) => x.kind !== "tug" });
+  d.s(
+    `${pick(COMMODITIES)} was quoted ${pick(["firm", "easier", "dull"])} at ${pick(PRICES)}, `,
+    M(f1),
+    " reporting heavy arrivals by ",
+    M(v),
+    ".",
+  );
   if (chance(0.7)) {
     const f2 = d.pick("firm");
     const t3 = d.pick("town");
     d.s(M(f2), ` offered ${pick(COMMODITIES).toLowerCase()} from `, M(t3), " but found few takers.");
   }
-  d.s("Dealings on ", M(ex), ` ${pick(["closed quietly", "were brisk until noon", "were hindered by the fog"])}.`);
+  d.s(
+    "Dealings on ",
+    M(ex),
+    ` ${pick(["closed quietly", "were brisk until noon", "were hindered by the fog"])}.`,
+  );
   if (chance(0.6)) d.s(M(f1), " expect further supplies from ", M(t1), " before the month is out.");
   if (chance(0.3) && d.fits(HD_BANK)) {
     d.use(HD_BANK);
-    d.s("Bills on ", M(HD_BANK), " were taken at the usual discount, and ", M(HD_BANK), " reports money easy.");
+    d.s(
+      "Bills on ",
+      M(HD_BANK),
+      " were taken at the usual discount, and ",
+      M(HD_BANK),
+      " reports money easy.",
+    );
   }
   return pick(["Corn Market", "Markets", "Grain and Produce", "Trade of the Port"]);
 }
@@ -1219,17 +1482,36 @@ function obituary(d, p) {
   const pron = p.female ? "her" : "his";
   const town = d.use(p.townEntity);
   d.s("DEATH OF ", M(p, "caps"), ".");
-  d.s(`We regret to record the death, at ${pron} residence in `, M(town), ", of ", M(p, "full"), `, for many years a ${p.role} of the district.`);
+  d.s(
+    `We regret to record the death, at ${pron} residence in `,
+    M(town),
+    ", of ",
+    M(p, "full"),
+    `, for many years a ${p.role} of the district.`,
+  );
   const firm = d.pick("firm", { filter: (f) => f.founded <= p.born + ADULT_AGE });
   const birthplace = d.pick("town");
-  d.s(`Born at `, M(birthplace), ` in ${p.born}, `, M(p), " entered the service of ", M(firm), ` as a youth and rose to a partnership.`);
+  d.s(
+    `Born at `,
+    M(birthplace),
+    ` in ${p.born}, `,
+    M(p),
+    " entered the service of ",
+    M(firm),
+    ` as a youth and rose to a partnership.`,
+  );
   let son = null;
   if (p === PELL_SR) son = d.use(PELL_JR);
   else if (chance(0.5)) {
     son = makePerson({ first: firstName(), last: p.last, role: "clerk", born: p.born + 28, died: "" }, false);
     d.use(son);
   }
-  if (son) d.s(`${capitalize(pron)} son, `, M(son), `, ${pick(["carries on the business", "is well known on the quay", "is master of one of the firm's vessels"])}.`);
+  if (son)
+    d.s(
+      `${capitalize(pron)} son, `,
+      M(son),
+      `, ${pick(["carries on the business", "is well known on the quay", "is master of one of the firm's vessels"])}.`,
+    );
   const clergy = d.pick("person", { filter: hasRole("clergyman"), nil: 0.1 });
   const church = d.pick("town");
   d.s("The funeral takes place at ", M(church), ` on ${weekday(d.date)}, with `, M(clergy), " officiating.");
@@ -1242,19 +1524,38 @@ function obituary(d, p) {
 
 function harbourBoard(d) {
   const hhb = d.use(institutions["Harrowmouth Harbour Board"]);
-  const chair = d.pick("person", { filter: hasRole("alderman", "merchant", "ship owner"), nil: 0.05 });
+  const chair = d.pick("person", {
+    filter: (p) => !p.female && hasRole("alderman", "merchant", "ship owner")(p),
+    nil: 0.05,
+  });
   const hm = d.pick("person", { filter: hasRole("harbour master"), nil: 0.05 });
   const wharf = d.pick("wharf", { nil: 0.1 });
-  d.s("At the monthly meeting of ", M(hhb), ", ", M(chair), " presiding, ", M(hm), `, harbour master, reported ${int(40, 260)} arrivals and complained of silting at `, M(wharf), ".");
+  d.s(
+    "At the monthly meeting of ",
+    M(hhb),
+    ", ",
+    M(chair),
+    " presiding, ",
+    M(hm),
+    `, harbour master, reported ${int(40, 260)} arrivals and complained of silting at `,
+    M(wharf),
+    ".",
+  );
   if (chance(0.6)) {
     const coll = d.pick("person", { filter: hasRole("customs collector"), nil: 0.05 });
-    d.s(M(coll), `, collector of customs, asked that the ${pick(["bonded sheds be lit at night", "Custom House boat be repaired", "landing of spirits be confined to the Bonded Quay"])}.`);
+    d.s(
+      M(coll),
+      `, collector of customs, asked that the ${pick(["bonded sheds be lit at night", "Custom House boat be repaired", "landing of spirits be confined to the Bonded Quay"])}.`,
+    );
   }
   const firm = d.pick("firm");
   d.s("A letter was read from ", M(firm), ` asking for a reduction of dues on ${firm.trade.goods}.`);
   const vessel = d.pick("vessel");
   d.s(M(hm), ` was instructed to ${pick(HM_TASKS)} `, M(vessel), ".");
-  d.s(M(hhb), ` ${pick(["resolved to borrow for a new dredger", "adjourned until the next spring tide", "agreed to light the bar buoy"])}.`);
+  d.s(
+    M(hhb),
+    ` ${pick(["resolved to borrow for a new dredger", "adjourned until the next spring tide", "agreed to light the bar buoy"])}.`,
+  );
   return pick(["Harbour Board", "Harbour Board Meeting", "The Port and its Dues"]);
 }
 
@@ -1263,12 +1564,34 @@ function auction(d) {
   const v = d.pick("vessel", { filter: (x) => x.kind !== "steamer" });
   const wharf = d.pick("wharf", { nil: 0.1 });
   const town = d.pick("town");
-  const owner = chance(0.5) ? d.pick("firm") : d.pick("person", { filter: hasRole("ship owner", "master mariner", "merchant") });
-  d.s(M(auct), " will sell by auction at ", M(wharf), ", ", M(town), `, on ${weekday(d.date)} next, `, M(v), `, ${v.attrs.tonnage} tons register, lately the property of `, M(owner), ".");
-  d.s(M(v), ` lies ${pick(["afloat", "on the hard", "in the basin"])} and may be viewed on application to `, M(auct), ".");
+  const owner = chance(0.5)
+    ? d.pick("firm")
+    : d.pick("person", { filter: hasRole("ship owner", "master mariner", "merchant") });
+  d.s(
+    M(auct),
+    " will sell by auction at ",
+    M(wharf),
+    ", ",
+    M(town),
+    `, on ${weekday(d.date)} next, `,
+    M(v),
+    `, ${v.attrs.tonnage} tons register, lately the property of `,
+    M(owner),
+    ".",
+  );
+  d.s(
+    M(v),
+    ` lies ${pick(["afloat", "on the hard", "in the basin"])} and may be viewed on application to `,
+    M(auct),
+    ".",
+  );
   if (chance(0.6)) {
     const f2 = d.pick("firm");
-    d.s(`Also ${pick(["the stock in trade", "two warehouses and a crane", "forty tons of seasoned oak"])} of `, M(f2), `, ${pick(["declining business", "on the expiry of the lease", "by order of the trustees"])}.`);
+    d.s(
+      `Also ${pick(["the stock in trade", "two warehouses and a crane", "forty tons of seasoned oak"])} of `,
+      M(f2),
+      `, ${pick(["declining business", "on the expiry of the lease", "by order of the trustees"])}.`,
+    );
   }
   if (chance(0.5)) {
     const clerk = d.pick("person", { filter: hasRole("clerk") });
@@ -1279,20 +1602,34 @@ function auction(d) {
 
 function casualty(d) {
   const v = d.pick("vessel", { filter: (x) => x.kind !== "tug" });
-  const master = d.pick("person", { filter: hasRole("master mariner") });
+  const master = d.pick("person", { filter: (p) => !p.female && hasRole("master mariner")(p) });
   const t1 = d.pick("town");
-  d.s(M(v), " went ashore on the bar off ", M(t1), ` during ${pick(WEATHER)} on ${weekday(d.date)}, `, M(master), " being in command.");
+  d.s(
+    M(v),
+    " went ashore on the bar off ",
+    M(t1),
+    ` during ${pick(WEATHER)} on ${weekday(d.date)}, `,
+    M(master),
+    " being in command.",
+  );
   const tug = d.pick("vessel", { filter: (x) => x.kind === "tug" });
   const tugOwner = d.pick("firm");
   d.s("She was got off on the next tide by ", M(tug), ", belonging to ", M(tugOwner), ".");
   if (chance(0.7)) d.s(M(master), " blames the want of a light at ", M(t1), ".");
   if (chance(0.7)) {
     const f2 = d.pick("firm");
-    d.s(`Her cargo of ${v.trade.goods} for `, M(f2), " is little damaged.");
+    const cargo = cargoOf(v.trade);
+    d.s(`Her ${cargo === "general cargo" ? cargo : "cargo of " + cargo} for `, M(f2), " is little damaged.");
   }
   if (chance(0.35) && d.fits(CMIC)) {
     d.use(CMIC);
-    d.s("The hull is insured with ", M(CMIC), ", whose surveyor has gone down; ", M(CMIC), " expects a small claim.");
+    d.s(
+      "The hull is insured with ",
+      M(CMIC),
+      ", whose surveyor has gone down; ",
+      M(CMIC),
+      " expects a small claim.",
+    );
   }
   return pick(["Casualties", "Marine Casualties", "Wrecks and Casualties"]);
 }
@@ -1303,18 +1640,39 @@ function localNotes(d) {
       const p = d.pick("person");
       const t1 = d.pick("town");
       const t2 = d.pick("town");
-      d.s(M(p), " of ", M(t1), ` has returned from ${pick(["a visit", "business", "the wool fair"])} at `, M(t2), ".");
-      if (chance(0.5)) d.s(M(p), ` ${pick(["is much improved in health", "brings news of a new railway survey", "reports trade brisk upriver"])}.`);
+      d.s(
+        M(p),
+        " of ",
+        M(t1),
+        ` has returned from ${pick(["a visit", "business", "the wool fair"])} at `,
+        M(t2),
+        ".",
+      );
+      if (chance(0.5))
+        d.s(
+          M(p),
+          ` ${pick(["is much improved in health", "brings news of a new railway survey", "reports trade brisk upriver"])}.`,
+        );
     },
     () => {
       const f = d.pick("firm");
       const where = chance(0.5) ? d.pick("wharf", { nil: 0.1 }) : d.pick("town");
-      d.s(M(f), " have opened new premises at ", M(where), `, where they will carry on the ${f.trade.core.toLowerCase()} trade.`);
+      d.s(
+        M(f),
+        " have opened new premises at ",
+        M(where),
+        `, where they will carry on the ${f.trade.core.toLowerCase()} trade.`,
+      );
     },
     () => {
       const p = d.pick("person", { filter: (x) => !x.female });
       const inst = d.use(pick(Object.values(institutions).filter((i) => !d.used.has(i))));
-      d.s(M(p), ` has been appointed ${pick(["secretary", "treasurer", "a member", "surveyor"])} of `, M(inst), ".");
+      d.s(
+        M(p),
+        ` has been appointed ${pick(["secretary", "treasurer", "a member", "surveyor"])} of `,
+        M(inst),
+        ".",
+      );
     },
     () => {
       if (!d.fits(HD_BANK) || d.used.has(HD_BANK)) return;
@@ -1322,7 +1680,12 @@ function localNotes(d) {
       const t = d.pick("town");
       const p = d.pick("person", { filter: (x) => !x.female });
       d.s(M(HD_BANK), " has opened a branch at ", M(t), ", with ", M(p), " as manager.");
-      if (chance(0.6)) d.s("The branch of ", M(HD_BANK), ` will be open on ${pick(["market days", "Tuesdays and Fridays"])}.`);
+      if (chance(0.6))
+        d.s(
+          "The branch of ",
+          M(HD_BANK),
+          ` will be open on ${pick(["market days", "Tuesdays and Fridays"])}.`,
+        );
     },
     () => {
       const builder = d.pick("person", { filter: hasRole("shipbuilder") });
@@ -1350,16 +1713,22 @@ const GENRES = [
 /** Share of documents that are obituaries (they need a person who died in the archive's span). */
 const OBITUARY_COUNT = 14;
 
+/** A date in `year`, never a Sunday (the gazette did not print on Sundays, nor sat the courts). */
 function randomDate(year) {
   const month = int(1, 12);
-  const day = int(1, 28);
-  return `${year}-${String(month).padStart(2, "0")}-${String(day).padStart(2, "0")}`;
+  let day = int(1, 28);
+  const iso = (dd) => `${year}-${String(month).padStart(2, "0")}-${String(dd).padStart(2, "0")}`;
+  if (weekday(iso(day)) === "Sunday") day++;
+  return iso(day);
 }
 
 // Obituaries: Josiah Pell Sr. first, then others who die within the archive's years.
 const deceased = [
   PELL_SR,
-  ...shuffle(tablePersons.filter((p) => p !== PELL_SR && p.died !== "" && p.died >= FIRST_YEAR)).slice(0, OBITUARY_COUNT - 1),
+  ...shuffle(tablePersons.filter((p) => p !== PELL_SR && p.died !== "" && p.died >= FIRST_YEAR)).slice(
+    0,
+    OBITUARY_COUNT - 1,
+  ),
 ];
 const plans = [];
 for (const p of deceased) plans.push({ date: randomDate(p.died), run: (d) => obituary(d, p) });
@@ -1367,6 +1736,7 @@ while (plans.length < DOC_COUNT) {
   const genre = weighted(GENRES);
   plans.push({ date: randomDate(int(FIRST_YEAR, LAST_YEAR)), run: genre });
 }
+const byName = (name, list = entities) => list.find((e) => e.name === name);
 // A harbour board meeting where both Aldous officials speak, to make the look-alike explicit.
 plans.push({
   date: "1897-03-14",
@@ -1374,12 +1744,106 @@ plans.push({
     const hhb = d.use(institutions["Harrowmouth Harbour Board"]);
     d.use(ALDOUS_HM);
     d.use(ALDOUS_CUSTOMS);
-    d.s("At the monthly meeting of ", M(hhb), ", ", M(ALDOUS_HM), ", harbour master, reported the moorings at ", M(d.use(entities.find((e) => e.name === "Pell's Wharf"))), " silted to half depth.");
-    d.s(M(ALDOUS_CUSTOMS), ", collector of customs, asked for a watchman on the Bonded Quay after the seizure of brandy aboard ", M(d.use(entities.find((e) => e.name === "Kittiwake"))), ".");
-    const third = d.use(nils.find((e) => e.name === "Felix Aldous"));
+    d.s(
+      "At the monthly meeting of ",
+      M(hhb),
+      ", ",
+      M(ALDOUS_HM),
+      ", harbour master, reported the moorings at ",
+      M(d.use(byName("Pell's Wharf"))),
+      " silted to half depth.",
+    );
+    d.s(
+      M(ALDOUS_CUSTOMS),
+      ", collector of customs, asked for a watchman on the Bonded Quay after the seizure of brandy aboard ",
+      M(d.use(byName("Kittiwake"))),
+      ".",
+    );
+    const third = d.use(byName("Felix Aldous", nils));
     d.s("It was stated that ", M(third), ", licensee of the Anchor inn, was no relation of either officer.");
-    d.s(M(ALDOUS_HM), " and ", M(ALDOUS_CUSTOMS), " were thanked for their reports, and ", M(hhb), " adjourned.");
+    d.s(
+      M(ALDOUS_HM),
+      " and ",
+      M(ALDOUS_CUSTOMS),
+      " were thanked for their reports, and ",
+      M(hhb),
+      " adjourned.",
+    );
     return "Harbour Board: The Two Aldouses";
+  },
+});
+// The Pell family, their firm and the schooner named after the founder.
+plans.push({
+  date: "1904-06-09",
+  run: (d) => {
+    const [jr, firm, schooner, wharf, ezra] = [
+      PELL_JR,
+      PELL_SONS,
+      josiahPellSchooner,
+      byName("Pell's Wharf"),
+      byName("Ezra Pell", nils),
+    ];
+    for (const e of [jr, firm, schooner, wharf, ezra]) d.use(e);
+    const stenmouth = d.use(byName("Stenmouth"));
+    d.s(
+      M(schooner),
+      ", ",
+      M(ezra),
+      ", master, came up to ",
+      M(wharf),
+      " on Tuesday with coal from ",
+      M(stenmouth),
+      " for ",
+      M(firm),
+      ".",
+    );
+    d.s(
+      M(jr),
+      " tells us that ",
+      M(firm),
+      " will sell the last of their sailing colliers this summer, and that ",
+      M(schooner),
+      " is to be the first to go.",
+    );
+    d.s("The schooner was named after the late ", M(PELL_SR), ", who founded ", M(firm), " in 1846.");
+    d.s(M(ezra), ", who has sailed her for eleven years, is no kin of ", M(jr), ".");
+    return "The Pell Colliers";
+  },
+});
+// Carrowby the town, its rope works, and the steamer named after it; Stenmouth, Stenmoor and Stenford.
+plans.push({
+  date: "1908-10-02",
+  run: (d) => {
+    const [carrowby, works, steamer, stenmouth, stenmoor, stenford] = [
+      byName("Carrowby"),
+      CARROWBY_ROPE,
+      byName("S.S. Carrowby"),
+      byName("Stenmouth"),
+      byName("Stenmoor"),
+      byName("Stenford", nils),
+    ];
+    for (const e of [carrowby, works, steamer, stenmouth, stenmoor, stenford]) d.use(e);
+    d.s(
+      M(carrowby, "caps"),
+      ", October 2. — ",
+      M(steamer),
+      " loaded two hundred coils of cable at the wharf of ",
+      M(works),
+      " for ",
+      M(stenmouth),
+      ".",
+    );
+    d.s("Trade at ", M(carrowby), " is brisk, and ", M(works), " have taken on forty hands at the ropewalk.");
+    d.s(
+      M(steamer),
+      " will call at ",
+      M(stenmoor),
+      " landing on her return, and at ",
+      M(stenford),
+      " if there is water enough over the sill.",
+    );
+    d.s("Shippers are reminded that ", M(stenford), " is not ", M(stenmouth), ".");
+    return "Carrowby Notes";
   },
 });
 plans.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
@@ -1399,7 +1863,13 @@ for (const [index, plan] of plans.entries()) {
     const start = text.length;
     for (const piece of pieces) {
       if (piece.entity) {
-        spans.push({ doc: id, start: text.length, end: text.length + piece.text.length, entity: piece.entity, text: piece.text });
+        spans.push({
+          doc: id,
+          start: text.length,
+          end: text.length + piece.text.length,
+          entity: piece.entity,
+          text: piece.text,
+        });
       }
       text += piece.text;
     }
@@ -1458,7 +1928,10 @@ for (const doc of documents) {
   // Tokens joined by the original whitespace rebuild the text.
   let cursor = 0;
   for (const t of tokens) {
-    assert(/^\s*$/.test(doc.text.slice(cursor, t.start)), `${doc.id}: text between tokens at ${cursor} is not whitespace`);
+    assert(
+      /^\s*$/.test(doc.text.slice(cursor, t.start)),
+      `${doc.id}: text between tokens at ${cursor} is not whitespace`,
+    );
     cursor = t.end;
   }
   assert(/^\s*$/.test(doc.text.slice(cursor)), `${doc.id}: trailing text not tokenized`);
@@ -1469,7 +1942,10 @@ for (const doc of documents) {
     assert(doc.text.slice(m.start, m.end) === m.text, `${m.id}: span text differs from the document slice`);
     const first = starts.get(m.start);
     const last = ends.get(m.end);
-    assert(first !== undefined && last !== undefined, `${m.id} "${m.text}" in ${doc.id}: span boundary inside a token`);
+    assert(
+      first !== undefined && last !== undefined,
+      `${m.id} "${m.text}" in ${doc.id}: span boundary inside a token`,
+    );
     const label = LABEL[m.entity.type];
     for (let i = first; i <= last; i++) {
       assert(tags[i] === "O", `${m.id}: overlapping spans`);
@@ -1485,7 +1961,10 @@ for (const doc of documents) {
     for (const [t, i] of inSentence) conllLines.push(`${t.text}\t${tags[i]}`);
     conllLines.push("");
   }
-  const covered = ranges.reduce((n, [s, e]) => n + tokens.filter((t) => t.start >= s && t.end <= e).length, 0);
+  const covered = ranges.reduce(
+    (n, [s, e]) => n + tokens.filter((t) => t.start >= s && t.end <= e).length,
+    0,
+  );
   assert(covered === tokens.length, `${doc.id}: a token crosses a sentence boundary`);
 }
 
@@ -1509,7 +1988,8 @@ const goldRows = mentions.map((m) => ({
   end: m.end,
   gold: m.entity.id,
 }));
-for (const g of goldRows) assert(g.gold === null || tableIds.has(g.gold), `${g.id}: gold ${g.gold} not in the table`);
+for (const g of goldRows)
+  assert(g.gold === null || tableIds.has(g.gold), `${g.id}: gold ${g.gold} not in the table`);
 assert(new Set(entities.map((e) => e.id)).size === entities.length, "duplicate entity ids");
 
 const nilShare = goldRows.filter((g) => g.gold === null).length / goldRows.length;
@@ -1529,13 +2009,21 @@ if (!QUIET) {
   console.log(`NIL share: ${(nilShare * 100).toFixed(1)}%`);
   console.log(`clean (canonical name or alias): ${((clean / mentions.length) * 100).toFixed(1)}%`);
   console.log(`distinct table entities mentioned: ${linked}`);
+  for (const label of Object.keys(byLabel)) {
+    const rows = mentions.filter((m) => LABEL[m.entity.type] === label);
+    const c = rows.filter((m) => m.text === m.entity.name || m.entity.aliases.includes(m.text)).length;
+    console.log(`  clean ${label}: ${((c / rows.length) * 100).toFixed(1)}%`);
+  }
   console.log(`written to ${OUT}`);
 }
 
 assert(entities.length >= MIN_ENTITIES, `only ${entities.length} entities`);
 assert(documents.length >= MIN_DOCUMENTS, `only ${documents.length} documents`);
 assert(mentions.length >= MIN_MENTIONS, `only ${mentions.length} mentions`);
-assert(nilShare >= NIL_SHARE_RANGE[0] && nilShare <= NIL_SHARE_RANGE[1], `NIL share ${nilShare.toFixed(3)} out of range`);
+assert(
+  nilShare >= NIL_SHARE_RANGE[0] && nilShare <= NIL_SHARE_RANGE[1],
+  `NIL share ${nilShare.toFixed(3)} out of range`,
+);
 
 // --- Writers ---------------------------------------------------------------------------------
 
@@ -1569,13 +2057,24 @@ writeFileSync(join(OUT, "gazette-entities.csv"), tableLines.join("\n") + "\n");
 writeFileSync(join(OUT, "articles", "documents.jsonl"), jsonl(documents));
 writeFileSync(
   join(OUT, "articles", "spans.jsonl"),
-  jsonl(mentions.map((m) => ({ id: m.id, doc: m.doc, start: m.start, end: m.end, label: LABEL[m.entity.type], text: m.text }))),
+  jsonl(
+    mentions.map((m) => ({
+      id: m.id,
+      doc: m.doc,
+      start: m.start,
+      end: m.end,
+      label: LABEL[m.entity.type],
+      text: m.text,
+    })),
+  ),
 );
 writeFileSync(join(OUT, "gazette-gold.jsonl"), jsonl(goldRows));
 writeFileSync(join(OUT, "gazette-mentions.jsonl"), jsonl(mentionRows));
 writeFileSync(
   join(OUT, "gazette-mentions.csv"),
-  [csvLine(MENTION_CSV_COLUMNS), ...mentionRows.map((r) => csvLine(MENTION_CSV_COLUMNS.map((c) => r[c])))].join("\n") + "\n",
+  [
+    csvLine(MENTION_CSV_COLUMNS),
+    ...mentionRows.map((r) => csvLine(MENTION_CSV_COLUMNS.map((c) => r[c]))),
+  ].join("\n") + "\n",
 );
 writeFileSync(join(OUT, "articles", "gazette.conll"), conllLines.join("\n") + "\n");
-

@@ -59,7 +59,7 @@ export interface Features {
   jaroWinkler: number;
   /** Best normalized Levenshtein similarity (1 - distance / longer length) over aliases. */
   levenshtein: number;
-  /** Best token-set overlap (fuzzy-matched tokens, Dice coefficient) over aliases. */
+  /** Best token-set overlap over aliases: mean of fuzzy Dice and overlap coefficient (containment counts). */
   tokenSet: number;
   /** 1 when the mention is compatible as initials or an acronym of an alias, else 0. */
   abbreviation: number;

@@ -66,6 +66,29 @@ export function acronymOfTokens(tokens: readonly string[]): string {
   return out;
 }
 
+/** Parenthesized asides ("Falkland Islands (Malvinas)", "Pell (deceased)") are not part of the name key. */
+const PARENTHESIZED = /\s*[([{][^)\]}]*[)\]}]\s*/g;
+/** Leading articles carry no identity: "The Gambia" is "Gambia", "The Pell Line" is "Pell Line". */
+const LEADING_ARTICLES: ReadonlySet<string> = new Set(["the"]);
+
+function dropParenthesized(raw: string): string {
+  const stripped = raw.replace(PARENTHESIZED, " ").trim();
+  return stripped.length > 0 ? stripped : raw;
+}
+
+/**
+ * Catalogue inversion for organizations and places: "Korea, Republic of" -> "Republic of Korea",
+ * "Watermen, Company of the" -> "Company of the Watermen" (the part after the comma ends in "of").
+ */
+function reorderInverted(raw: string): string {
+  const parts = raw.split(",");
+  if (parts.length !== 2) return raw;
+  const head = parts[0]!.trim();
+  const tail = parts[1]!.trim();
+  if (head === "" || !/\bof(\s+the)?$/i.test(tail)) return raw;
+  return `${tail} ${head}`;
+}
+
 /** "Aldous, J. H." -> "J. H. Aldous" when the text is one comma between two non-empty parts. */
 function reorderLastFirst(raw: string): string {
   const parts = raw.split(",");
@@ -136,8 +159,12 @@ function stripLocation(tokens: string[]): Stripped {
  * - other: folding only.
  */
 export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
-  const text = cls === "person" ? reorderLastFirst(raw) : raw;
-  const folded = foldTokens(text);
+  const bare = dropParenthesized(raw);
+  const text = cls === "person" ? reorderLastFirst(bare) : reorderInverted(bare);
+  const all = foldTokens(text);
+  let lead = 0;
+  while (lead < all.length - 1 && LEADING_ARTICLES.has(all[lead]!)) lead++;
+  const folded = lead > 0 ? all.slice(lead) : all;
   let s: Stripped;
   switch (cls) {
     case "person":

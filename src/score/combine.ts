@@ -10,27 +10,29 @@
 import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
 
 /**
- * Default weights, set by reasoning rather than fitted to any sample (tuning fits them on a team's
- * own labeled set). Each is the log-odds a perfect feature value adds:
- * - name features dominate: an unrelated name should never link on context alone;
- * - exactKey adds a bonus for a full normalized-key match (alias or folded key);
- * - abbreviation lets "S.G.E." or "J. H. Aldous" reach the threshold although string
- *   similarity to the full name is low;
- * - context separates look-alikes (two Aldous, two near-named towns);
+ * Default weights, set by reasoning over worked cases rather than fitted to any sample (tuning
+ * fits them on a team's own labeled set). Each is the log-odds a perfect feature value adds:
+ * - a full normalized-name match with a compatible type scores about 0.99;
+ * - an acronym ("USA", "S.G.E.") or initials ("J. H. Aldous") reading links on its own
+ *   (abbreviation), although string similarity to the full name is low;
+ * - a short form contained in the full name ("Brunei" in "Brunei Darussalam") scores near 0.5,
+ *   and links when context supports it (tokenSet counts containment);
+ * - an OCR-noised full name ("Stenrnouth") links through similarity plus the OCR key;
+ * - a name sharing only one token ("Port Ellery" / "Port Stenmouth", "Thomas Aldous" /
+ *   "Josiah Aldous") stays well below 0.5 without strong context;
  * - typeMatch is soft: a mismatch lowers the score, it does not block;
  * - prior breaks ties towards popular entities, weakly.
- * The bias puts a candidate with middling name similarity and no other evidence below 0.5.
  */
 export const DEFAULT_WEIGHTS: Weights = {
-  bias: -9,
+  bias: -10,
   features: {
-    jaroWinkler: 3.5,
-    levenshtein: 2.5,
-    tokenSet: 2.5,
-    abbreviation: 2.5,
-    exactKey: 1.5,
+    jaroWinkler: 4,
+    levenshtein: 2,
+    tokenSet: 4.5,
+    abbreviation: 6,
+    exactKey: 2,
     context: 3,
-    typeMatch: 1.5,
+    typeMatch: 2,
     prior: 0.5,
   },
 };

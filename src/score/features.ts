@@ -51,7 +51,7 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
     }
     const l = Math.max(levenshteinSimilarity(norm.key, a.key), levenshteinSimilarity(norm.full, a.full));
     if (l > lev) lev = l;
-    const t = tokenSetSimilarity(norm.tokens, a.tokens);
+    const t = tokenOverlap(norm.tokens, a.tokens);
     if (t > tok) tok = t;
     if (norm.key === a.key) {
       exact = 1;
@@ -80,6 +80,19 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
     abbreviationKind,
     keyKind,
   };
+}
+
+/**
+ * Token-set overlap: the mean of the fuzzy Dice coefficient (penalizes extra tokens on either
+ * side) and the overlap coefficient (matched / shorter list: a short form contained in the full
+ * name, "Aldous" in "Josiah Aldous" or "Brunei" in "Brunei Darussalam", counts fully).
+ */
+export function tokenOverlap(a: readonly string[], b: readonly string[]): number {
+  if (a.length === 0 || b.length === 0) return 0;
+  const dice = tokenSetSimilarity(a, b);
+  const matched = (dice * (a.length + b.length)) / 2;
+  const overlap = Math.min(1, matched / Math.min(a.length, b.length));
+  return (dice + overlap) / 2;
 }
 
 /** log1p(prior) / log1p(max prior): popularity on a log scale, so a city does not drown a village. */
