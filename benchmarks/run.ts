@@ -16,7 +16,7 @@ import { join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { Command } from "commander";
 import { DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
-import { buildKb, createLinker, openKb } from "./core-shim.js";
+import { buildKb, createLinker, openKb } from "../src/index.js";
 import type { LabeledMention } from "../src/types.js";
 import {
   DEFAULT_SEED,

@@ -210,19 +210,19 @@ const ROLES = {
     weight: 18,
     hon: "Mr.",
     desc: (p) =>
-      `${capitalize(p.trade.core)} merchant of ${p.town}; buys ${p.trade.goods} off the river barges and keeps a warehouse on the quay.`,
+      `Merchant of ${p.town} dealing in ${cargoOf(p.trade)}; buys off the river barges and keeps a warehouse on the quay.`,
   },
   "ship owner": {
     weight: 12,
     hon: "Mr.",
     desc: (p) =>
-      `Ship owner of ${p.town} whose schooners and steamers carry ${p.trade.goods} down the ${p.river}.`,
+      `Ship owner of ${p.town} whose schooners and steamers carry ${cargoOf(p.trade)} down the ${p.river}.`,
   },
   "master mariner": {
     weight: 14,
     hon: "Capt.",
     desc: (p) =>
-      `Master mariner of ${p.town}, long in command of coasting schooners in the ${p.trade.goods} trade.`,
+      `Master mariner of ${p.town}, long in command of coasting schooners in the ${cargoOf(p.trade)} trade.`,
   },
   "harbour master": {
     weight: 3,
@@ -302,6 +302,8 @@ function stripDiacritics(s) {
   return s.normalize("NFD").replace(/\p{M}/gu, "").normalize("NFC");
 }
 const hasDiacritics = (s) => stripDiacritics(s) !== s;
+/** End a sentence with one period, also after a name that ends in an abbreviation ("Bros."). */
+const endSentence = (s) => (s.endsWith(".") ? s : s + ".");
 
 /** OCR confusions of worn 1890s type (common practice in OCR post-correction work). */
 // biome-ignore format: compact data table
@@ -779,7 +781,7 @@ function makeFirm(spec, inTable) {
   const owner = spec.owner ?? "";
   f.description =
     spec.desc ??
-    `${capitalize(trade.core)} firm of ${town.name} dealing in ${trade.goods}; has its ${trade.words} by the river.`;
+    `Firm of ${town.name} in the ${trade.core.toLowerCase()} trade, dealing in ${trade.goods}; has its ${trade.words} by the river.`;
   f.attrs = { founded: String(founded), town: town.name, owner };
   return register(f, inTable);
 }
@@ -998,7 +1000,11 @@ function makeVessel([bare, kind], inTable) {
     built,
     trade,
     aliases: kind === "steamer" ? [`Steamship ${bare}`] : [],
-    description: `${k.hull} of ${tonnage} tons registered at ${town.name}, in the ${trade.goods} trade to ${other.name}; owned by ${owner.name}.`,
+    description: endSentence(
+      kind === "tug"
+        ? `${k.hull} of ${tonnage} tons stationed at ${town.name}, towing barges and colliers over the ${town.river} bar; owned by ${owner.name}`
+        : `${k.hull} of ${tonnage} tons registered at ${town.name}, in the ${cargoOf(trade)} trade to ${other.name}; owned by ${owner.name}`,
+    ),
     prior: logUniform(1, 150),
     attrs: {
       founded: String(built),

@@ -110,7 +110,21 @@ function linkerOptions(cmd: Command): Command {
       `candidate paths to run, comma-separated (default ${ALL_PATHS.join(",")})`,
       pathList,
     )
-    .option("--labels <file>", "JSON label map overriding the built-in NER label sets");
+    .option("--labels <file>", "JSON label map overriding the built-in NER label sets")
+    .option("--no-doc-evidence", "turn off all document-level evidence")
+    .option("--no-doc-same-text", "do not decide same-text mentions of a document together")
+    .option("--no-doc-short-form", "do not resolve short forms to a fuller earlier mention")
+    .option("--no-doc-acronyms", "do not resolve acronyms defined in the document");
+}
+function documentOption(o: Record<string, unknown>) {
+  if (o.docEvidence === false) return { document: false as const };
+  return {
+    document: {
+      sameText: o.docSameText !== false,
+      shortForm: o.docShortForm !== false,
+      acronyms: o.docAcronyms !== false,
+    },
+  };
 }
 function window(o: { windowChars?: number; windowSentences?: number }) {
   if (o.windowChars !== undefined && o.windowSentences !== undefined)
@@ -138,7 +152,11 @@ function common(o: Record<string, unknown>) {
   ];
   const r: Record<string, unknown> = {};
   for (const k of keep) if (o[k] !== undefined) r[k] = o[k];
-  return { ...r, ...window(o as { windowChars?: number; windowSentences?: number }) };
+  return {
+    ...r,
+    ...window(o as { windowChars?: number; windowSentences?: number }),
+    ...(o.docEvidence !== undefined ? documentOption(o) : {}),
+  };
 }
 
 export function program(): Command {

@@ -19,6 +19,7 @@ export interface EvalOptions
     | "maxCandidates"
     | "paths"
     | "labels"
+    | "document"
     | "from"
     | "documents"
     | "window"
@@ -93,10 +94,10 @@ export async function evaluate(options: EvalOptions): Promise<EvalReport | Align
   const kb = openKb(options.kb);
   try {
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
-    return measure(
-      gold.map((m) => ({ gold: m, predicted: linker.link(m) })),
-      k,
-    );
+    const pairs = [];
+    let i = 0;
+    for await (const row of linker.linkAll(gold)) pairs.push({ gold: gold[i++]!, predicted: row });
+    return measure(pairs, k);
   } finally {
     kb.close();
   }

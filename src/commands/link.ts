@@ -35,6 +35,8 @@ export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
   paths?: CandidatePath[];
   /** JSON label map file overriding the built-in label sets. */
   labels?: string;
+  /** Document-level evidence steps (same text, short forms, acronyms); `false` turns all off. Default: all on. */
+  document?: LinkerOptions["document"];
   /** Show a progress bar on stderr; default: when stderr is a terminal. */
   progress?: boolean;
   /** Where warnings go (unknown labels, ill-formed tags); default: stderr. */
@@ -56,7 +58,7 @@ export interface LinkSummary {
 export function linkerOptionsFrom(
   o: Pick<
     LinkOptions,
-    "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels"
+    "config" | "force" | "threshold" | "minMargin" | "top" | "maxCandidates" | "paths" | "labels" | "document"
   >,
   kbFingerprint: string,
 ): LinkerOptions {
@@ -72,6 +74,7 @@ export function linkerOptionsFrom(
   if (o.top !== undefined) opts.top = o.top;
   if (o.maxCandidates !== undefined) opts.maxCandidates = o.maxCandidates;
   if (o.paths !== undefined) opts.paths = o.paths;
+  if (o.document !== undefined) opts.document = o.document;
   opts.labels = o.labels !== undefined ? readLabelMapFile(o.labels) : new LabelMap();
   return opts;
 }

@@ -32,6 +32,14 @@ import {
   type Weights,
 } from "../types.js";
 import { UsageError } from "../util/errors.js";
+import {
+  DEFAULT_DOCUMENT_EVIDENCE,
+  type DocItem,
+  type DocOverride,
+  type DocumentEvidenceOptions,
+  documentEvidence,
+} from "../document/evidence.js";
+import { type Decision } from "../decide/decide.js";
 import { decisionReason, evidenceReasons, sharedTerms } from "./explain.js";
 
 export interface LinkerOptions {
@@ -56,7 +64,18 @@ export interface LinkerOptions {
    * at least this. Default 0.3: a firm named after its town is still found for a LOC mention.
    */
   blockMinCompat?: number;
+  /**
+   * Document-level evidence used by `linkAll` and `linkDocument` on mentions that carry a `doc`
+   * (see src/document/evidence.ts). Default: all three steps on; `false` turns all off.
+   */
+  document?: Partial<DocumentEvidenceOptions> | false;
 }
+
+/**
+ * Most mentions of one document held back for document-level evidence; a longer run of one
+ * document is decided in slices of this size, so memory stays bounded whatever the input.
+ */
+export const MAX_DOCUMENT_MENTIONS = 5000;
 
 export const DEFAULT_TOP = 3;
 export const DEFAULT_BLOCK_MIN_COMPAT = 0.3;
@@ -71,6 +90,12 @@ export interface ScoredCandidate {
   paths: Set<CandidatePath>;
   name: NameMatch;
   contextVector: TermVector;
+}
+
+interface Analysis {
+  p: Prepared;
+  scored: ScoredCandidate[];
+  decision: Decision;
 }
 
 interface Prepared {
@@ -91,6 +116,8 @@ export class Linker {
   private readonly blockMinCompat: number;
   private readonly idfOf: (t: string) => number;
   private readonly entityVectors = new WeakMap<EntityRow, TermVector>();
+  /** Document-level evidence steps in force (all off when document evidence is disabled). */
+  readonly documentSteps: DocumentEvidenceOptions;
 
   constructor(kb: Kb, options: LinkerOptions = {}) {
     this.kb = kb;
@@ -119,6 +146,10 @@ export class Linker {
       throw new UsageError(`maxCandidates must be a whole number >= 1, got ${this.cand.maxCandidates}`);
     }
     this.blockMinCompat = options.blockMinCompat ?? DEFAULT_BLOCK_MIN_COMPAT;
+    this.documentSteps =
+      options.document === false
+        ? { sameText: false, shortForm: false, acronyms: false }
+        : { ...DEFAULT_DOCUMENT_EVIDENCE, ...options.document };
     const n = kb.info.contextDocs;
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
   }
@@ -192,10 +223,46 @@ export class Linker {
     return generateCandidates(this.kb, p.forms, this.cand).map((c) => this.kb.entity(c.eid).id);
   }
 
-  /** Link one mention. */
-  link(m: Mention): LinkRow {
+  private analyze(m: Mention): Analysis {
     const p = this.prepare(m);
-    return this.rowFor(p, this.scorePrepared(p));
+    const scored = this.scorePrepared(p);
+    const decision = decide(
+      scored.map((s) => s.score),
+      this.config.threshold,
+      this.config.minMargin,
+    );
+    return { p, scored, decision };
+  }
+
+  /** Link one mention on its own (no document-level evidence). */
+  link(m: Mention): LinkRow {
+    return this.rowFor(this.analyze(m));
+  }
+
+  /**
+   * Link the mentions of one document together: each is analyzed alone, then the document-level
+   * steps revise the decisions. Rows come back in input order, one per mention.
+   */
+  linkDocument(mentions: readonly Mention[]): LinkRow[] {
+    const analyses = mentions.map((m) => this.analyze(m));
+    const steps = this.documentSteps;
+    if (mentions.length < 2 || !(steps.sameText || steps.shortForm || steps.acronyms)) {
+      return analyses.map((a) => this.rowFor(a));
+    }
+    const items: DocItem[] = analyses.map((a) => {
+      const form = a.p.forms.find((f) => f.cls === a.p.info.cls) ?? a.p.forms[0];
+      return {
+        mention: a.p.mention,
+        key: form?.norm.key ?? "",
+        cls: form?.cls ?? "",
+        tokens: form?.norm.tokens ?? [],
+        scored: a.scored,
+        chosen: a.decision.outcome === "link" ? a.scored[a.decision.chosen]! : null,
+        scoreEntity: (e: EntityRow) => this.scoreOne(a.p, e, form?.cls ?? e.cls, new Set(["document"])),
+      };
+    });
+    const overrides = documentEvidence(items, steps, this.config);
+    return analyses.map((a, i) => this.rowFor(a, overrides.get(i)));
   }
 
   /**
@@ -210,15 +277,39 @@ export class Linker {
         scored.push(this.scoreOne(p, this.kb.entity(eid), f.cls, new Set()));
     }
     scored.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
-    return this.rowFor(p, scored);
+    const decision = decide(
+      scored.map((s) => s.score),
+      this.config.threshold,
+      this.config.minMargin,
+    );
+    return this.rowFor({ p, scored, decision });
   }
 
-  /** Link a stream of mentions, in order, one row each. */
+  /**
+   * Link a stream of mentions, in order, one row each. Consecutive mentions of the same `doc`
+   * are linked together with document-level evidence (up to MAX_DOCUMENT_MENTIONS at a time);
+   * mentions without a `doc` are linked alone. Memory is bounded by one document.
+   */
   async *linkAll(mentions: Iterable<Mention> | AsyncIterable<Mention>): AsyncGenerator<LinkRow> {
-    for await (const m of mentions) yield this.link(m);
+    let doc: string | undefined;
+    let batch: Mention[] = [];
+    for await (const m of mentions) {
+      if (batch.length > 0 && (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)) {
+        yield* this.linkDocument(batch);
+        batch = [];
+      }
+      if (m.doc === undefined) {
+        yield this.link(m);
+        continue;
+      }
+      doc = m.doc;
+      batch.push(m);
+    }
+    if (batch.length > 0) yield* this.linkDocument(batch);
   }
 
-  private rowFor(p: Prepared, scored: ScoredCandidate[]): LinkRow {
+  private rowFor(a: Analysis, override?: DocOverride): LinkRow {
+    const { p, scored } = a;
     const m = p.mention;
     const reasons: Reason[] = [];
     const base = {
@@ -237,15 +328,12 @@ export class Linker {
       });
       return { ...base, entity: null, name: null, score: 0, margin: 0, reasons, candidates: [] };
     }
-    const d = decide(
-      scored.map((s) => s.score),
-      this.config.threshold,
-      this.config.minMargin,
-    );
-    const best = d.best >= 0 ? scored[d.best]! : null;
-    const runner = scored.length > 1 ? scored[1]! : null;
+    const d = a.decision;
     const label = (s: ScoredCandidate | null) =>
       s === null ? null : { entity: s.entity.id, name: s.entity.name };
+    if (override !== undefined) return this.overrideRow(a, override, base);
+    const best = d.best >= 0 ? scored[d.best]! : null;
+    const runner = scored.length > 1 ? scored[1]! : null;
     reasons.push(decisionReason(d, this.config.threshold, this.config.minMargin, label(best), label(runner)));
     if (best !== null) {
       const shared = p.context === null ? [] : sharedTerms(p.context, best.contextVector);
@@ -270,13 +358,7 @@ export class Linker {
         score: r4(runner.score),
       });
     }
-    const candidates: CandidateOut[] = scored.slice(0, this.top).map((s) => ({
-      entity: s.entity.id,
-      name: s.entity.name,
-      score: r4(s.score),
-      features: roundFeatures(s.features),
-      paths: [...s.paths],
-    }));
+    const candidates = this.candidatesOut(scored);
     const chosen = d.outcome === "link" ? best : null;
     return {
       ...base,
@@ -288,9 +370,59 @@ export class Linker {
       candidates,
     };
   }
+
+  private candidatesOut(scored: readonly ScoredCandidate[]): CandidateOut[] {
+    return scored.slice(0, this.top).map((s) => ({
+      entity: s.entity.id,
+      name: s.entity.name,
+      score: r4(s.score),
+      features: roundFeaturesOf(s.features),
+      paths: [...s.paths],
+    }));
+  }
+
+  /** A row whose decision document-level evidence made: the document reason first, then the evidence. */
+  private overrideRow(a: Analysis, o: DocOverride, base: Omit<LinkRow, "entity" | "name" | "score" | "margin" | "reasons" | "candidates">): LinkRow {
+    const chosen = o.chosen;
+    const m = a.p.mention;
+    const others = a.scored.filter((s) => s.entity.eid !== chosen.entity.eid);
+    const runner = others[0];
+    const shared = a.p.context === null ? [] : sharedTerms(a.p.context, chosen.contextVector);
+    const reasons: Reason[] = [
+      o.reason,
+      ...evidenceReasons({
+        entity: chosen.entity.id,
+        name: chosen.entity.name,
+        features: chosen.features,
+        name_: chosen.name,
+        paths: chosen.paths,
+        sharedTerms: shared,
+        entityType: chosen.entity.type,
+        mentionType: m.type ?? null,
+      }),
+    ];
+    if (runner !== undefined) {
+      reasons.push({
+        code: "runner-up",
+        message: `next best ${runner.entity.id} "${runner.entity.name}" scored ${r4(runner.score)}`,
+        entity: runner.entity.id,
+        score: r4(runner.score),
+      });
+    }
+    const listed = a.scored.some((s) => s.entity.eid === chosen.entity.eid) ? a.scored : [chosen, ...a.scored];
+    return {
+      ...base,
+      entity: chosen.entity.id,
+      name: chosen.entity.name,
+      score: r4(chosen.score),
+      margin: r4(chosen.score - (runner?.score ?? 0)),
+      reasons,
+      candidates: this.candidatesOut([...listed].sort((x, y) => y.score - x.score)),
+    };
+  }
 }
 
-function roundFeatures(f: Features): Features {
+function roundFeaturesOf(f: Features): Features {
   const out = { ...f };
   for (const k of Object.keys(out) as Array<keyof Features>) out[k] = r4(out[k]);
   return out;

@@ -36,7 +36,7 @@ export const GAZETTE_CSV = [
   "id,name,type,aliases,description,prior,port",
   'P01,Josiah Hale Aldous,person,Capt. Josiah Aldous,"master mariner, captain of the steam packet Wenna Belle on the upper river",40,Stenmouth',
   "P02,Jonas Hale Aldous,person,,clerk to the harbour board who kept the customs ledgers and tonnage dues,30,Stenmouth",
-  "P03,Tobias Pell Sr.,person,,founder of the rope walk and elder of the chapel,25,Stenmoor",
+  "P03,Tobias Pell Sr.,person,,founder of the rope walk and elder of the chapel,20,Stenmoor",
   "P04,Tobias Pell Jr.,person,,son of the founder; manager of the rope walk after 1911,20,Stenmoor",
   "P05,Ezra Quillon Marsh,person,Quillon Marsh,wharfinger at the coal staithes,15,Fort Carrow",
   "P06,Bérénice Ñuñez,person,,milliner and importer of lace by the weekly packet,5,Saint Wenna",
@@ -58,4 +58,13 @@ export const GAZETTE_CSV = [
 ].join("\n");
 
 /** Number of rows in GAZETTE_CSV. */
-export const GAZETTE_ROWS = 21;
+export const GAZETTE_ROWS = 20;
+
+/** Write GAZETTE_CSV into `dir` and build its KB there; returns both paths. */
+export async function buildGazetteKb(dir: string): Promise<{ table: string; kb: string }> {
+  const { buildKb } = await import("../../src/kb/build.js");
+  const table = writeText(join(dir, "gazette.csv"), GAZETTE_CSV);
+  const kb = join(dir, "gazette.kb");
+  await buildKb({ table, out: kb });
+  return { table, kb };
+}

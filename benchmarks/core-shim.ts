@@ -1,3 +1,0 @@
-export { buildKb } from "../src/kb/build.js";
-export { openKb } from "../src/kb/kb.js";
-export { createLinker } from "../src/link/linker.js";
