@@ -121,6 +121,10 @@ export interface LinkRow {
   doc?: string;
   start?: number;
   end?: number;
+  /** CoNLL input: sentence number and token offsets of the mention within its document. */
+  sentence?: number;
+  tokenStart?: number;
+  tokenEnd?: number;
 }
 
 /** Weights of the logistic combination: score = sigmoid(bias + sum(weight[f] * feature[f])). */

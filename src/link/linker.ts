@@ -319,6 +319,9 @@ export class Linker {
       ...(m.doc !== undefined ? { doc: m.doc } : {}),
       ...(m.start !== undefined ? { start: m.start } : {}),
       ...(m.end !== undefined ? { end: m.end } : {}),
+      ...(m.sentence !== undefined ? { sentence: m.sentence } : {}),
+      ...(m.tokenStart !== undefined ? { tokenStart: m.tokenStart } : {}),
+      ...(m.tokenEnd !== undefined ? { tokenEnd: m.tokenEnd } : {}),
     };
     if (!p.info.linkable) {
       reasons.push({

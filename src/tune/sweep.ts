@@ -124,9 +124,36 @@ function cmp(a: number, b: number): number {
   return Math.abs(a - b) <= TIE_EPSILON ? 0 : a - b;
 }
 
-/** Ties after the objective: higher precision, then lower threshold, then smaller margin. Negative when a is better. */
+/** Ties after the objective: higher precision, then lower threshold, then smaller margin (the threshold is then moved to the middle of its plateau by centreOfPlateau). Negative when a is better. */
 function tieBreak(a: OperatingPoint, b: OperatingPoint): number {
   return -cmp(a.linkPrecision, b.linkPrecision) || a.threshold - b.threshold || a.minMargin - b.minMargin;
+}
+
+/**
+ * Among the thresholds at the chosen margin that tie with the chosen point on every figure, take
+ * the middle one: the lowest tied threshold sits on the edge of the plateau, where a small shift
+ * of scores on new data changes decisions; the middle is as far from both edges as the data allow.
+ */
+function centreOfPlateau(grid: readonly OperatingPoint[], chosen: OperatingPoint): OperatingPoint {
+  const tied = grid
+    .filter(
+      (p) =>
+        p.minMargin === chosen.minMargin &&
+        cmp(p.linkF1, chosen.linkF1) === 0 &&
+        cmp(p.linkPrecision, chosen.linkPrecision) === 0 &&
+        cmp(p.linkRecall, chosen.linkRecall) === 0,
+    )
+    .sort((a, b) => a.threshold - b.threshold);
+  // Only a contiguous run of thresholds around the chosen one is a plateau.
+  const at = tied.findIndex((p) => p.threshold === chosen.threshold);
+  if (at < 0) return chosen;
+  let lo = at;
+  let hi = at;
+  const step = (i: number) => Math.abs(tied[i + 1]!.threshold - tied[i]!.threshold);
+  const gap = tied.length > 1 ? Math.min(...tied.slice(1).map((_, i) => step(i))) : 0;
+  while (lo > 0 && Math.abs(step(lo - 1) - gap) < 1e-9) lo--;
+  while (hi < tied.length - 1 && Math.abs(step(hi) - gap) < 1e-9) hi++;
+  return tied[Math.floor((lo + hi) / 2)]!;
 }
 
 function best(
@@ -180,6 +207,7 @@ export function sweep(
         `${highestPrecision.linkPrecision.toFixed(3)} (threshold ${highestPrecision.threshold.toFixed(2)}, ` +
         `margin ${highestPrecision.minMargin})`;
   }
+  if (chosen !== null) chosen = centreOfPlateau(grid, chosen);
   const curveMargin = (chosen ?? highestPrecision).minMargin;
   const curve = grid.filter((p) => p.minMargin === curveMargin);
   return message === undefined

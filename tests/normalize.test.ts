@@ -1,0 +1,261 @@
+/**
+ * Name normalization per class (persons, organizations, places), OCR folding, acronym and initials
+ * keys, and the label map from NER labels to entity classes. Names are invented.
+ */
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { foldLabel, LabelMap, readLabelMapFile } from "../src/labels/label-map.js";
+import { normalizeName, readAcronym } from "../src/normalize/name.js";
+import { ocrFold } from "../src/normalize/ocr.js";
+import { throwsInput } from "./helpers/errors.js";
+import { tempDir, writeText } from "./helpers/gazette.js";
+
+describe("normalizeName: persons", () => {
+  it("drops honorifics and ranks before the name", () => {
+    const n = normalizeName("Capt. J. H. Aldous", "person");
+    expect(n.tokens).toEqual(["j", "h", "aldous"]);
+    expect(n.key).toBe("j h aldous");
+    expect(normalizeName("Mr. Tobias Pell", "person").key).toBe("tobias pell");
+    expect(normalizeName("Rev. Dr. Ezra Marsh", "person").key).toBe("ezra marsh");
+  });
+
+  it("keeps a lone honorific-like word when nothing else is left", () => {
+    // "Major" alone is a surname, not a rank followed by nothing.
+    expect(normalizeName("Major", "person").tokens).toEqual(["major"]);
+  });
+
+  it('reorders "Last, First" into first-name order', () => {
+    expect(normalizeName("Aldous, J. H.", "person").key).toBe("j h aldous");
+    expect(normalizeName("Aldous, Josiah Hale", "person").key).toBe(
+      normalizeName("Josiah Hale Aldous", "person").key,
+    );
+  });
+
+  it('splits off a generational suffix, also after a comma ("Pell, Sr.")', () => {
+    const jr = normalizeName("Josiah Pell Jr.", "person");
+    expect(jr.key).toBe("josiah pell");
+    expect(jr.suffix).toBe("jr");
+    expect(jr.full).toBe("josiah pell jr");
+    expect(normalizeName("Josiah Pell Junior", "person").suffix).toBe("jr");
+    const sr = normalizeName("Pell, Sr.", "person");
+    expect(sr.key).toBe("pell");
+    expect(sr.suffix).toBe("sr");
+    // The suffix keeps father and son apart in the full form, though the keys are equal.
+    expect(normalizeName("Josiah Pell Sr.", "person").full).not.toBe(jr.full);
+    expect(normalizeName("Josiah Pell", "person").suffix).toBeNull();
+  });
+
+  it("expands clerks' abbreviations of given names", () => {
+    expect(normalizeName("Jno. Pell", "person").key).toBe("john pell");
+    expect(normalizeName("Wm. Aldous", "person").key).toBe("william aldous");
+    expect(normalizeName("Thos. Vole", "person").key).toBe("thomas vole");
+  });
+
+  it("folds diacritics and case", () => {
+    const n = normalizeName("Bérénice Ñuñez", "person");
+    expect(n.key).toBe("berenice nunez");
+    expect(n.key).toBe(normalizeName("BERENICE NUNEZ", "person").key);
+    expect(normalizeName("Ærnst Strøm", "person").key).toBe("aernst strom");
+  });
+
+  it("builds an initials key from the first initial and the surname", () => {
+    expect(normalizeName("Josiah Hale Aldous", "person").initialsKey).toBe("j aldous");
+    expect(normalizeName("J. H. Aldous", "person").initialsKey).toBe("j aldous");
+    expect(normalizeName("Aldous", "person").initialsKey).toBeNull();
+    expect(normalizeName("Carrow Lime Works", "organization").initialsKey).toBeNull();
+  });
+});
+
+describe("normalizeName: organizations and places", () => {
+  it("removes legal forms from the key and spells them one way in the full form", () => {
+    const a = normalizeName("Pell & Sons Ltd.", "organization");
+    const b = normalizeName("Pell and Sons Limited", "organization");
+    expect(a.key).toBe("pell");
+    expect(b.key).toBe("pell");
+    expect(a.full).toBe(b.full);
+    expect(a.full).toContain("ltd");
+    expect(normalizeName("Stenmouth Packet Company", "organization").key).toBe(
+      normalizeName("Stenmouth Packet Co.", "organization").key,
+    );
+  });
+
+  it("does not strip a legal-form word that heads the name", () => {
+    expect(normalizeName("Company of Watermen", "organization").tokens[0]).toBe("company");
+  });
+
+  it("expands place-name abbreviations", () => {
+    expect(normalizeName("St. Wenna", "location").key).toBe("saint wenna");
+    expect(normalizeName("Ft. Carrow", "location").key).toBe("fort carrow");
+    expect(normalizeName("Pt. Ellery", "location").key).toBe("port ellery");
+    expect(normalizeName("Mt. Sorrel", "location").key).toBe("mount sorrel");
+    // Organizations named after a place get the same expansion.
+    expect(normalizeName("St. Wenna Mills", "organization").key).toBe("saint wenna mills");
+  });
+
+  it("leaves place abbreviations alone for persons", () => {
+    // "St." in a person's name is not a place ("Josiah St. Aldous" keeps "st").
+    expect(normalizeName("Josiah St. Aldous", "person").tokens).toContain("st");
+  });
+});
+
+describe("OCR folding", () => {
+  const ocr = (s: string, cls: "person" | "location" = "location") => normalizeName(s, cls).ocrKey;
+
+  it("folds the usual letterpress misreadings together (rn/m, cl/d, 1/l, 0/o, 5/s, vv/w)", () => {
+    expect(ocr("Stenrnouth")).toBe(ocr("Stenmouth")); // rn -> m
+    expect(ocr("Clunmere")).toBe(ocr("Dunmere")); // cl -> d
+    expect(ocr("Ha1e", "person")).toBe(ocr("Hale", "person")); // 1 -> l
+    expect(ocr("P0rt Ellery")).toBe(ocr("Port Ellery")); // 0 -> o
+    expect(ocr("5tenmoor")).toBe(ocr("Stenmoor")); // 5 -> s
+    expect(ocr("Vvenna")).toBe(ocr("Wenna")); // vv -> w
+    expect(ocr("Stenmouth")).toBe("stenmouth");
+  });
+
+  it("ignores spaces (OCR splits and joins words)", () => {
+    expect(ocr("Sten mouth")).toBe(ocr("Stenmouth"));
+  });
+
+  it("keeps different names apart", () => {
+    expect(ocr("Stenmouth")).not.toBe(ocr("Stenmoor"));
+    expect(ocr("Fort Carrow")).not.toBe(ocr("Port Carrow"));
+    // "rri" read as "m" is not one of the folded confusions: these two stay apart.
+    expect(ocrFold("harrington")).not.toBe(ocrFold("hamngton"));
+  });
+});
+
+describe("acronyms", () => {
+  it('reads "S.G.E.", "S. G. E." and "SGE" as the same acronym', () => {
+    expect(normalizeName("S.G.E.", "organization").acronym).toBe("sge");
+    expect(normalizeName("S. G. E.", "organization").acronym).toBe("sge");
+    expect(normalizeName("SGE", "organization").acronym).toBe("sge");
+  });
+
+  it("does not read an ordinary word, a single initial or a long capital run as an acronym", () => {
+    expect(normalizeName("Grain", "organization").acronym).toBeNull();
+    expect(readAcronym("A.")).toBeNull();
+    expect(readAcronym("STENMOUTH")).toBeNull(); // 9 capitals: a headline, not an acronym
+  });
+
+  it("forms the acronym key of a multi-word organization or place, skipping joiner words", () => {
+    expect(normalizeName("Stenmouth Grain Exchange", "organization").acronymKey).toBe("sge");
+    expect(normalizeName("Bank of the Sten", "organization").acronymKey).toBe("bs");
+    expect(normalizeName("Stenmouth", "location").acronymKey).toBeNull();
+    expect(normalizeName("Josiah Hale Aldous", "person").acronymKey).toBeNull();
+  });
+});
+
+describe("LabelMap", () => {
+  it("maps CoNLL-2003 labels (PER, ORG, LOC, MISC) to classes, BIO prefixes ignored", () => {
+    // CoNLL-2003 label set (from memory).
+    const m = new LabelMap();
+    expect(m.forMention("PER").cls).toBe("person");
+    expect(m.forMention("ORG").cls).toBe("organization");
+    expect(m.forMention("LOC").cls).toBe("location");
+    expect(m.forMention("MISC").cls).toBe("other");
+    expect(m.forMention("B-PER").cls).toBe("person");
+    expect(m.forMention("I-ORG").cls).toBe("organization");
+    expect(foldLabel(" B-Work of Art ")).toBe("work_of_art");
+  });
+
+  it("maps OntoNotes labels (PERSON, GPE, FAC, NORP...) to classes", () => {
+    // OntoNotes 5 label set (from memory).
+    const m = new LabelMap();
+    expect(m.forMention("PERSON").cls).toBe("person");
+    expect(m.forMention("GPE").cls).toBe("location");
+    expect(m.forMention("FAC").cls).toBe("location");
+    expect(m.forMention("WORK_OF_ART").cls).toBe("other");
+    expect(m.forMention("GPE").compat.organization).toBeGreaterThan(0);
+    expect(m.forMention("PER").compat.person).toBe(1);
+  });
+
+  it("marks DATE, MONEY and the other value labels as not linkable, and counts them", () => {
+    const m = new LabelMap();
+    for (const label of ["DATE", "MONEY", "TIME", "PERCENT", "QUANTITY", "ORDINAL", "CARDINAL"]) {
+      expect(m.forMention(label).linkable, label).toBe(false);
+    }
+    expect(m.forMention("PER").linkable).toBe(true);
+    m.forMention("DATE");
+    expect(m.skipped.get("DATE")).toBe(2);
+    expect(m.warnings().some((w) => w.includes('"DATE"') && w.includes("not linkable"))).toBe(true);
+  });
+
+  it("counts and warns about unknown labels, treating them as neutral", () => {
+    const m = new LabelMap();
+    const info = m.forMention("SHIPNAME");
+    expect(info.linkable).toBe(true);
+    expect(new Set(Object.values(info.compat)).size).toBe(1); // the same weight for every class
+    m.forMention("SHIPNAME");
+    m.forMention("TUGBOAT");
+    expect(m.unknown.get("SHIPNAME")).toBe(2);
+    expect(m.unknown.get("TUGBOAT")).toBe(1);
+    const w = m.warnings();
+    expect(w.some((s) => s.includes('"SHIPNAME"') && s.includes("2 mention"))).toBe(true);
+    // No label at all is not an unknown label.
+    m.forMention(undefined);
+    m.forMention("");
+    expect(m.unknown.size).toBe(2);
+  });
+
+  it("knows the common table type spellings", () => {
+    const m = new LabelMap();
+    expect(m.classOfTableType("firm")).toBe("organization");
+    expect(m.classOfTableType("Town")).toBe("location");
+    expect(m.classOfTableType("vessel")).toBe("other");
+    expect(m.knowsTableType("sluice")).toBe(false);
+    expect(m.classOfTableType("sluice")).toBe("other");
+  });
+});
+
+describe("readLabelMapFile", () => {
+  let t: ReturnType<typeof tempDir>;
+  beforeEach(() => {
+    t = tempDir("hawser-labels-");
+  });
+  afterEach(() => t.cleanup());
+
+  it("adds and overrides labels, short and long form, with compat overrides", () => {
+    const file = writeText(
+      t.file("labels.json"),
+      JSON.stringify({
+        SHIP: "other",
+        PER: { class: "organization" },
+        HARBOUR: { class: "location", compat: { organization: 0.9 } },
+        TONNAGE: { class: "other", linkable: false },
+      }),
+    );
+    const m = readLabelMapFile(file);
+    expect(m.forMention("SHIP").cls).toBe("other");
+    expect(m.forMention("PER").cls).toBe("organization");
+    expect(m.forMention("HARBOUR").compat.organization).toBe(0.9);
+    expect(m.forMention("HARBOUR").compat.location).toBe(1); // the rest from the class's built-in row
+    expect(m.forMention("TONNAGE").linkable).toBe(false);
+    // Built-in labels not overridden are still there.
+    expect(m.forMention("GPE").cls).toBe("location");
+    expect(m.unknown.size).toBe(0);
+  });
+
+  it("rejects bad files, naming the file and the field", () => {
+    const bad = (name: string, text: string) => writeText(t.file(name), text);
+    const notJson = bad("a.json", "{ SHIP: other }");
+    const e1 = throwsInput(() => readLabelMapFile(notJson));
+    expect(e1.file).toBe(notJson);
+    expect(e1.message).toContain(notJson);
+
+    const arr = bad("b.json", '["PER"]');
+    expect(throwsInput(() => readLabelMapFile(arr)).file).toBe(arr);
+
+    const cases: Array<[string, string]> = [
+      ['{"SHIP": {"class": "boat"}}', "SHIP.class"],
+      ['{"SHIP": 3}', "SHIP"],
+      ['{"SHIP": {"class": "other", "compat": {"person": 2}}}', "SHIP.compat.person"],
+      ['{"SHIP": {"class": "other", "compat": {"barge": 0.5}}}', "SHIP.compat.barge"],
+      ['{"SHIP": {"class": "other", "compat": 0.5}}', "SHIP.compat"],
+    ];
+    for (const [text, field] of cases) {
+      const file = bad("c.json", text);
+      const e = throwsInput(() => readLabelMapFile(file));
+      expect(e.file, text).toBe(file);
+      expect(e.field, text).toBe(field);
+      expect(e.message).toContain(`"${field}"`);
+    }
+  });
+});
