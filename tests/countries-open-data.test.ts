@@ -18,8 +18,14 @@ import { foldText } from "../src/normalize/fold.js";
 import type { LinkRow } from "../src/types.js";
 
 const require = createRequire(import.meta.url);
-const iso = require("i18n-iso-countries") as { getNames(lang: string, o: { select: "all" }): Record<string, string[]> };
-const world = require("world-countries") as Array<{ cca2: string; area: number; name: { common: string; official: string } }>;
+const iso = require("i18n-iso-countries") as {
+  getNames(lang: string, o: { select: "all" }): Record<string, string[]>;
+};
+const world = require("world-countries") as Array<{
+  cca2: string;
+  area: number;
+  name: { common: string; official: string };
+}>;
 
 const q = (s: string) => `"${s.replace(/"/g, '""')}"`;
 
@@ -30,13 +36,14 @@ interface Outcome {
   baseline: string | null;
 }
 
-let outcomes: Outcome[] = [];
+const outcomes: Outcome[] = [];
 
 beforeAll(async () => {
   const dir = mkdtempSync(join(tmpdir(), "hawser-countries-"));
   const table = join(dir, "countries.csv");
   const lines = ["id,name,type,aliases,prior"];
-  for (const c of world) lines.push([c.cca2, q(c.name.common), "country", q(c.name.official), Math.max(0, c.area)].join(","));
+  for (const c of world)
+    lines.push([c.cca2, q(c.name.common), "country", q(c.name.official), Math.max(0, c.area)].join(","));
   writeFileSync(table, `${lines.join("\n")}\n`);
   await buildKb({ table, out: join(dir, "countries.kb") });
   const kb = openKb(join(dir, "countries.kb"));
@@ -52,7 +59,12 @@ beforeAll(async () => {
   for (const [code, names] of Object.entries(iso.getNames("en", { select: "all" }))) {
     for (const text of names) {
       i++;
-      outcomes.push({ text, gold: code, row: linker.link({ id: `c${i}`, text, type: "GPE" }), baseline: exact.get(foldText(text)) ?? null });
+      outcomes.push({
+        text,
+        gold: code,
+        row: linker.link({ id: `c${i}`, text, type: "GPE" }),
+        baseline: exact.get(foldText(text)) ?? null,
+      });
     }
   }
   kb.close();
@@ -64,7 +76,9 @@ describe("linking i18n-iso-countries names to a world-countries table", () => {
     const ours = outcomes.filter((o) => o.row.entity === o.gold).length / n;
     const base = outcomes.filter((o) => o.baseline === o.gold).length / n;
     const wrong = outcomes.filter((o) => o.row.entity !== null && o.row.entity !== o.gold).length / n;
-    console.log(`countries: ${n} names, hawser accuracy ${(100 * ours).toFixed(1)}%, folded-exact baseline ${(100 * base).toFixed(1)}%, wrong links ${(100 * wrong).toFixed(1)}%`);
+    console.log(
+      `countries: ${n} names, hawser accuracy ${(100 * ours).toFixed(1)}%, folded-exact baseline ${(100 * base).toFixed(1)}%, wrong links ${(100 * wrong).toFixed(1)}%`,
+    );
     expect(n).toBeGreaterThan(250);
     expect(ours).toBeGreaterThan(base + 0.04);
     expect(wrong).toBeLessThan(0.02);

@@ -27,7 +27,11 @@ export interface DocumentEvidenceOptions {
   acronyms: boolean;
 }
 
-export const DEFAULT_DOCUMENT_EVIDENCE: DocumentEvidenceOptions = { sameText: true, shortForm: true, acronyms: true };
+export const DEFAULT_DOCUMENT_EVIDENCE: DocumentEvidenceOptions = {
+  sameText: true,
+  shortForm: true,
+  acronyms: true,
+};
 
 /**
  * How much a mention's own best candidate must beat the document's choice to keep its own
@@ -130,7 +134,8 @@ export function documentEvidence(
     // Definitions are recorded after this mention is resolved, so later uses can rely on them.
     const resolved = current(i);
     if (options.acronyms && resolved !== null) {
-      for (const acr of definedAcronyms(item)) acronyms.set(acr, { entity: resolved.entity, index: i, text: item.mention.text });
+      for (const acr of definedAcronyms(item))
+        acronyms.set(acr, { entity: resolved.entity, index: i, text: item.mention.text });
     }
   }
   return out;

@@ -39,7 +39,7 @@ import {
   type DocumentEvidenceOptions,
   documentEvidence,
 } from "../document/evidence.js";
-import { type Decision } from "../decide/decide.js";
+import type { Decision } from "../decide/decide.js";
 import { decisionReason, evidenceReasons, sharedTerms } from "./explain.js";
 
 export interface LinkerOptions {
@@ -294,7 +294,10 @@ export class Linker {
     let doc: string | undefined;
     let batch: Mention[] = [];
     for await (const m of mentions) {
-      if (batch.length > 0 && (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)) {
+      if (
+        batch.length > 0 &&
+        (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)
+      ) {
         yield* this.linkDocument(batch);
         batch = [];
       }
@@ -385,7 +388,11 @@ export class Linker {
   }
 
   /** A row whose decision document-level evidence made: the document reason first, then the evidence. */
-  private overrideRow(a: Analysis, o: DocOverride, base: Omit<LinkRow, "entity" | "name" | "score" | "margin" | "reasons" | "candidates">): LinkRow {
+  private overrideRow(
+    a: Analysis,
+    o: DocOverride,
+    base: Omit<LinkRow, "entity" | "name" | "score" | "margin" | "reasons" | "candidates">,
+  ): LinkRow {
     const chosen = o.chosen;
     const m = a.p.mention;
     const others = a.scored.filter((s) => s.entity.eid !== chosen.entity.eid);
@@ -412,7 +419,9 @@ export class Linker {
         score: r4(runner.score),
       });
     }
-    const listed = a.scored.some((s) => s.entity.eid === chosen.entity.eid) ? a.scored : [chosen, ...a.scored];
+    const listed = a.scored.some((s) => s.entity.eid === chosen.entity.eid)
+      ? a.scored
+      : [chosen, ...a.scored];
     return {
       ...base,
       entity: chosen.entity.id,
