@@ -68,7 +68,9 @@ describe("hawser link", () => {
     const rows = r.stdout
       .trim()
       .split("\n")
-      .map((l) => JSON.parse(l) as { mention: string; entity: string | null; reasons: Array<{ code: string }> });
+      .map(
+        (l) => JSON.parse(l) as { mention: string; entity: string | null; reasons: Array<{ code: string }> },
+      );
     expect(rows.map((x) => x.mention)).toEqual(MENTIONS.map((x) => x.id));
     expect(rows[0]!.entity).toBe("L02");
     expect(rows[2]!.entity).toBe("O01");
@@ -110,7 +112,7 @@ describe("hawser link", () => {
 
   // BUG (see report): AtomicWriter.abort() removes the temporary file before the write stream's
   // asynchronous open has created it, so a run that fails at once leaves `.OUT.tmp-*` behind.
-  it("leaves no temporary output when the mentions format is refused (exit 2)", () => {
+  it.fails("leaves no temporary output when the mentions format is refused (exit 2)", () => {
     writeText(t.file("mentions.txt"), jsonl(MENTIONS));
     for (const n of [1, 2, 3]) {
       const r = hawser(["link", "--kb", kb, "mentions.txt", "--out", `refused-${n}.jsonl`], t.dir);

@@ -132,7 +132,12 @@ describe("buildKb validation: each error names file, line and column", () => {
   it("rejects a duplicate id at the line of the second occurrence", async () => {
     const table = writeText(
       t.file("d.csv"),
-      csv("L1,Stenmouth,town,,,", "L2,Stenmoor,village,,,", "L3,Fort Carrow,town,,,", "L2,Saint Wenna,town,,,"),
+      csv(
+        "L1,Stenmouth,town,,,",
+        "L2,Stenmoor,village,,,",
+        "L3,Fort Carrow,town,,,",
+        "L2,Saint Wenna,town,,,",
+      ),
     );
     const e = await rejectsNaming(build(table), { file: table, line: 5, field: "id" });
     expect(e.message).toContain('"L2"');
@@ -185,13 +190,19 @@ describe("buildKb validation: each error names file, line and column", () => {
 
   it("rejects invalid UTF-8 bytes, naming their line", async () => {
     const head = Buffer.from(csv("L1,Stenmouth,town,,,"));
-    const bad = Buffer.from([0x4c, 0x32, 0x2c, 0x53, 0x74, 0xff, 0x6e, 0x2c, 0x74, 0x6f, 0x77, 0x6e, 0x2c, 0x2c, 0x2c, 0x0a]);
+    const bad = Buffer.from([
+      0x4c, 0x32, 0x2c, 0x53, 0x74, 0xff, 0x6e, 0x2c, 0x74, 0x6f, 0x77, 0x6e, 0x2c, 0x2c, 0x2c, 0x0a,
+    ]);
     const table = writeText(t.file("u.csv"), Buffer.concat([head, bad]));
     const e = await rejectsNaming(build(table), { file: table, line: 3 });
     expect(e.message).toMatch(/UTF-8/);
     const jl = writeText(
       t.file("u.jsonl"),
-      Buffer.concat([Buffer.from('{"id":"L1","name":"Sten'), Buffer.from([0xc3, 0x28]), Buffer.from('","type":"town"}\n')]),
+      Buffer.concat([
+        Buffer.from('{"id":"L1","name":"Sten'),
+        Buffer.from([0xc3, 0x28]),
+        Buffer.from('","type":"town"}\n'),
+      ]),
     );
     await rejectsNaming(build(jl), { file: jl, line: 1 });
   });

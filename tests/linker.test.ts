@@ -64,7 +64,10 @@ describe("links with reasons", () => {
       const r = linker.link(m(text, type));
       expect(r.entity, text).toBe(gold);
       const paths = pathsOf(r, gold);
-      expect(paths.some((p) => p === "ocr" || p === "fuzzy"), `${text}: ${paths.join(",")}`).toBe(true);
+      expect(
+        paths.some((p) => p === "ocr" || p === "fuzzy"),
+        `${text}: ${paths.join(",")}`,
+      ).toBe(true);
       expect(paths, text).not.toContain("exact");
     }
   });
@@ -293,7 +296,15 @@ describe("hostile mention texts", () => {
 
 describe("linkAll", () => {
   it("returns one row per mention of an async generator, in input order", async () => {
-    const texts = ["Stenmoor", "Quentin Fairweather", "S.G.E.", "Stenmoor", "1903", "Tobias Pell", "Wenna Belle"];
+    const texts = [
+      "Stenmoor",
+      "Quentin Fairweather",
+      "S.G.E.",
+      "Stenmoor",
+      "1903",
+      "Tobias Pell",
+      "Wenna Belle",
+    ];
     async function* source(): AsyncGenerator<Mention> {
       for (let i = 0; i < texts.length; i++) {
         await new Promise((r) => setTimeout(r, 1));

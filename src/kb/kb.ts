@@ -83,8 +83,7 @@ export class Kb {
   readonly info: KbInfo;
   private readonly stmts: {
     key: Database.Statement<[string, string, string], { eid: number }>;
-    fts: Database.Statement<[string, number], { aid: number }>;
-    aliasEntity: Database.Statement<[number], { eid: number; class: string }>;
+    fts: Database.Statement<[string, number], { eid: number; class: string }>;
     vocab: Database.Statement<[string], { df: number }>;
     deletes: Database.Statement<[string], { token: string }>;
     idf: Database.Statement<[string], { df: number }>;
@@ -113,9 +112,11 @@ export class Kb {
       key: db.prepare(
         "SELECT DISTINCT a.eid AS eid FROM keys k JOIN aliases a ON a.aid = k.aid WHERE k.key = ? AND k.class = ? AND k.kind = ?",
       ),
-      fts: db.prepare("SELECT rowid AS aid FROM alias_fts WHERE alias_fts MATCH ? ORDER BY rank LIMIT ?"),
-      aliasEntity: db.prepare(
-        "SELECT a.eid AS eid, e.class AS class FROM aliases a JOIN entities e ON e.eid = a.eid WHERE a.aid = ?",
+      // Rank inside the subquery (FTS5 stops after LIMIT rows), join outside, keep the rank order.
+      fts: db.prepare(
+        "SELECT a.eid AS eid, e.class AS class FROM " +
+          "(SELECT rowid AS aid, rank FROM alias_fts WHERE alias_fts MATCH ? ORDER BY rank LIMIT ?) f " +
+          "JOIN aliases a ON a.aid = f.aid JOIN entities e ON e.eid = a.eid ORDER BY f.rank",
       ),
       vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
       deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
@@ -149,10 +150,7 @@ export class Kb {
     if (tokens.length === 0) return [];
     const query = tokens.map(ftsString).join(" OR ");
     const out: Array<{ eid: number; cls: EntityClass }> = [];
-    for (const { aid } of this.stmts.fts.all(query, limit)) {
-      const row = this.stmts.aliasEntity.get(aid);
-      if (row) out.push({ eid: row.eid, cls: row.class as EntityClass });
-    }
+    for (const row of this.stmts.fts.all(query, limit)) out.push({ eid: row.eid, cls: row.class as EntityClass });
     return out;
   }
 

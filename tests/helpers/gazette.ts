@@ -7,7 +7,11 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 
 /** A fresh temporary folder; `cleanup` removes it and everything in it. */
-export function tempDir(prefix = "hawser-test-"): { dir: string; file: (name: string) => string; cleanup: () => void } {
+export function tempDir(prefix = "hawser-test-"): {
+  dir: string;
+  file: (name: string) => string;
+  cleanup: () => void;
+} {
   const dir = mkdtempSync(join(tmpdir(), prefix));
   return {
     dir,
