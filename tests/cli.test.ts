@@ -110,9 +110,9 @@ describe("hawser link", () => {
     expect(filesLike("broken-links")).toEqual([]);
   });
 
-  // BUG (see report): AtomicWriter.abort() removes the temporary file before the write stream's
-  // asynchronous open has created it, so a run that fails at once leaves `.OUT.tmp-*` behind.
-  it.fails("leaves no temporary output when the mentions format is refused (exit 2)", () => {
+  // The temporary output is opened synchronously and the input format is checked before it, so a
+  // run refused at once leaves nothing behind.
+  it("leaves no temporary output when the mentions format is refused (exit 2)", () => {
     writeText(t.file("mentions.txt"), jsonl(MENTIONS));
     for (const n of [1, 2, 3]) {
       const r = hawser(["link", "--kb", kb, "mentions.txt", "--out", `refused-${n}.jsonl`], t.dir);

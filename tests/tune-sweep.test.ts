@@ -35,7 +35,7 @@ describe("sweep", () => {
   it("sweeps the documented grid", () => {
     expect(THRESHOLD_GRID).toHaveLength(101);
     expect(THRESHOLD_GRID[37]).toBe(0.37);
-    expect(MARGIN_GRID).toEqual([0, 0.01, 0.02, 0.05, 0.1, 0.15, 0.2]);
+    expect(MARGIN_GRID).toEqual([0, 0.1, 0.25, 0.5, 0.75, 1, 1.5, 2, 3]);
     const r = sweep(data, PRIOR_ONLY);
     expect(r.grid).toHaveLength(101 * MARGIN_GRID.length);
     expect(r.curve).toHaveLength(101);
@@ -49,8 +49,8 @@ describe("sweep", () => {
     expect([p.predictedLinks, p.correctLinks, p.goldLinks]).toEqual([3, 2, 3]);
     expect(p.linkPrecision).toBeCloseTo(2 / 3, 12);
     expect(p.accuracy).toBeCloseTo(3 / 4, 12);
-    // margin 0.1 makes b ambiguous (0.6 - 0.55 = 0.05)
-    const q = measurePoint(sets, 0.5, 0.1);
+    // margins are in log-odds: margin 0.25 makes b ambiguous (logit 0.6 - logit 0.55 = 0.205)
+    const q = measurePoint(sets, 0.5, 0.25);
     expect([q.predictedLinks, q.correctLinks]).toEqual([2, 1]);
     // threshold 0.8: only a
     const s = measurePoint(sets, 0.8, 0);
@@ -68,11 +68,14 @@ describe("sweep", () => {
 
   it("chooses by recall at a minimum precision, or says none reaches it", () => {
     const r = sweep(data, PRIOR_ONLY, { objective: "recall-at-precision", minPrecision: 0.9 });
-    // precision >= 0.9 needs c's false link gone: threshold in (0.7, 0.9] links only a
+    // precision >= 0.9 needs c's false link gone. At margin 0 that takes a threshold in (0.7, 0.9];
+    // at margin 3 (log-odds: a's gap is 3.04, c's 2.23, b's 0.2) any threshold in (0.4, 0.9] links
+    // only a. Ties go to the lower threshold, so margin 3 wins, and the threshold moves to the
+    // middle of its plateau 0.41..0.90.
     expect(r.chosen!.linkPrecision).toBe(1);
     expect(r.chosen!.linkRecall).toBeCloseTo(1 / 3, 12);
-    // the middle of the tied plateau that starts at 0.71
-    expect(r.chosen!.threshold).toBe(0.8);
+    expect(r.chosen!.minMargin).toBe(3);
+    expect(r.chosen!.threshold).toBe(0.65);
     const none = sweep([data[2]!], PRIOR_ONLY, { objective: "recall-at-precision", minPrecision: 0.5 });
     expect(none.chosen).toBeNull();
     expect(none.message).toMatch(/no operating point reaches link precision 0\.5/);

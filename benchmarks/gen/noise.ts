@@ -175,7 +175,7 @@ const CONTEXT_TOPICS_MAX = 4;
 const CONTEXT_DISTRACTORS_MIN = 3;
 const CONTEXT_DISTRACTORS_MAX = 7;
 /** Chance that a context also carries a topic word of some other entity (a misleading cue). */
-const CROSS_TALK_SHARE = 0.5;
+const MISLEADING_CUE_SHARE = 0.5;
 
 /** The words printed around the mention: some of its topics, distractors, maybe a false cue. */
 export function mentionContext(entity: GenEntity, rng: Rng): string {
@@ -183,6 +183,6 @@ export function mentionContext(entity: GenEntity, rng: Rng): string {
   const words = [...topics];
   const distractors = rng.between(CONTEXT_DISTRACTORS_MIN, CONTEXT_DISTRACTORS_MAX);
   for (let i = 0; i < distractors; i++) words.push(rng.pick(DISTRACTORS));
-  if (rng.chance(CROSS_TALK_SHARE)) words.push(rng.pick(rng.pick([CARGOES, RIVERS, ROLES])));
+  if (rng.chance(MISLEADING_CUE_SHARE)) words.push(rng.pick(rng.pick([CARGOES, RIVERS, ROLES])));
   return rng.shuffled(words).join(" ");
 }

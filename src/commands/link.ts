@@ -3,7 +3,7 @@ import { openKb } from "../kb/kb.js";
 import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
 import { type LinkerOptions, createLinker } from "../link/linker.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
-import { type ReadMentionsOptions, readMentions } from "../read/index.js";
+import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
 import { readConfig } from "../tune/config.js";
 import type { CandidatePath, LinkRow } from "../types.js";
 import { AtomicWriter } from "../util/atomic-file.js";
@@ -107,6 +107,7 @@ export function outputFormat(out: string | undefined, to: string | undefined): O
 export async function link(options: LinkOptions): Promise<LinkSummary> {
   const started = Date.now();
   const format = outputFormat(options.out, options.to);
+  resolveFormat(options.mentions, readerOptions(options)); // usage errors before any file is opened
   const kb = openKb(options.kb);
   const warnings: string[] = [];
   const warn = options.warn ?? ((m: string) => process.stderr.write(`hawser: warning: ${m}\n`));

@@ -6,10 +6,28 @@
 /** Default decision threshold on the combined score (a score is a probability-like value, so 0.5). */
 export const DEFAULT_THRESHOLD = 0.5;
 /**
- * Default minimum margin between the best and the runner-up score. Small on purpose: candidates
- * that differ by less than this are indistinguishable on the evidence and the mention is ambiguous.
+ * The margin is measured in log-odds: logit(best score) - logit(runner-up score). Scores are
+ * sigmoids of a sum of evidence, so two strong candidates both sit near 1 (0.997 vs 0.9995) and
+ * a difference of scores would call every pair of look-alikes ambiguous however clearly the
+ * context separates them; the log-odds difference is exactly the evidence that separates them.
+ *
+ * Default minimum margin: 0.5 log-odds (the winner at least 1.65 times as likely in odds).
+ * Two candidates with the same name and no telling context differ only by their priors, far
+ * less than this, and the mention is ambiguous.
  */
-export const DEFAULT_MIN_MARGIN = 0.05;
+export const DEFAULT_MIN_MARGIN = 0.5;
+
+/** Largest margin reported: a lone candidate, or a runner-up e^10 (about 22,000) times less likely. */
+export const MARGIN_CAP = 10;
+
+/** Scores are clamped this far from 0 and 1 before taking log-odds, so a rounded 1.0 stays finite. */
+const LOGIT_EPSILON = 1e-12;
+
+/** ln(p / (1 - p)) of a score clamped into (0, 1). */
+export function logOdds(p: number): number {
+  const q = Math.min(1 - LOGIT_EPSILON, Math.max(LOGIT_EPSILON, p));
+  return Math.log(q / (1 - q));
+}
 
 export type DecisionOutcome = "link" | "no-candidates" | "below-threshold" | "ambiguous";
 
@@ -20,7 +38,7 @@ export interface Decision {
   /** Index of the best candidate (even when NIL), or -1 when there are none. */
   best: number;
   bestScore: number;
-  /** Best score minus runner-up score (the best score itself when there is a single candidate). */
+  /** logOdds(best) - logOdds(runner-up), capped at MARGIN_CAP (MARGIN_CAP for a single candidate). */
   margin: number;
 }
 
@@ -40,7 +58,7 @@ export function decide(scores: readonly number[], threshold: number, minMargin: 
     }
   }
   if (best < 0) return { outcome: "no-candidates", chosen: -1, best: -1, bestScore: 0, margin: 0 };
-  const margin = bestScore - second;
+  const margin = scores.length < 2 ? MARGIN_CAP : Math.min(MARGIN_CAP, logOdds(bestScore) - logOdds(second));
   if (bestScore < threshold) return { outcome: "below-threshold", chosen: -1, best, bestScore, margin };
   if (margin < minMargin) return { outcome: "ambiguous", chosen: -1, best, bestScore, margin };
   return { outcome: "link", chosen: best, best, bestScore, margin };

@@ -13,6 +13,7 @@
  * (c) `doc-acronym`: an acronym defined in the document ("Stenning Grain Exchange (S.G.E.)")
  *     resolves later uses of it to the entity of the defining mention.
  */
+import { logOdds, MARGIN_CAP } from "../decide/decide.js";
 import type { EntityRow } from "../kb/kb.js";
 import type { ScoredCandidate } from "../link/linker.js";
 import { acronymOfTokens, readAcronym } from "../normalize/name.js";
@@ -169,7 +170,8 @@ function sameText(
     const best = ranked[0];
     if (best === undefined) continue;
     const mean = best.sum / members.length;
-    const margin = mean - (ranked[1] ? ranked[1].sum / members.length : 0);
+    // Margin in log-odds, as for single mentions (src/decide/decide.ts).
+    const margin = ranked[1] ? logOdds(mean) - logOdds(ranked[1].sum / members.length) : MARGIN_CAP;
     if (mean < decision.threshold || margin < decision.minMargin) continue;
     for (const i of members) {
       const item = items[i]!;

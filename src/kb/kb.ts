@@ -147,10 +147,13 @@ export class Kb {
    * text never reaches the FTS5 query parser as syntax.
    */
   searchAliases(tokens: readonly string[], limit: number): Array<{ eid: number; cls: EntityClass }> {
-    if (tokens.length === 0) return [];
-    const query = tokens.map(ftsString).join(" OR ");
+    // A token with an inner separator would be an FTS5 phrase; split it into its words first.
+    const words = tokens.flatMap((t) => t.split(/[^\p{L}\p{N}]+/u)).filter((w) => w.length > 0);
+    if (words.length === 0) return [];
+    const query = words.map(ftsString).join(" OR ");
     const out: Array<{ eid: number; cls: EntityClass }> = [];
-    for (const row of this.stmts.fts.all(query, limit)) out.push({ eid: row.eid, cls: row.class as EntityClass });
+    for (const row of this.stmts.fts.all(query, limit))
+      out.push({ eid: row.eid, cls: row.class as EntityClass });
     return out;
   }
 

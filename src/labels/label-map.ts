@@ -131,7 +131,10 @@ export function readLabelMapFile(file: string): LabelMap {
         compat[c as EntityClass] = w;
       }
     }
-    const linkable = s.linkable === undefined ? true : s.linkable === true;
+    if (s.linkable !== undefined && typeof s.linkable !== "boolean") {
+      throw new InputError({ file, field: `${label}.linkable` }, "linkable must be true or false");
+    }
+    const linkable = s.linkable !== false;
     overrides.set(label, { cls, linkable, compat });
   }
   return new LabelMap(overrides);

@@ -1,7 +1,8 @@
 /**
  * OCR-confusion folding: a second, coarser key under which the usual misreadings of old newsprint
  * collapse together. Both the table's aliases and the mentions are folded the same way, so a
- * mention read as "Hamngton" meets the alias "Harrington" when the exact key misses.
+ * mention read as "Stenrnouth" meets the alias "Stenmouth", or "A1dous" meets "Aldous", when the
+ * exact key misses.
  *
  * The confusion pairs are common practice for OCR of letterpress: rn/m, cl/d, vv/w, li/h,
  * 1/l/i, 0/o, 5/s, 8/b, c/e; doubled letters are also collapsed (a dropped or doubled

@@ -41,6 +41,17 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
   let keyKind: NameMatch["keyKind"] = null;
   const personLike = entity.cls === "person";
   for (const a of entity.aliases) {
+    // "Josiah Pell Jr." against "Josiah Pell Sr.": equal keys, but the suffixes say two people.
+    if (personLike && norm.suffix !== null && suffixOf(a) !== null && suffixOf(a) !== norm.suffix) {
+      const j = jaroWinkler(norm.full, a.full);
+      if (j > jw) {
+        jw = j;
+        bestAlias = a;
+      }
+      lev = Math.max(lev, levenshteinSimilarity(norm.full, a.full));
+      tok = Math.max(tok, tokenOverlap(norm.full.split(" "), a.full.split(" ")));
+      continue;
+    }
     const j = Math.max(
       jaroWinkler(norm.key, a.key),
       norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full),
@@ -93,6 +104,12 @@ export function tokenOverlap(a: readonly string[], b: readonly string[]): number
   const matched = (dice * (a.length + b.length)) / 2;
   const overlap = Math.min(1, matched / Math.min(a.length, b.length));
   return (dice + overlap) / 2;
+}
+
+/** A person alias's generational suffix: the token its full form has beyond its key. */
+function suffixOf(a: AliasRow): string | null {
+  if (a.full === a.key || !a.full.startsWith(a.key)) return null;
+  return a.full.slice(a.key.length).trim() || null;
 }
 
 /** log1p(prior) / log1p(max prior): popularity on a log scale, so a city does not drown a village. */

@@ -22,10 +22,11 @@ export const THRESHOLD_GRID: readonly number[] = Array.from(
 );
 
 /**
- * The swept minimum margins: 0 (no ambiguity check) up to 0.2 (a clear winner), denser near 0
- * where most runner-up gaps of look-alike names fall.
+ * The swept minimum margins, in log-odds (see src/decide/decide.ts): 0 (no ambiguity check) up
+ * to 3 (the winner 20 times as likely in odds), denser below 1 where the gaps between look-alike
+ * names fall.
  */
-export const MARGIN_GRID: readonly number[] = [0, 0.01, 0.02, 0.05, 0.1, 0.15, 0.2];
+export const MARGIN_GRID: readonly number[] = [0, 0.1, 0.25, 0.5, 0.75, 1, 1.5, 2, 3];
 
 /** Two figures closer than this are equal when ranking operating points (float noise). */
 const TIE_EPSILON = 1e-12;

@@ -2,7 +2,7 @@
  * Atomic output: write to a temporary file beside the target, rename over it when complete.
  * A run that fails midway removes the temporary file, so no half-written output is ever left.
  */
-import { createWriteStream, renameSync, rmSync, type WriteStream } from "node:fs";
+import { createWriteStream, openSync, renameSync, rmSync, type WriteStream } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { once } from "node:events";
 
@@ -13,7 +13,9 @@ export class AtomicWriter {
 
   constructor(readonly target: string) {
     this.tmp = join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
-    this.stream = createWriteStream(this.tmp, { encoding: "utf8" });
+    // Opened synchronously: the file exists when the constructor returns, so abort() always finds it.
+    const fd = openSync(this.tmp, "w");
+    this.stream = createWriteStream(this.tmp, { fd, encoding: "utf8" });
   }
 
   /** Write a chunk, waiting when the stream's buffer is full (keeps memory flat). */
