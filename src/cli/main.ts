@@ -15,6 +15,7 @@ import { tune } from "../commands/tune.js";
 import { formatEvalTable } from "../evaluate/format.js";
 import { openKb } from "../kb/kb.js";
 import { ALL_PATHS } from "../candidates/generate.js";
+import { MARGIN_CAP } from "../decide/decide.js";
 import type { CandidatePath } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 
@@ -96,8 +97,13 @@ function linkerOptions(cmd: Command): Command {
     )
     .option(
       "--min-margin <x>",
-      "and beats the runner-up by at least this (default 0.05, or the config's)",
-      unit("--min-margin"),
+      "and beats the runner-up by at least this many log-odds (default 0.5, or the config's)",
+      (v: string) => {
+        const x = Number(v);
+        if (!(x >= 0 && x <= MARGIN_CAP))
+          throw new InvalidArgumentError(`--min-margin must be a number in [0, ${MARGIN_CAP}]`);
+        return x;
+      },
     )
     .option("--top <k>", "candidates listed per row (default 3)", whole("--top", 0))
     .option(

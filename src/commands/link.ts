@@ -25,7 +25,7 @@ export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
   force?: boolean;
   /** Overrides the config's (or the default 0.5) threshold. */
   threshold?: number;
-  /** Overrides the config's (or the default 0.05) minimum margin. */
+  /** Overrides the config's (or the default 0.5) minimum margin, in log-odds. */
   minMargin?: number;
   /** Candidates listed per row; default 3. */
   top?: number;

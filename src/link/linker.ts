@@ -10,7 +10,7 @@ import {
   generateCandidates,
   type MentionForm,
 } from "../candidates/generate.js";
-import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide } from "../decide/decide.js";
+import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP } from "../decide/decide.js";
 import type { EntityRow, Kb } from "../kb/kb.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
@@ -47,7 +47,7 @@ export interface LinkerOptions {
   weights?: Weights;
   /** Link only when the best score is at least this. Default 0.5. */
   threshold?: number;
-  /** Link only when the best score beats the runner-up by at least this. Default 0.05. */
+  /** Link only when the best beats the runner-up by at least this many log-odds. Default 0.5. */
   minMargin?: number;
   /** Candidates listed per output row. Default 3. */
   top?: number;
@@ -128,7 +128,11 @@ export class Linker {
       minMargin: options.minMargin ?? DEFAULT_MIN_MARGIN,
     };
     checkUnit("threshold", this.config.threshold);
-    checkUnit("minMargin", this.config.minMargin);
+    if (!(this.config.minMargin >= 0 && this.config.minMargin <= MARGIN_CAP)) {
+      throw new UsageError(
+        `minMargin must be a number of log-odds in [0, ${MARGIN_CAP}], got ${this.config.minMargin}`,
+      );
+    }
     this.top = options.top ?? DEFAULT_TOP;
     if (!Number.isInteger(this.top) || this.top < 0)
       throw new UsageError(`top must be a whole number >= 0, got ${this.top}`);

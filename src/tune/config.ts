@@ -6,6 +6,7 @@
 import { randomBytes } from "node:crypto";
 import { readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
+import { MARGIN_CAP } from "../decide/decide.js";
 import type { Figures } from "../evaluate/metrics.js";
 import { FEATURE_NAMES, type FeatureName, type LinkConfig } from "../types.js";
 import { InputError } from "../util/errors.js";
@@ -162,7 +163,7 @@ export function validateConfig(value: unknown, file: string): TunedConfig {
     version: CONFIG_VERSION,
     weights: { bias: c.number(w.bias, "weights.bias"), features },
     threshold: c.number(o.threshold, "threshold", 0, 1),
-    minMargin: c.number(o.minMargin, "minMargin", 0, 1),
+    minMargin: c.number(o.minMargin, "minMargin", 0, MARGIN_CAP),
     objective: objective as Objective,
     figures: {
       heldOut: checkSummary(c, figures.heldOut, "figures.heldOut"),
