@@ -5,7 +5,8 @@
  * - ocr: the OCR-folded keys are equal;
  * - acronym: the mention reads as an acronym ("S.G.E.", "SGE") of an alias, or an alias is one;
  * - initials: "J. H. Aldous" meets every alias of the form "j... aldous";
- * - fts: FTS5 token search over alias tokens (escaped terms only), best BM25 first;
+ * - fts: FTS5 token search over alias tokens (escaped terms only), rarest token first, each
+ *   token's most popular carriers first;
  * - fuzzy: tokens unknown to the table are corrected through one-deletion variants of the table's
  *   vocabulary (edit distance <= 2) and searched again.
  * The candidate list is capped; precise paths come first.
@@ -13,13 +14,14 @@
 import { distance } from "fastest-levenshtein";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
 import type { Kb } from "../kb/kb.js";
+import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import type { CandidatePath, EntityClass } from "../types.js";
 
 export interface CandidateOptions {
   /** Most candidates kept per mention (after merging paths). Default 30. */
   maxCandidates: number;
-  /** FTS5 rows read per query. Default 50. */
+  /** Entities taken from FTS5 token search (and again from the fuzzy path's search). Default 50. */
   ftsLimit: number;
   /**
    * Tokens found in more aliases than this are left out of the FTS query: they cost the most to
@@ -28,7 +30,7 @@ export interface CandidateOptions {
   ftsMaxDf: number;
   /** Largest edit distance accepted for a fuzzy token correction. Default 2. */
   fuzzyMaxEdits: number;
-  /** Corrections kept per unknown token (closest first, then most frequent). Default 3. */
+  /** Corrections kept per unknown token (closest first, then most frequent). Default 6. */
   fuzzyMaxCorrections: number;
   /** Paths that run; default all. Turning one off is how their value is measured. */
   paths: ReadonlySet<CandidatePath>;
@@ -41,7 +43,7 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   ftsLimit: 50,
   ftsMaxDf: 5000,
   fuzzyMaxEdits: 2,
-  fuzzyMaxCorrections: 3,
+  fuzzyMaxCorrections: 6,
   paths: new Set(ALL_PATHS),
 };
 
@@ -49,6 +51,10 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
 const PRECISE_PATHS: ReadonlySet<CandidatePath> = new Set(["exact", "acronym", "initials", "ocr"]);
 /** Shortest token worth an FTS term: single letters are initials, matched by the initials path. */
 const MIN_FTS_TOKEN_LENGTH = 2;
+/** Tokens of one mention looked at by token search; a 10,000-character "name" is noise past this. */
+const MAX_QUERY_TOKENS = 12;
+/** Unknown tokens of one mention sent to fuzzy correction. */
+const MAX_FUZZY_TOKENS = 4;
 
 export interface RawCandidate {
   eid: number;
@@ -78,52 +84,74 @@ export function generateCandidates(
   const classes = new Set(forms.map((f) => f.cls));
   const on = opts.paths;
 
+  // Every whole-key probe of every form, answered by one batched lookup.
+  const probes = new Map<string, Array<{ cls: EntityClass; kind: KeyKind; path: CandidatePath }>>();
+  const probe = (key: string | null, cls: EntityClass, kind: KeyKind, path: CandidatePath) => {
+    if (key === null || key === "" || !on.has(path)) return;
+    const list = probes.get(key);
+    if (list) list.push({ cls, kind, path });
+    else probes.set(key, [{ cls, kind, path }]);
+  };
   for (const { cls, norm } of forms) {
     if (norm.key === "") continue;
-    if (on.has("exact")) for (const eid of kb.lookupKey(norm.key, cls, "exact")) add(eid, cls, "exact");
-    if (on.has("acronym") && norm.acronym !== null) {
-      for (const eid of kb.lookupKey(norm.acronym, cls, "acronym")) add(eid, cls, "acronym");
-    }
-    if (on.has("initials") && norm.initialsKey !== null && norm.tokens[0]!.length === 1) {
-      for (const eid of kb.lookupKey(norm.initialsKey, cls, "initials")) add(eid, cls, "initials");
-    }
-    if (on.has("ocr") && norm.ocrKey !== "")
-      for (const eid of kb.lookupKey(norm.ocrKey, cls, "ocr")) add(eid, cls, "ocr");
+    probe(norm.key, cls, "exact", "exact");
+    probe(norm.acronym, cls, "acronym", "acronym");
+    if (norm.tokens[0]!.length === 1) probe(norm.initialsKey, cls, "initials", "initials");
+    probe(norm.ocrKey, cls, "ocr", "ocr");
   }
 
-  // Token search runs once over the union of the forms' tokens; hits of a class the mention cannot be are dropped.
+  // Tokens known to the table feed the token search; unknown ones go to fuzzy correction.
   const tokens = new Set<string>();
   for (const f of forms) for (const t of f.norm.tokens) tokens.add(t);
-  const known: string[] = [];
+  const knownDf: Array<[string, number]> = [];
   const unknown: string[] = [];
+  let queried = 0;
   for (const t of tokens) {
-    if (t.length < MIN_FTS_TOKEN_LENGTH) continue;
+    if (t.length < MIN_FTS_TOKEN_LENGTH || queried >= MAX_QUERY_TOKENS) continue;
+    queried++;
     const df = kb.tokenDf(t);
     if (df === 0) unknown.push(t);
-    else if (df <= opts.ftsMaxDf) known.push(t);
+    else if (df <= opts.ftsMaxDf) knownDf.push([t, df]);
   }
-  if (on.has("fts") && known.length > 0) {
-    for (const hit of kb.searchAliases(known, opts.ftsLimit))
-      if (classes.has(hit.cls)) add(hit.eid, hit.cls, "fts");
-  }
-  if (on.has("fuzzy") && unknown.length > 0) {
-    const corrected = new Map<string, string[]>();
-    for (const t of unknown) {
+  const corrected = new Map<string, string[]>();
+  if (on.has("fuzzy")) {
+    for (const t of unknown.slice(0, MAX_FUZZY_TOKENS)) {
       const fixes = correctToken(kb, t, opts);
       if (fixes.length > 0) corrected.set(t, fixes);
     }
-    if (corrected.size > 0) {
-      const terms = [...known];
-      for (const fixes of corrected.values())
-        for (const f of fixes) if (kb.tokenDf(f) <= opts.ftsMaxDf) terms.push(f);
-      for (const hit of kb.searchAliases(terms, opts.ftsLimit))
-        if (classes.has(hit.cls)) add(hit.eid, hit.cls, "fuzzy");
-      // The best correction of every token, as a whole key.
-      for (const { cls, norm } of forms) {
-        const key = norm.tokens.map((t) => corrected.get(t)?.[0] ?? t).join(" ");
-        if (key !== norm.key) for (const eid of kb.lookupKey(key, cls, "exact")) add(eid, cls, "fuzzy");
+    // The best correction of every token, as a whole key.
+    for (const { cls, norm } of forms) {
+      const key = norm.tokens.map((t) => corrected.get(t)?.[0] ?? t).join(" ");
+      if (key !== norm.key) probe(key, cls, "exact", "fuzzy");
+    }
+  }
+  if (probes.size > 0) {
+    for (const hit of kb.lookupKeys([...probes.keys()])) {
+      for (const p of probes.get(hit.key) ?? [])
+        if (p.cls === hit.cls && p.kind === hit.kind) add(hit.eid, hit.cls, p.path);
+    }
+  }
+
+  // Token search hits carry no class: it comes from the entity rows, loaded in one batch.
+  const searched: Array<[number, CandidatePath]> = [];
+  if (on.has("fts") && knownDf.length > 0) {
+    for (const eid of kb.searchAliases(rarestFirst([...knownDf]), opts.ftsLimit)) searched.push([eid, "fts"]);
+  }
+  if (corrected.size > 0) {
+    const termDf: Array<[string, number]> = [];
+    for (const fixes of corrected.values()) {
+      for (const f of fixes) {
+        const df = kb.tokenDf(f);
+        if (df <= opts.ftsMaxDf) termDf.push([f, df]);
       }
     }
+    for (const eid of kb.searchAliases(rarestFirst(termDf), opts.ftsLimit)) searched.push([eid, "fuzzy"]);
+  }
+  if (searched.length > 0) {
+    const rows = kb.entities(searched.map(([eid]) => eid));
+    rows.forEach((e, i) => {
+      if (classes.has(e.cls)) add(e.eid, e.cls, searched[i]![1]);
+    });
   }
 
   const all = [...found.values()];
@@ -135,23 +163,68 @@ export function generateCandidates(
   // Too many: precise hits beyond the cap are chosen by popularity (many entities share one full name).
   const precise = all.filter(isPrecise);
   if (precise.length >= opts.maxCandidates) {
+    const priors = new Map(kb.entities(precise.map((c) => c.eid)).map((e) => [e.eid, e.prior]));
     return precise
-      .sort((a, b) => kb.entity(b.eid).prior - kb.entity(a.eid).prior || a.rank - b.rank)
+      .sort((a, b) => priors.get(b.eid)! - priors.get(a.eid)! || a.rank - b.rank)
       .slice(0, opts.maxCandidates);
   }
   return all.slice(0, opts.maxCandidates);
+}
+
+/** Tokens ordered rarest first: the rarest token says most about which entity is meant. */
+function rarestFirst(tokens: Array<[string, number]>): string[] {
+  return tokens.sort((a, b) => a[1] - b[1] || (a[0] < b[0] ? -1 : 1)).map(([t]) => t);
+}
+
+/**
+ * OCR misreadings that change a token's length ("rn" for "m", "cl" for "d"...): an edit-distance
+ * search cannot see through them cheaply, so each is undone (and done) once before the deletion
+ * lookup. The pairs are common practice for OCR of letterpress (see src/normalize/ocr.ts).
+ */
+const OCR_SWAPS: ReadonlyArray<[string, string]> = [
+  ["rn", "m"],
+  ["m", "rn"],
+  ["cl", "d"],
+  ["d", "cl"],
+  ["vv", "w"],
+  ["w", "vv"],
+  ["li", "h"],
+  ["h", "li"],
+];
+/** Most OCR readings of one token tried (each costs one deletion-variant lookup per letter). */
+const MAX_OCR_READINGS = 6;
+
+/** The token with one OCR swap applied at each place it can be (capped). */
+export function ocrReadings(token: string): string[] {
+  const out: string[] = [];
+  for (const [from, to] of OCR_SWAPS) {
+    let at = token.indexOf(from);
+    while (at >= 0 && out.length < MAX_OCR_READINGS) {
+      out.push(token.slice(0, at) + to + token.slice(at + from.length));
+      at = token.indexOf(from, at + 1);
+    }
+  }
+  return out;
 }
 
 /** Table tokens within `fuzzyMaxEdits` of an unknown token, closest first, then most frequent. */
 export function correctToken(kb: Kb, token: string, opts: CandidateOptions): string[] {
   if (token.length < FUZZY_MIN_TOKEN_LENGTH) return [];
   const seen = new Map<string, number>();
-  for (const v of deletionVariants(token)) {
-    for (const t of kb.tokensForVariant(v)) {
-      if (seen.has(t)) continue;
-      const d = distance(token, t);
-      if (d <= opts.fuzzyMaxEdits) seen.set(t, d);
+  const consider = (reading: string, extra: number) => {
+    for (const v of deletionVariants(reading)) {
+      for (const t of kb.tokensForVariant(v)) {
+        const d = distance(reading, t) + extra;
+        if (d <= opts.fuzzyMaxEdits && d < (seen.get(t) ?? Number.POSITIVE_INFINITY)) seen.set(t, d);
+      }
     }
+  };
+  consider(token, 0);
+  // An OCR swap counts as one edit, however many letters it moves.
+  for (const r of ocrReadings(token)) {
+    if (kb.tokenDf(r) > 0) {
+      if (1 < (seen.get(r) ?? Number.POSITIVE_INFINITY)) seen.set(r, 1);
+    } else if (r.length >= FUZZY_MIN_TOKEN_LENGTH) consider(r, 1);
   }
   return [...seen.entries()]
     .sort((a, b) => a[1] - b[1] || kb.tokenDf(b[0]) - kb.tokenDf(a[0]) || (a[0] < b[0] ? -1 : 1))

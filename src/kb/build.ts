@@ -14,7 +14,15 @@ import type { EntityRecord } from "../types.js";
 import { InputError } from "../util/errors.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
-import { INDEX_SQL, KB_FORMAT, type KeyKind, SCHEMA_SQL, SCHEMA_VERSION } from "./schema.js";
+import {
+  INDEX_SQL,
+  KB_FORMAT,
+  type KeyKind,
+  type PackedForm,
+  packForms,
+  SCHEMA_SQL,
+  SCHEMA_VERSION,
+} from "./schema.js";
 
 export interface BuildKbOptions {
   /** The knowledge table: CSV (header row), TSV or JSONL. */
@@ -137,13 +145,12 @@ const ROWS_PER_TRANSACTION = 20_000;
 
 async function load(db: Database.Database, options: BuildKbOptions, labels: LabelMap): Promise<LoadSummary> {
   const insEntity = db.prepare(
-    "INSERT INTO entities (eid, id, name, type, class, description, prior, attributes, terms) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
+    "INSERT INTO entities (eid, id, name, type, class, description, prior, attributes, terms, forms) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
   );
   const insAlias = db.prepare(
     "INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)",
   );
-  const insKey = db.prepare("INSERT INTO keys (key, class, kind, aid) VALUES (?, ?, ?, ?)");
-  const insFts = db.prepare("INSERT INTO alias_fts (rowid, tokens) VALUES (?, ?)");
+  const insKey = db.prepare("INSERT INTO keys (key, class, kind, eid) VALUES (?, ?, ?, ?)");
   const vocab = new Map<string, number>();
   const termDf = new Map<string, number>();
   const byClass: Record<string, number> = {};
@@ -167,6 +174,29 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
       for (let i = 0; i < terms.length; i++) {
         if (i === 0 || terms[i] !== terms[i - 1]) termDf.set(terms[i]!, (termDf.get(terms[i]!) ?? 0) + 1);
       }
+      const seenKeys = new Set<string>();
+      const entityTokens = new Set<string>();
+      const packed: PackedForm[] = [];
+      const add = (key: string | null, kind: KeyKind) => {
+        if (key === null || key === "") return;
+        const dedupe = `${kind}\u0000${key}`;
+        if (seenKeys.has(dedupe)) return;
+        seenKeys.add(dedupe);
+        insKey.run(key, cls, kind, eid);
+        keys++;
+      };
+      for (const a of aliasForms(r, cls)) {
+        if (a.n.key === "") continue;
+        aid++;
+        insAlias.run(aid, eid, a.text, a.n.key, a.n.full, a.n.ocrKey, a.canonical ? 1 : 0);
+        packed.push({ text: a.text, key: a.n.key, full: a.n.full, ocr: a.n.ocrKey, canonical: a.canonical });
+        for (const t of a.n.tokens) entityTokens.add(t);
+        add(a.n.key, "exact");
+        add(a.n.ocrKey, "ocr");
+        add(a.n.acronymKey, "acronym");
+        if (a.n.acronym !== null) add(a.n.acronym, "acronym");
+        add(a.n.initialsKey, "initials");
+      }
       insEntity.run(
         eid,
         r.id,
@@ -177,29 +207,8 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
         r.prior,
         JSON.stringify(r.attributes),
         terms.join(" "),
+        packForms(packed),
       );
-      const seenKeys = new Set<string>();
-      const entityTokens = new Set<string>();
-      for (const a of aliasForms(r, cls)) {
-        if (a.n.key === "") continue;
-        aid++;
-        insAlias.run(aid, eid, a.text, a.n.key, a.n.full, a.n.ocrKey, a.canonical ? 1 : 0);
-        insFts.run(aid, a.n.key);
-        for (const t of a.n.tokens) entityTokens.add(t);
-        const add = (key: string | null, kind: KeyKind) => {
-          if (key === null || key === "") return;
-          const dedupe = `${kind}\u0000${key}`;
-          if (seenKeys.has(dedupe)) return;
-          seenKeys.add(dedupe);
-          insKey.run(key, cls, kind, aid);
-          keys++;
-        };
-        add(a.n.key, "exact");
-        add(a.n.ocrKey, "ocr");
-        add(a.n.acronymKey, "acronym");
-        if (a.n.acronym !== null) add(a.n.acronym, "acronym");
-        add(a.n.initialsKey, "initials");
-      }
       for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
     }
   });
@@ -218,6 +227,13 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   if (rows === 0) throw new InputError({ file: options.table }, "the table has no rows");
   options.onProgress?.(rows);
 
+  // Full-text rows in order of falling popularity (see schema.ts): positions first, then the index.
+  db.exec(
+    "CREATE TEMP TABLE fts_order AS SELECT a.eid AS eid, a.key AS key FROM aliases a JOIN entities e ON e.eid = a.eid ORDER BY e.prior DESC, a.aid",
+  );
+  db.exec("INSERT INTO fts_rows (pos, eid) SELECT rowid, eid FROM temp.fts_order");
+  db.exec("INSERT INTO alias_fts (rowid, tokens) SELECT rowid, key FROM temp.fts_order");
+  db.exec("DROP TABLE temp.fts_order");
   const insVocab = db.prepare("INSERT INTO vocab (token, df) VALUES (?, ?)");
   const insDelete = db.prepare("INSERT OR IGNORE INTO deletes (variant, token) VALUES (?, ?)");
   const insIdf = db.prepare("INSERT INTO idf (term, df) VALUES (?, ?)");

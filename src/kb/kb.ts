@@ -7,7 +7,7 @@ import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
-import { KB_FORMAT, type KeyKind, SCHEMA_VERSION } from "./schema.js";
+import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, unpackForms } from "./schema.js";
 
 export interface KbInfo {
   file: string;
@@ -29,6 +29,7 @@ export interface KbInfo {
 }
 
 export interface AliasRow {
+  /** Position among the entity's names (0: the canonical name). */
   aid: number;
   text: string;
   key: string;
@@ -51,6 +52,17 @@ export interface EntityRow {
   terms: string[];
   aliases: AliasRow[];
 }
+
+/** One blocking-key hit: the key, its class and kind, and the entity. */
+export interface KeyHit {
+  key: string;
+  cls: EntityClass;
+  kind: KeyKind;
+  eid: number;
+}
+
+/** Most values bound in one IN (...) lookup; longer lists are looked up in slices. */
+const MAX_IN = 32;
 
 /** Entities kept decoded in memory: the same popular entities are candidates again and again. */
 const ENTITY_CACHE_SIZE = 20_000;
@@ -82,19 +94,19 @@ export class Kb {
   readonly db: Database.Database;
   readonly info: KbInfo;
   private readonly stmts: {
-    key: Database.Statement<[string, string, string], { eid: number }>;
-    fts: Database.Statement<[string, number], { eid: number; class: string }>;
+    fts: Database.Statement<[string, number], { eid: number }>;
     vocab: Database.Statement<[string], { df: number }>;
     deletes: Database.Statement<[string], { token: string }>;
     idf: Database.Statement<[string], { df: number }>;
-    entity: Database.Statement<[number], Record<string, unknown>>;
-    aliases: Database.Statement<[number], Record<string, unknown>>;
     byClass: Database.Statement<[string], { eid: number }>;
     byId: Database.Statement<[string], { eid: number }>;
   };
   private readonly entityCache = new Lru<number, EntityRow>(ENTITY_CACHE_SIZE);
   private readonly idfCache = new Lru<string, number>(IDF_CACHE_SIZE);
   private readonly vocabCache = new Lru<string, number>(IDF_CACHE_SIZE);
+  /** IN (...) statements by arity, prepared on first use. */
+  private readonly keyStmts = new Map<number, Database.Statement<string[], Record<string, unknown>>>();
+  private readonly entityStmts = new Map<number, Database.Statement<number[], Record<string, unknown>>>();
 
   constructor(file: string) {
     if (!existsSync(file))
@@ -109,24 +121,14 @@ export class Kb {
     this.db = db;
     this.info = readInfo(db, file);
     this.stmts = {
-      key: db.prepare(
-        "SELECT DISTINCT a.eid AS eid FROM keys k JOIN aliases a ON a.aid = k.aid WHERE k.key = ? AND k.class = ? AND k.kind = ?",
-      ),
-      // Rank inside the subquery (FTS5 stops after LIMIT rows), join outside, keep the rank order.
+      // Unranked: rows come in position order, which is falling popularity (see schema.ts).
       fts: db.prepare(
-        "SELECT a.eid AS eid, e.class AS class FROM " +
-          "(SELECT rowid AS aid, rank FROM alias_fts WHERE alias_fts MATCH ? ORDER BY rank LIMIT ?) f " +
-          "JOIN aliases a ON a.aid = f.aid JOIN entities e ON e.eid = a.eid ORDER BY f.rank",
+        "SELECT r.eid AS eid FROM (SELECT rowid AS pos FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?) f " +
+          "JOIN fts_rows r ON r.pos = f.pos ORDER BY f.pos",
       ),
       vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
       deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
       idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
-      entity: db.prepare(
-        "SELECT eid, id, name, type, class, description, prior, attributes, terms FROM entities WHERE eid = ?",
-      ),
-      aliases: db.prepare(
-        "SELECT aid, text, key, full, ocr, canonical FROM aliases WHERE eid = ? ORDER BY aid",
-      ),
       byClass: db.prepare("SELECT eid FROM entities WHERE class = ? ORDER BY eid"),
       byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
     };
@@ -136,24 +138,49 @@ export class Kb {
     if (this.db.open) this.db.close();
   }
 
-  /** Entity ids (internal) whose alias has this key, class and kind. */
-  lookupKey(key: string, cls: EntityClass, kind: KeyKind): number[] {
-    return this.stmts.key.all(key, cls, kind).map((r) => r.eid);
+  /** Every blocking-key row whose key is one of `keys` (any class and kind), in one query per 32 keys. */
+  lookupKeys(keys: readonly string[]): KeyHit[] {
+    const out: KeyHit[] = [];
+    for (let i = 0; i < keys.length; i += MAX_IN) {
+      const slice = keys.slice(i, i + MAX_IN);
+      let stmt = this.keyStmts.get(slice.length);
+      if (stmt === undefined) {
+        stmt = this.db.prepare(
+          `SELECT key, class, kind, eid FROM keys WHERE key IN (${slice.map(() => "?").join(",")})`,
+        );
+        this.keyStmts.set(slice.length, stmt);
+      }
+      for (const r of stmt.all(...slice)) {
+        out.push({
+          key: r.key as string,
+          cls: r.class as EntityClass,
+          kind: r.kind as KeyKind,
+          eid: r.eid as number,
+        });
+      }
+    }
+    return out;
   }
 
   /**
-   * FTS5 search over alias tokens. `tokens` are folded words (letters and digits only); each is
-   * quoted as an FTS5 string with embedded quotes doubled, and they are joined by OR, so mention
-   * text never reaches the FTS5 query parser as syntax.
+   * FTS5 search over alias tokens, one token at a time in the order given (callers pass the
+   * rarest first), each giving its most popular entities, until `limit` distinct entities are
+   * found. Tokens are folded words; each is quoted as an FTS5 string with embedded quotes
+   * doubled (and split at any inner separator), so mention text never reaches the FTS5 query
+   * parser as syntax.
    */
-  searchAliases(tokens: readonly string[], limit: number): Array<{ eid: number; cls: EntityClass }> {
-    // A token with an inner separator would be an FTS5 phrase; split it into its words first.
+  searchAliases(tokens: readonly string[], limit: number): number[] {
     const words = tokens.flatMap((t) => t.split(/[^\p{L}\p{N}]+/u)).filter((w) => w.length > 0);
-    if (words.length === 0) return [];
-    const query = words.map(ftsString).join(" OR ");
-    const out: Array<{ eid: number; cls: EntityClass }> = [];
-    for (const row of this.stmts.fts.all(query, limit))
-      out.push({ eid: row.eid, cls: row.class as EntityClass });
+    const seen = new Set<number>();
+    const out: number[] = [];
+    for (const w of words) {
+      if (out.length >= limit) break;
+      for (const row of this.stmts.fts.all(ftsString(w), limit - out.length)) {
+        if (seen.has(row.eid)) continue;
+        seen.add(row.eid);
+        out.push(row.eid);
+      }
+    }
     return out;
   }
 
@@ -182,35 +209,41 @@ export class Kb {
     return df;
   }
 
+  /** One entity by internal id (cached). */
   entity(eid: number): EntityRow {
-    const cached = this.entityCache.get(eid);
-    if (cached) return cached;
-    const r = this.stmts.entity.get(eid);
-    if (!r) throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
-    const aliases = this.stmts.aliases.all(eid).map((a) => ({
-      aid: a.aid as number,
-      text: a.text as string,
-      key: a.key as string,
-      full: a.full as string,
-      ocr: a.ocr as string,
-      canonical: a.canonical === 1,
-      tokens: (a.key as string).split(" "),
-    }));
-    const terms = r.terms as string;
-    const row: EntityRow = {
-      eid: r.eid as number,
-      id: r.id as string,
-      name: r.name as string,
-      type: r.type as string,
-      cls: r.class as EntityClass,
-      description: r.description as string,
-      prior: r.prior as number,
-      attributes: JSON.parse(r.attributes as string) as Record<string, string>,
-      terms: terms === "" ? [] : terms.split(" "),
-      aliases,
-    };
-    this.entityCache.set(eid, row);
-    return row;
+    return this.entities([eid])[0]!;
+  }
+
+  /** Entities by internal id, in the order asked, loading the uncached ones in batched queries. */
+  entities(eids: readonly number[]): EntityRow[] {
+    const out: Array<EntityRow | undefined> = eids.map((e) => this.entityCache.get(e));
+    const missing: number[] = [];
+    for (let i = 0; i < eids.length; i++) if (out[i] === undefined) missing.push(eids[i]!);
+    if (missing.length > 0) {
+      const loaded = new Map<number, EntityRow>();
+      for (let i = 0; i < missing.length; i += MAX_IN) {
+        const slice = missing.slice(i, i + MAX_IN);
+        let stmt = this.entityStmts.get(slice.length);
+        if (stmt === undefined) {
+          stmt = this.db.prepare(
+            "SELECT eid, id, name, type, class, description, prior, attributes, terms, forms FROM entities " +
+              `WHERE eid IN (${slice.map(() => "?").join(",")})`,
+          );
+          this.entityStmts.set(slice.length, stmt);
+        }
+        for (const r of stmt.all(...slice)) {
+          const row = decodeEntity(r);
+          loaded.set(row.eid, row);
+          this.entityCache.set(row.eid, row);
+        }
+      }
+      for (let i = 0; i < eids.length; i++) {
+        if (out[i] === undefined) out[i] = loaded.get(eids[i]!);
+        if (out[i] === undefined)
+          throw new Error(`KB ${this.info.file}: no entity with internal id ${eids[i]}`);
+      }
+    }
+    return out as EntityRow[];
   }
 
   /** Internal id of a table id, or undefined. */
@@ -222,6 +255,28 @@ export class Kb {
   *entitiesOfClass(cls: EntityClass): Generator<number> {
     for (const r of this.stmts.byClass.iterate(cls)) yield r.eid;
   }
+}
+
+function decodeEntity(r: Record<string, unknown>): EntityRow {
+  const terms = r.terms as string;
+  const attributes = r.attributes as string;
+  let parsed: Record<string, string> | undefined;
+  return {
+    eid: r.eid as number,
+    id: r.id as string,
+    name: r.name as string,
+    type: r.type as string,
+    cls: r.class as EntityClass,
+    description: r.description as string,
+    prior: r.prior as number,
+    // Attributes are parsed only when read: scoring never needs them.
+    get attributes(): Record<string, string> {
+      parsed ??= JSON.parse(attributes) as Record<string, string>;
+      return parsed;
+    },
+    terms: terms === "" ? [] : terms.split(" "),
+    aliases: unpackForms(r.forms as string).map((f, i) => ({ ...f, aid: i, tokens: f.key.split(" ") })),
+  };
 }
 
 /** An FTS5 string literal: wrapped in double quotes, inner double quotes doubled. */

@@ -4,10 +4,15 @@
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
  * - entities: one row per table row; `terms` holds the stemmed context words of the description
- *   and attributes (sorted, repeated per occurrence) from which TF-IDF vectors are built.
+ *   and attributes (sorted, repeated per occurrence) from which TF-IDF vectors are built;
+ *   `forms` packs the normalized forms of its names (see packForms), so that scoring reads one
+ *   row per candidate.
  * - aliases: the canonical name and every alias, with their normalized key and full forms.
- * - keys: blocking keys per alias and class: exact, ocr, acronym, initials.
- * - alias_fts: FTS5 over alias core tokens (contentless; rowid = alias id).
+ * - keys: blocking keys per entity and class: exact, ocr, acronym, initials.
+ * - alias_fts: FTS5 over alias core tokens (contentless). Its rowids are positions in order of
+ *   falling popularity (prior), mapped to alias ids by fts_rows, so an unranked match returns
+ *   the most popular entities carrying a token first, at a cost that does not grow with how
+ *   common the token is.
  * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
  *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
  * - idf: document frequency of each context term.
@@ -29,7 +34,8 @@ CREATE TABLE entities (
   description TEXT NOT NULL,
   prior REAL NOT NULL,
   attributes TEXT NOT NULL,
-  terms TEXT NOT NULL
+  terms TEXT NOT NULL,
+  forms TEXT NOT NULL
 );
 CREATE TABLE aliases (
   aid INTEGER PRIMARY KEY,
@@ -40,8 +46,9 @@ CREATE TABLE aliases (
   ocr TEXT NOT NULL,
   canonical INTEGER NOT NULL
 );
-CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, aid INTEGER NOT NULL);
+CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
 CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', detail=column, tokenize='unicode61 remove_diacritics 0');
+CREATE TABLE fts_rows (pos INTEGER PRIMARY KEY, eid INTEGER NOT NULL);
 CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
 CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
@@ -51,8 +58,37 @@ CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
 export const INDEX_SQL = `
 CREATE UNIQUE INDEX entities_id ON entities(id);
 CREATE INDEX aliases_eid ON aliases(eid);
-CREATE INDEX keys_lookup ON keys(key, class, kind);
+CREATE INDEX keys_lookup ON keys(key);
 `;
 
 /** Key kinds stored in `keys.kind`. */
 export type KeyKind = "exact" | "ocr" | "acronym" | "initials";
+
+/** Separators of the packed `entities.forms` column: fields of one name, and names. */
+const FIELD = "\u001f";
+const RECORD = "\u001e";
+
+export interface PackedForm {
+  text: string;
+  key: string;
+  full: string;
+  ocr: string;
+  canonical: boolean;
+}
+
+/** Pack an entity's name forms into one text value (control characters never occur in folded forms). */
+export function packForms(forms: readonly PackedForm[]): string {
+  return forms
+    .map((f) =>
+      [f.text.replace(/[\u001e\u001f]/g, " "), f.key, f.full, f.ocr, f.canonical ? "1" : "0"].join(FIELD),
+    )
+    .join(RECORD);
+}
+
+export function unpackForms(packed: string): PackedForm[] {
+  if (packed === "") return [];
+  return packed.split(RECORD).map((r) => {
+    const [text = "", key = "", full = "", ocr = "", canonical = "0"] = r.split(FIELD);
+    return { text, key, full, ocr, canonical: canonical === "1" };
+  });
+}

@@ -216,7 +216,8 @@ export class Linker {
   private scorePrepared(p: Prepared): ScoredCandidate[] {
     if (p.forms.length === 0) return [];
     const raw = generateCandidates(this.kb, p.forms, this.cand);
-    const out = raw.map((c) => this.scoreOne(p, this.kb.entity(c.eid), c.cls, c.paths));
+    const rows = this.kb.entities(raw.map((c) => c.eid));
+    const out = raw.map((c, i) => this.scoreOne(p, rows[i]!, c.cls, c.paths));
     return out.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
   }
 
@@ -224,7 +225,8 @@ export class Linker {
   candidateIds(m: Mention): string[] {
     const p = this.prepare(m);
     if (p.forms.length === 0) return [];
-    return generateCandidates(this.kb, p.forms, this.cand).map((c) => this.kb.entity(c.eid).id);
+    const raw = generateCandidates(this.kb, p.forms, this.cand);
+    return this.kb.entities(raw.map((c) => c.eid)).map((e) => e.id);
   }
 
   private analyze(m: Mention): Analysis {

@@ -180,3 +180,30 @@ export const ACRONYM_SKIP: ReadonlySet<string> = new Set([
   "for",
   "&",
 ]);
+
+/**
+ * Prefixes of vessel names (steamship, paddle steamer, screw steamer, steam yacht, motor vessel,
+ * His/Her Majesty's Ship, Royal Mail Ship...), removed from the key of "other" entities.
+ */
+export const VESSEL_PREFIXES: ReadonlySet<string> = new Set([
+  "ss",
+  "ps",
+  "ts",
+  "tss",
+  "sy",
+  "mv",
+  "ms",
+  "hms",
+  "hmy",
+  "rms",
+  "smy",
+  "sv",
+  "schooner",
+  "barque",
+  "brig",
+  "ketch",
+  "barge",
+  "steamer",
+  "tug",
+  "yacht",
+]);

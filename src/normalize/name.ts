@@ -12,6 +12,7 @@ import {
   HONORIFICS,
   LEGAL_FORMS,
   PLACE_ABBREVIATIONS,
+  VESSEL_PREFIXES,
 } from "./lexicon.js";
 import { ocrFold } from "./ocr.js";
 
@@ -146,6 +147,40 @@ function stripOrganization(tokens: string[]): Stripped {
   return { tokens: core.length > 0 ? core : tokens.slice(), suffix: null, legal };
 }
 
+function stripOther(tokens: string[]): Stripped {
+  let start = 0;
+  while (start < tokens.length - 1 && VESSEL_PREFIXES.has(tokens[start]!)) start++;
+  return { tokens: tokens.slice(start), suffix: null, legal: [] };
+}
+
+/** Digits OCR reads in place of letters; a digit between letters is a misreading, not a number. */
+const OCR_DIGITS: Readonly<Record<string, string>> = { "0": "o", "1": "l", "5": "s", "8": "b" };
+const HAS_LETTER = /\p{L}/u;
+const HAS_DIGIT = /[0158]/;
+
+/** "a1dous" -> "aldous", "ing01y" -> "ingoly"; all-digit tokens (years, numbers) stay. */
+export function fixOcrDigits(token: string): string {
+  if (!HAS_DIGIT.test(token) || !HAS_LETTER.test(token)) return token;
+  return token.replace(/[0158]/g, (d) => OCR_DIGITS[d] ?? d);
+}
+
+/** Runs of two or more one-letter tokens become one token: "s s sarah" -> "ss sarah". */
+function joinLetterRuns(tokens: string[]): string[] {
+  const out: string[] = [];
+  let run = "";
+  for (const t of tokens) {
+    if (t.length === 1) {
+      run += t;
+      continue;
+    }
+    if (run !== "") out.push(run);
+    run = "";
+    out.push(t);
+  }
+  if (run !== "") out.push(run);
+  return out;
+}
+
 function stripLocation(tokens: string[]): Stripped {
   return { tokens: tokens.map((t) => PLACE_ABBREVIATIONS[t] ?? t), suffix: null, legal: [] };
 }
@@ -156,7 +191,9 @@ function stripLocation(tokens: string[]): Stripped {
  *   clerks' given-name abbreviations expanded (Jno. -> john);
  * - organization: legal forms removed from the key (kept canonical in `full`), place abbreviations expanded;
  * - location: place abbreviations expanded (St. -> saint, Ft. -> fort, Pt. -> port, Mt. -> mount);
- * - other: folding only.
+ * - other: vessel prefixes (S.S., P.S., H.M.S....) removed from the key.
+ * Every class: digits inside words are read as the letters OCR mistakes them for ("A1dous" ->
+ * "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
  */
 export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
   const bare = dropParenthesized(raw);
@@ -164,7 +201,8 @@ export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
   const all = foldTokens(text);
   let lead = 0;
   while (lead < all.length - 1 && LEADING_ARTICLES.has(all[lead]!)) lead++;
-  const folded = lead > 0 ? all.slice(lead) : all;
+  const unread = (lead > 0 ? all.slice(lead) : all).map(fixOcrDigits);
+  const folded = cls === "person" ? unread : joinLetterRuns(unread);
   let s: Stripped;
   switch (cls) {
     case "person":
@@ -177,7 +215,7 @@ export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
       s = stripLocation(folded);
       break;
     default:
-      s = { tokens: folded.slice(), suffix: null, legal: [] };
+      s = stripOther(folded);
   }
   const key = s.tokens.join(" ");
   const fullParts = s.tokens.slice();
