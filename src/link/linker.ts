@@ -277,12 +277,16 @@ export class Linker {
    */
   bruteForce(m: Mention): LinkRow {
     const p = this.prepare(m);
-    const scored: ScoredCandidate[] = [];
+    // Keep only the best maxCandidates: memory stays flat however large the class is.
+    const keep = this.cand.maxCandidates;
+    let scored: ScoredCandidate[] = [];
     for (const f of p.forms) {
-      for (const eid of this.kb.entitiesOfClass(f.cls))
+      for (const eid of this.kb.entitiesOfClass(f.cls)) {
         scored.push(this.scoreOne(p, this.kb.entity(eid), f.cls, new Set()));
+        if (scored.length >= 4 * keep) scored = bestOf(scored, keep);
+      }
     }
-    scored.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
+    scored = bestOf(scored, keep);
     const decision = decide(
       scored.map((s) => s.score),
       this.config.threshold,
@@ -438,6 +442,11 @@ export class Linker {
       candidates: this.candidatesOut([...listed].sort((x, y) => y.score - x.score)),
     };
   }
+}
+
+/** The k best candidates, best first (ties by table order). */
+function bestOf(scored: ScoredCandidate[], k: number): ScoredCandidate[] {
+  return scored.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid).slice(0, k);
 }
 
 function roundFeaturesOf(f: Features): Features {
