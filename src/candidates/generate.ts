@@ -21,7 +21,7 @@ import type { CandidatePath, EntityClass } from "../types.js";
 export interface CandidateOptions {
   /** Most candidates kept per mention (after merging paths). Default 30. */
   maxCandidates: number;
-  /** Entities taken from FTS5 token search (and again from the fuzzy path's search). Default 50. */
+  /** Entities taken from FTS5 token search (and again from the fuzzy path's search). Default 30. */
   ftsLimit: number;
   /**
    * Tokens found in more aliases than this are left out of the FTS query: they cost the most to
@@ -32,6 +32,12 @@ export interface CandidateOptions {
   fuzzyMaxEdits: number;
   /** Corrections kept per unknown token (closest first, then most frequent). Default 6. */
   fuzzyMaxCorrections: number;
+  /**
+   * Skip token search when an exact or acronym key already matched: the search would only add
+   * entities sharing some words, which score below the key match. Default true (measured in
+   * benchmarks/README.md: completeness barely moves, linking gets much faster).
+   */
+  skipSearchOnKeyMatch: boolean;
   /** Paths that run; default all. Turning one off is how their value is measured. */
   paths: ReadonlySet<CandidatePath>;
 }
@@ -40,10 +46,11 @@ export const ALL_PATHS: readonly CandidatePath[] = ["exact", "ocr", "acronym", "
 
 export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   maxCandidates: 30,
-  ftsLimit: 50,
+  ftsLimit: 30,
   ftsMaxDf: 5000,
   fuzzyMaxEdits: 2,
   fuzzyMaxCorrections: 6,
+  skipSearchOnKeyMatch: true,
   paths: new Set(ALL_PATHS),
 };
 
@@ -134,7 +141,9 @@ export function generateCandidates(
 
   // Token search hits carry no class: it comes from the entity rows, loaded in one batch.
   const searched: Array<[number, CandidatePath]> = [];
-  if (on.has("fts") && knownDf.length > 0) {
+  // A full key match already names the entity; token search then only adds weaker look-alikes.
+  const keyMatched = [...found.values()].some((c) => c.paths.has("exact") || c.paths.has("acronym"));
+  if (on.has("fts") && knownDf.length > 0 && !(opts.skipSearchOnKeyMatch && keyMatched)) {
     for (const eid of kb.searchAliases(rarestFirst([...knownDf]), opts.ftsLimit)) searched.push([eid, "fts"]);
   }
   if (corrected.size > 0) {
@@ -211,20 +220,19 @@ export function ocrReadings(token: string): string[] {
 export function correctToken(kb: Kb, token: string, opts: CandidateOptions): string[] {
   if (token.length < FUZZY_MIN_TOKEN_LENGTH) return [];
   const seen = new Map<string, number>();
-  const consider = (reading: string, extra: number) => {
-    for (const v of deletionVariants(reading)) {
-      for (const t of kb.tokensForVariant(v)) {
-        const d = distance(reading, t) + extra;
-        if (d <= opts.fuzzyMaxEdits && d < (seen.get(t) ?? Number.POSITIVE_INFINITY)) seen.set(t, d);
-      }
-    }
-  };
-  consider(token, 0);
-  // An OCR swap counts as one edit, however many letters it moves.
+  // Every reading's deletion variants in one batched lookup; distances are checked per reading.
+  const readings: Array<[string, number]> = [[token, 0]];
   for (const r of ocrReadings(token)) {
-    if (kb.tokenDf(r) > 0) {
-      if (1 < (seen.get(r) ?? Number.POSITIVE_INFINITY)) seen.set(r, 1);
-    } else if (r.length >= FUZZY_MIN_TOKEN_LENGTH) consider(r, 1);
+    if (kb.tokenDf(r) > 0) seen.set(r, 1);
+    else if (r.length >= FUZZY_MIN_TOKEN_LENGTH) readings.push([r, 1]); // an OCR swap counts as one edit
+  }
+  const variants = new Set<string>();
+  for (const [r] of readings) for (const v of deletionVariants(r)) variants.add(v);
+  for (const t of kb.tokensForVariants([...variants])) {
+    for (const [r, extra] of readings) {
+      const d = distance(r, t) + extra;
+      if (d <= opts.fuzzyMaxEdits && d < (seen.get(t) ?? Number.POSITIVE_INFINITY)) seen.set(t, d);
+    }
   }
   return [...seen.entries()]
     .sort((a, b) => a[1] - b[1] || kb.tokenDf(b[0]) - kb.tokenDf(a[0]) || (a[0] < b[0] ? -1 : 1))

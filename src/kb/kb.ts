@@ -69,24 +69,29 @@ const ENTITY_CACHE_SIZE = 20_000;
 /** IDF values kept in memory. */
 const IDF_CACHE_SIZE = 200_000;
 
-/** A map that forgets its oldest entry past a size (insertion order = age; a hit refreshes). */
-class Lru<K, V> {
-  private readonly map = new Map<K, V>();
+/**
+ * A bounded cache in two generations: hits are looked up in the young map, then in the old one
+ * (and promoted); when the young map is full it becomes the old one and a new young map starts.
+ * Recently used entries survive, memory stays under twice the size, and no access pays for
+ * reordering (a plain LRU's delete-and-reinsert on every hit cost more than the lookups it saved).
+ */
+class GenerationCache<K, V> {
+  private young = new Map<K, V>();
+  private old = new Map<K, V>();
   constructor(private readonly size: number) {}
   get(k: K): V | undefined {
-    const v = this.map.get(k);
-    if (v !== undefined) {
-      this.map.delete(k);
-      this.map.set(k, v);
-    }
-    return v;
+    const v = this.young.get(k);
+    if (v !== undefined) return v;
+    const o = this.old.get(k);
+    if (o !== undefined) this.set(k, o);
+    return o;
   }
   set(k: K, v: V): void {
-    if (this.map.size >= this.size) {
-      const oldest = this.map.keys().next();
-      if (!oldest.done) this.map.delete(oldest.value);
+    if (this.young.size >= this.size) {
+      this.old = this.young;
+      this.young = new Map();
     }
-    this.map.set(k, v);
+    this.young.set(k, v);
   }
 }
 
@@ -101,12 +106,13 @@ export class Kb {
     byClass: Database.Statement<[string], { eid: number }>;
     byId: Database.Statement<[string], { eid: number }>;
   };
-  private readonly entityCache = new Lru<number, EntityRow>(ENTITY_CACHE_SIZE);
-  private readonly idfCache = new Lru<string, number>(IDF_CACHE_SIZE);
-  private readonly vocabCache = new Lru<string, number>(IDF_CACHE_SIZE);
+  private readonly entityCache = new GenerationCache<number, EntityRow>(ENTITY_CACHE_SIZE);
+  private readonly idfCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
+  private readonly vocabCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
   /** IN (...) statements by arity, prepared on first use. */
-  private readonly keyStmts = new Map<number, Database.Statement<string[], Record<string, unknown>>>();
+  private readonly keyStmts = new Map<number, Database.Statement<unknown[], unknown>>();
   private readonly entityStmts = new Map<number, Database.Statement<number[], Record<string, unknown>>>();
+  private readonly deleteStmts = new Map<number, Database.Statement<string[], Record<string, unknown>>>();
 
   constructor(file: string) {
     if (!existsSync(file))
@@ -145,17 +151,17 @@ export class Kb {
       const slice = keys.slice(i, i + MAX_IN);
       let stmt = this.keyStmts.get(slice.length);
       if (stmt === undefined) {
-        stmt = this.db.prepare(
-          `SELECT key, class, kind, eid FROM keys WHERE key IN (${slice.map(() => "?").join(",")})`,
-        );
+        stmt = this.db
+          .prepare(`SELECT key, class, kind, eid FROM keys WHERE key IN (${slice.map(() => "?").join(",")})`)
+          .raw(true);
         this.keyStmts.set(slice.length, stmt);
       }
-      for (const r of stmt.all(...slice)) {
+      for (const r of stmt.all(...slice) as unknown as unknown[][]) {
         out.push({
-          key: r.key as string,
-          cls: r.class as EntityClass,
-          kind: r.kind as KeyKind,
-          eid: r.eid as number,
+          key: r[0] as string,
+          cls: r[1] as EntityClass,
+          kind: r[2] as KeyKind,
+          eid: r[3] as number,
         });
       }
     }
@@ -197,6 +203,23 @@ export class Kb {
   /** Table tokens sharing a one-deletion variant with `variant`. */
   tokensForVariant(variant: string): string[] {
     return this.stmts.deletes.all(variant).map((r) => r.token);
+  }
+
+  /** Table tokens for any of the variants, in one query per 32 variants. */
+  tokensForVariants(variants: readonly string[]): string[] {
+    const out: string[] = [];
+    for (let i = 0; i < variants.length; i += MAX_IN) {
+      const slice = variants.slice(i, i + MAX_IN);
+      let stmt = this.deleteStmts.get(slice.length);
+      if (stmt === undefined) {
+        stmt = this.db.prepare(
+          `SELECT DISTINCT token FROM deletes WHERE variant IN (${slice.map(() => "?").join(",")})`,
+        );
+        this.deleteStmts.set(slice.length, stmt);
+      }
+      for (const r of stmt.all(...slice)) out.push(r.token as string);
+    }
+    return out;
   }
 
   /** Number of entities whose context mentions `term` (0 when unknown). */
@@ -254,6 +277,14 @@ export class Kb {
   /** Every entity of a class, in table order (the brute-force baseline walks this). */
   *entitiesOfClass(cls: EntityClass): Generator<number> {
     for (const r of this.stmts.byClass.iterate(cls)) yield r.eid;
+  }
+
+  /** Every entity row of a class, decoded, streamed in table order without touching the cache. */
+  *entityRowsOfClass(cls: EntityClass): Generator<EntityRow> {
+    const stmt = this.db.prepare(
+      "SELECT eid, id, name, type, class, description, prior, attributes, terms, forms FROM entities WHERE class = ? ORDER BY eid",
+    );
+    for (const r of stmt.iterate(cls)) yield decodeEntity(r as Record<string, unknown>);
   }
 }
 

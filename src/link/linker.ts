@@ -276,23 +276,41 @@ export class Linker {
    * design; benchmarks compare candidate generation against it.
    */
   bruteForce(m: Mention): LinkRow {
-    const p = this.prepare(m);
-    // Keep only the best maxCandidates: memory stays flat however large the class is.
+    return this.bruteForceMany([m])[0]!;
+  }
+
+  /**
+   * The baseline for many mentions at once: the table is read once per class and every entity is
+   * scored against every mention that may be of that class; each mention keeps its best
+   * maxCandidates. Same result as calling bruteForce on each, a table scan instead of one per mention.
+   */
+  bruteForceMany(mentions: readonly Mention[]): LinkRow[] {
     const keep = this.cand.maxCandidates;
-    let scored: ScoredCandidate[] = [];
-    for (const f of p.forms) {
-      for (const eid of this.kb.entitiesOfClass(f.cls)) {
-        scored.push(this.scoreOne(p, this.kb.entity(eid), f.cls, new Set()));
-        if (scored.length >= 4 * keep) scored = bestOf(scored, keep);
+    const prepared = mentions.map((m) => this.prepare(m));
+    const best: ScoredCandidate[][] = prepared.map(() => []);
+    for (const cls of ENTITY_CLASSES) {
+      const takers = prepared
+        .map((p, i) => [p, i] as const)
+        .filter(([p]) => p.forms.some((f) => f.cls === cls));
+      if (takers.length === 0) continue;
+      for (const e of this.kb.entityRowsOfClass(cls)) {
+        for (const [p, i] of takers) {
+          const list = best[i]!;
+          list.push(this.scoreOne(p, e, cls, new Set()));
+          // Prune now and then: memory stays flat however large the class is.
+          if (list.length >= 4 * keep) best[i] = bestOf(list, keep);
+        }
       }
     }
-    scored = bestOf(scored, keep);
-    const decision = decide(
-      scored.map((s) => s.score),
-      this.config.threshold,
-      this.config.minMargin,
-    );
-    return this.rowFor({ p, scored, decision });
+    return prepared.map((p, i) => {
+      const scored = bestOf(best[i]!, keep);
+      const decision = decide(
+        scored.map((s) => s.score),
+        this.config.threshold,
+        this.config.minMargin,
+      );
+      return this.rowFor({ p, scored, decision });
+    });
   }
 
   /**
