@@ -33,9 +33,10 @@ export interface CandidateOptions {
   /** Corrections kept per unknown token (closest first, then most frequent). Default 6. */
   fuzzyMaxCorrections: number;
   /**
-   * Skip token search when an exact or acronym key already matched: the search would only add
-   * entities sharing some words, which score below the key match. Default true (measured in
-   * benchmarks/README.md: completeness barely moves, linking gets much faster).
+   * Skip token search and fuzzy correction when a whole key (exact, acronym, initials, OCR)
+   * already matched: they would only add entities sharing some words, which score below the key
+   * match. Default true (measured in benchmarks/README.md: completeness barely moves, linking
+   * gets much faster).
    */
   skipSearchOnKeyMatch: boolean;
   /** Paths that run; default all. Turning one off is how their value is measured. */
@@ -107,21 +108,37 @@ export function generateCandidates(
     probe(norm.ocrKey, cls, "ocr", "ocr");
   }
 
+  const runProbes = () => {
+    if (probes.size === 0) return;
+    for (const hit of kb.lookupKeys([...probes.keys()])) {
+      for (const p of probes.get(hit.key) ?? [])
+        if (p.cls === hit.cls && p.kind === hit.kind) add(hit.eid, hit.cls, p.path);
+    }
+    probes.clear();
+  };
+  runProbes();
+  // A whole-key match (exact, acronym, initials or OCR key) already names the entity: token
+  // search and fuzzy correction would only add entities that share some words, scoring below it.
+  const keyMatched = [...found.values()].some((c) => [...c.paths].some((p) => PRECISE_PATHS.has(p)));
+  const search = !(opts.skipSearchOnKeyMatch && keyMatched);
+
   // Tokens known to the table feed the token search; unknown ones go to fuzzy correction.
   const tokens = new Set<string>();
   for (const f of forms) for (const t of f.norm.tokens) tokens.add(t);
   const knownDf: Array<[string, number]> = [];
   const unknown: string[] = [];
   let queried = 0;
-  for (const t of tokens) {
-    if (t.length < MIN_FTS_TOKEN_LENGTH || queried >= MAX_QUERY_TOKENS) continue;
-    queried++;
-    const df = kb.tokenDf(t);
-    if (df === 0) unknown.push(t);
-    else if (df <= opts.ftsMaxDf) knownDf.push([t, df]);
+  if (search) {
+    for (const t of tokens) {
+      if (t.length < MIN_FTS_TOKEN_LENGTH || queried >= MAX_QUERY_TOKENS) continue;
+      queried++;
+      const df = kb.tokenDf(t);
+      if (df === 0) unknown.push(t);
+      else if (df <= opts.ftsMaxDf) knownDf.push([t, df]);
+    }
   }
   const corrected = new Map<string, string[]>();
-  if (on.has("fuzzy")) {
+  if (search && on.has("fuzzy")) {
     for (const t of unknown.slice(0, MAX_FUZZY_TOKENS)) {
       const fixes = correctToken(kb, t, opts);
       if (fixes.length > 0) corrected.set(t, fixes);
@@ -131,19 +148,12 @@ export function generateCandidates(
       const key = norm.tokens.map((t) => corrected.get(t)?.[0] ?? t).join(" ");
       if (key !== norm.key) probe(key, cls, "exact", "fuzzy");
     }
-  }
-  if (probes.size > 0) {
-    for (const hit of kb.lookupKeys([...probes.keys()])) {
-      for (const p of probes.get(hit.key) ?? [])
-        if (p.cls === hit.cls && p.kind === hit.kind) add(hit.eid, hit.cls, p.path);
-    }
+    runProbes();
   }
 
   // Token search hits carry no class: it comes from the entity rows, loaded in one batch.
   const searched: Array<[number, CandidatePath]> = [];
-  // A full key match already names the entity; token search then only adds weaker look-alikes.
-  const keyMatched = [...found.values()].some((c) => c.paths.has("exact") || c.paths.has("acronym"));
-  if (on.has("fts") && knownDf.length > 0 && !(opts.skipSearchOnKeyMatch && keyMatched)) {
+  if (on.has("fts") && knownDf.length > 0) {
     for (const eid of kb.searchAliases(rarestFirst([...knownDf]), opts.ftsLimit)) searched.push([eid, "fts"]);
   }
   if (corrected.size > 0) {

@@ -9,9 +9,12 @@ import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION, normalizeName } from "../normalize/name.js";
+import { termListNorm } from "../score/context.js";
 import { contextTerms } from "../score/terms.js";
+import { idf } from "../score/tfidf.js";
 import type { EntityRecord } from "../types.js";
 import { InputError } from "../util/errors.js";
+import { BloomFilter } from "./bloom.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
 import {
@@ -237,14 +240,54 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   const insVocab = db.prepare("INSERT INTO vocab (token, df) VALUES (?, ?)");
   const insDelete = db.prepare("INSERT OR IGNORE INTO deletes (variant, token) VALUES (?, ?)");
   const insIdf = db.prepare("INSERT INTO idf (term, df) VALUES (?, ?)");
+  // Deletion variants sorted before insertion: appending to a B-tree in key order is far faster
+  // than inserting at random places.
+  const pairs: Array<[string, string]> = [];
+  for (const token of vocab.keys()) {
+    if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
+      for (const v of deletionVariants(token)) pairs.push([v, token]);
+  }
+  pairs.sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : a[1] < b[1] ? -1 : a[1] > b[1] ? 1 : 0));
+  const variantFilter = BloomFilter.forItems(pairs.length);
+  const tokenFilter = BloomFilter.forItems(vocab.size);
   db.transaction(() => {
     for (const [token, df] of vocab) {
       insVocab.run(token, df);
-      if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
-        for (const v of deletionVariants(token)) insDelete.run(v, token);
+      tokenFilter.add(token);
+    }
+    for (const [v, t] of pairs) {
+      insDelete.run(v, t);
+      variantFilter.add(v);
     }
     for (const [term, df] of termDf) insIdf.run(term, df);
   })();
+  pairs.length = 0;
+  // Context norms need the final IDF, so they are written in a second pass over the entities.
+  const docs = eid;
+  const idfOf = (t: string) => idf(termDf.get(t) ?? 0, docs);
+  const setNorm = db.prepare("UPDATE entities SET ctx_norm = ? WHERE eid = ?");
+  const readTerms = db.prepare("SELECT eid, terms FROM entities").raw(true);
+  const norms: Array<[number, number]> = [];
+  for (const r of readTerms.iterate()) {
+    const [id, terms] = r as [number, string];
+    if (terms !== "") norms.push([termListNorm(terms.split(" "), idfOf), id]);
+  }
+  db.transaction(() => {
+    for (const [norm, id] of norms) setNorm.run(norm, id);
+  })();
+  // The key filter is filled from the keys table: its size is only known now.
+  const distinctKeys = (db.prepare("SELECT count(DISTINCT key) AS n FROM keys").get() as { n: number }).n;
+  const keyFilter = BloomFilter.forItems(distinctKeys);
+  for (const row of db.prepare("SELECT DISTINCT key FROM keys").raw(true).iterate())
+    keyFilter.add((row as unknown[])[0] as string);
+  const insFilter = db.prepare("INSERT INTO filters (name, m, k, bits) VALUES (?, ?, ?, ?)");
+  for (const [name, f] of [
+    ["keys", keyFilter],
+    ["variants", variantFilter],
+    ["tokens", tokenFilter],
+  ] as const) {
+    insFilter.run(name, f.m, f.k, Buffer.from(f.bits.buffer, f.bits.byteOffset, f.bits.byteLength));
+  }
   return {
     entities: eid,
     aliases: aid,

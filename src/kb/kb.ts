@@ -5,6 +5,7 @@
 import { existsSync } from "node:fs";
 import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
+import { BloomFilter } from "./bloom.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
 import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, unpackForms } from "./schema.js";
@@ -50,6 +51,8 @@ export interface EntityRow {
   attributes: Record<string, string>;
   /** Sorted stemmed context terms (repeated per occurrence). */
   terms: string[];
+  /** TF-IDF norm of `terms`, computed at index time. */
+  contextNorm: number;
   aliases: AliasRow[];
 }
 
@@ -109,6 +112,10 @@ export class Kb {
   private readonly entityCache = new GenerationCache<number, EntityRow>(ENTITY_CACHE_SIZE);
   private readonly idfCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
   private readonly vocabCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
+  /** Bloom filters over keys, deletion variants and tokens (null: answer from SQLite alone). */
+  private readonly keyFilter: BloomFilter | null;
+  private readonly variantFilter: BloomFilter | null;
+  private readonly tokenFilter: BloomFilter | null;
   /** IN (...) statements by arity, prepared on first use. */
   private readonly keyStmts = new Map<number, Database.Statement<unknown[], unknown>>();
   private readonly entityStmts = new Map<number, Database.Statement<number[], Record<string, unknown>>>();
@@ -126,6 +133,21 @@ export class Kb {
     }
     this.db = db;
     this.info = readInfo(db, file);
+    const filters = new Map<string, BloomFilter>();
+    for (const r of db.prepare("SELECT name, m, k, bits FROM filters").all() as Array<{
+      name: string;
+      m: number;
+      k: number;
+      bits: Buffer;
+    }>) {
+      filters.set(
+        r.name,
+        new BloomFilter(r.m, r.k, new Uint8Array(r.bits.buffer, r.bits.byteOffset, r.bits.byteLength)),
+      );
+    }
+    this.keyFilter = filters.get("keys") ?? null;
+    this.variantFilter = filters.get("variants") ?? null;
+    this.tokenFilter = filters.get("tokens") ?? null;
     this.stmts = {
       // Unranked: rows come in position order, which is falling popularity (see schema.ts).
       fts: db.prepare(
@@ -145,8 +167,10 @@ export class Kb {
   }
 
   /** Every blocking-key row whose key is one of `keys` (any class and kind), in one query per 32 keys. */
-  lookupKeys(keys: readonly string[]): KeyHit[] {
+  lookupKeys(wanted: readonly string[]): KeyHit[] {
     const out: KeyHit[] = [];
+    const f = this.keyFilter;
+    const keys = f === null ? wanted : wanted.filter((k) => f.has(k));
     for (let i = 0; i < keys.length; i += MAX_IN) {
       const slice = keys.slice(i, i + MAX_IN);
       let stmt = this.keyStmts.get(slice.length);
@@ -192,6 +216,7 @@ export class Kb {
 
   /** How many entities have this token in a name or alias (0 when unknown). */
   tokenDf(token: string): number {
+    if (this.tokenFilter !== null && !this.tokenFilter.has(token)) return 0;
     let df = this.vocabCache.get(token);
     if (df === undefined) {
       df = this.stmts.vocab.get(token)?.df ?? 0;
@@ -206,8 +231,10 @@ export class Kb {
   }
 
   /** Table tokens for any of the variants, in one query per 32 variants. */
-  tokensForVariants(variants: readonly string[]): string[] {
+  tokensForVariants(wanted: readonly string[]): string[] {
     const out: string[] = [];
+    const f = this.variantFilter;
+    const variants = f === null ? wanted : wanted.filter((v) => f.has(v));
     for (let i = 0; i < variants.length; i += MAX_IN) {
       const slice = variants.slice(i, i + MAX_IN);
       let stmt = this.deleteStmts.get(slice.length);
@@ -249,7 +276,7 @@ export class Kb {
         let stmt = this.entityStmts.get(slice.length);
         if (stmt === undefined) {
           stmt = this.db.prepare(
-            "SELECT eid, id, name, type, class, description, prior, attributes, terms, forms FROM entities " +
+            "SELECT eid, id, name, type, class, description, prior, attributes, terms, ctx_norm, forms FROM entities " +
               `WHERE eid IN (${slice.map(() => "?").join(",")})`,
           );
           this.entityStmts.set(slice.length, stmt);
@@ -282,7 +309,7 @@ export class Kb {
   /** Every entity row of a class, decoded, streamed in table order without touching the cache. */
   *entityRowsOfClass(cls: EntityClass): Generator<EntityRow> {
     const stmt = this.db.prepare(
-      "SELECT eid, id, name, type, class, description, prior, attributes, terms, forms FROM entities WHERE class = ? ORDER BY eid",
+      "SELECT eid, id, name, type, class, description, prior, attributes, terms, ctx_norm, forms FROM entities WHERE class = ? ORDER BY eid",
     );
     for (const r of stmt.iterate(cls)) yield decodeEntity(r as Record<string, unknown>);
   }
@@ -306,6 +333,7 @@ function decodeEntity(r: Record<string, unknown>): EntityRow {
       return parsed;
     },
     terms: terms === "" ? [] : terms.split(" "),
+    contextNorm: r.ctx_norm as number,
     aliases: unpackForms(r.forms as string).map((f, i) => ({ ...f, aid: i, tokens: f.key.split(" ") })),
   };
 }

@@ -16,6 +16,8 @@
  * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
  *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
  * - idf: document frequency of each context term.
+ * - filters: Bloom filters (see bloom.ts) over blocking keys, deletion variants and alias tokens,
+ *   loaded into memory on open so probes for absent keys never reach SQLite.
  */
 
 /** Identifies a hawser KB among SQLite files. */
@@ -35,6 +37,7 @@ CREATE TABLE entities (
   prior REAL NOT NULL,
   attributes TEXT NOT NULL,
   terms TEXT NOT NULL,
+  ctx_norm REAL NOT NULL DEFAULT 0,
   forms TEXT NOT NULL
 );
 CREATE TABLE aliases (
@@ -52,6 +55,7 @@ CREATE TABLE fts_rows (pos INTEGER PRIMARY KEY, eid INTEGER NOT NULL);
 CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
 CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
+CREATE TABLE filters (name TEXT PRIMARY KEY, m INTEGER NOT NULL, k INTEGER NOT NULL, bits BLOB NOT NULL) WITHOUT ROWID;
 `;
 
 /**

@@ -122,24 +122,3 @@ export function decisionReason(
       };
   }
 }
-
-/** Terms both vectors contain, heaviest product first (the words the context reason cites). */
-export function sharedTerms(
-  a: { terms: string[]; weights: Float64Array },
-  b: { terms: string[]; weights: Float64Array },
-): string[] {
-  const out: Array<[string, number]> = [];
-  let i = 0;
-  let j = 0;
-  while (i < a.terms.length && j < b.terms.length) {
-    const x = a.terms[i]!;
-    const y = b.terms[j]!;
-    if (x === y) {
-      out.push([x, a.weights[i]! * b.weights[j]!]);
-      i++;
-      j++;
-    } else if (x < y) i++;
-    else j++;
-  }
-  return out.sort((p, q) => q[1] - p[1]).map(([t]) => t);
-}

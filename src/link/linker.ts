@@ -17,6 +17,7 @@ import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import { features, type NameMatch, nameMatch, priorFeature } from "../score/features.js";
+import { contextCosine } from "../score/context.js";
 import { contextTerms } from "../score/terms.js";
 import { buildVector, idf, type TermVector } from "../score/tfidf.js";
 import {
@@ -40,7 +41,7 @@ import {
   documentEvidence,
 } from "../document/evidence.js";
 import type { Decision } from "../decide/decide.js";
-import { decisionReason, evidenceReasons, sharedTerms } from "./explain.js";
+import { decisionReason, evidenceReasons } from "./explain.js";
 
 export interface LinkerOptions {
   /** Feature weights of the score combination. Default: DEFAULT_WEIGHTS (src/score/combine.ts). */
@@ -89,8 +90,10 @@ export interface ScoredCandidate {
   score: number;
   paths: Set<CandidatePath>;
   name: NameMatch;
-  contextVector: TermVector;
 }
+
+/** The mention's context vector, with each term's IDF kept for the merge with entity terms. */
+type MentionVector = TermVector & { idfs: Float64Array };
 
 interface Analysis {
   p: Prepared;
@@ -102,7 +105,7 @@ interface Prepared {
   mention: Mention;
   info: LabelInfo;
   forms: MentionForm[];
-  context: TermVector | null;
+  context: MentionVector | null;
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;
@@ -115,7 +118,6 @@ export class Linker {
   private readonly cand: CandidateOptions;
   private readonly blockMinCompat: number;
   private readonly idfOf: (t: string) => number;
-  private readonly entityVectors = new WeakMap<EntityRow, TermVector>();
   /** Document-level evidence steps in force (all off when document evidence is disabled). */
   readonly documentSteps: DocumentEvidenceOptions;
 
@@ -167,44 +169,25 @@ export class Linker {
         if (info.compat[cls] >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls) });
       }
     }
-    let context: TermVector | null = null;
+    let context: MentionVector | null = null;
     if (m.context !== undefined && m.context.trim() !== "") {
       // The mention's own words are left out: every candidate shares them, so they say nothing.
       const own = new Set(contextTerms(text));
       const terms = contextTerms(m.context).filter((t) => !own.has(t));
-      if (terms.length > 0) context = buildVector(terms, this.idfOf);
+      if (terms.length > 0) {
+        const v = buildVector(terms, this.idfOf);
+        context = { ...v, idfs: Float64Array.from(v.terms, this.idfOf) };
+      }
     }
     return { mention: m, info, forms, context };
-  }
-
-  private vectorOf(e: EntityRow): TermVector {
-    let v = this.entityVectors.get(e);
-    if (v === undefined) {
-      v = buildVector(e.terms, this.idfOf);
-      this.entityVectors.set(e, v);
-    }
-    return v;
   }
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
     const name = nameMatch(form.norm, e);
-    const vector = this.vectorOf(e);
-    const f = features(
-      name,
-      p.context,
-      vector,
-      p.info.compat[e.cls],
-      priorFeature(e.prior, this.kb.info.maxPrior),
-    );
-    return {
-      entity: e,
-      features: f,
-      score: combine(f, this.config.weights),
-      paths,
-      name,
-      contextVector: vector,
-    };
+    const context = p.context === null ? 0 : contextCosine(p.context, e.terms, e.contextNorm);
+    const f = features(name, context, p.info.compat[e.cls], priorFeature(e.prior, this.kb.info.maxPrior));
+    return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
   }
 
   /** Every generated candidate, scored, best first. */
@@ -370,7 +353,7 @@ export class Linker {
     const runner = scored.length > 1 ? scored[1]! : null;
     reasons.push(decisionReason(d, this.config.threshold, this.config.minMargin, label(best), label(runner)));
     if (best !== null) {
-      const shared = p.context === null ? [] : sharedTerms(p.context, best.contextVector);
+      const shared = this.sharedTerms(p, best.entity);
       reasons.push(
         ...evidenceReasons({
           entity: best.entity.id,
@@ -405,6 +388,13 @@ export class Linker {
     };
   }
 
+  /** Context words the mention shares with the entity, heaviest first (for the reasons). */
+  private sharedTerms(p: Prepared, e: EntityRow): string[] {
+    const out: string[] = [];
+    if (p.context !== null) contextCosine(p.context, e.terms, e.contextNorm, out);
+    return out;
+  }
+
   private candidatesOut(scored: readonly ScoredCandidate[]): CandidateOut[] {
     return scored.slice(0, this.top).map((s) => ({
       entity: s.entity.id,
@@ -425,7 +415,7 @@ export class Linker {
     const m = a.p.mention;
     const others = a.scored.filter((s) => s.entity.eid !== chosen.entity.eid);
     const runner = others[0];
-    const shared = a.p.context === null ? [] : sharedTerms(a.p.context, chosen.contextVector);
+    const shared = this.sharedTerms(a.p, chosen.entity);
     const reasons: Reason[] = [
       o.reason,
       ...evidenceReasons({

@@ -11,7 +11,6 @@ import {
   levenshteinSimilarity,
   tokenSetSimilarity,
 } from "./name-similarity.js";
-import { cosine, type TermVector } from "./tfidf.js";
 
 /** exactKey credit when only the OCR-folded keys agree: strong evidence, weaker than an exact key. */
 export const OCR_KEY_CREDIT = 0.75;
@@ -118,20 +117,15 @@ export function priorFeature(prior: number, maxPrior: number): number {
   return Math.min(1, Math.log1p(prior) / Math.log1p(maxPrior));
 }
 
-export function features(
-  name: NameMatch,
-  mentionContext: TermVector | null,
-  entityContext: TermVector,
-  typeMatch: number,
-  prior: number,
-): Features {
+/** Assemble the feature vector; `context` is the TF-IDF cosine (src/score/context.ts). */
+export function features(name: NameMatch, context: number, typeMatch: number, prior: number): Features {
   return {
     jaroWinkler: name.jaroWinkler,
     levenshtein: name.levenshtein,
     tokenSet: name.tokenSet,
     abbreviation: name.abbreviation,
     exactKey: name.exactKey,
-    context: mentionContext === null ? 0 : cosine(mentionContext, entityContext),
+    context,
     typeMatch,
     prior,
   };
