@@ -130,12 +130,44 @@ function stripPerson(tokens: string[]): Stripped {
   return { tokens: core.length > 0 ? core : tokens.slice(), suffix, legal: [] };
 }
 
+/** Legal forms long enough that one OCR slip cannot turn another word into them. */
+const LONG_LEGAL_FORMS = Object.keys(LEGAL_FORMS).filter((f) => f.length >= 7);
+
+/**
+ * The canonical legal form a token spells, also through one OCR slip or typo ("Lirnited",
+ * "Limtied", "Cornpany", "Brothesr"): legal words are the most frequent words of firm names, so
+ * old print misreads them often, and a misread one must not end up in the matching key.
+ */
+export function legalFormOf(token: string): string | undefined {
+  const direct = LEGAL_FORMS[token];
+  if (direct !== undefined) return direct;
+  if (token.length < 7) return undefined;
+  const read = token.replace(/rn/g, "m").replace(/cl/g, "d");
+  if (LEGAL_FORMS[read] !== undefined) return LEGAL_FORMS[read];
+  for (const f of LONG_LEGAL_FORMS)
+    if (withinOneEdit(token, f) || withinOneEdit(read, f)) return LEGAL_FORMS[f];
+  return undefined;
+}
+
+/** True when a and b differ by at most one substitution, insertion, deletion or adjacent swap. */
+function withinOneEdit(a: string, b: string): boolean {
+  if (Math.abs(a.length - b.length) > 1) return false;
+  let i = 0;
+  while (i < a.length && i < b.length && a[i] === b[i]) i++;
+  if (i === a.length && i === b.length) return true;
+  if (a.length === b.length) {
+    if (a.slice(i + 1) === b.slice(i + 1)) return true; // substitution
+    return a[i] === b[i + 1] && a[i + 1] === b[i] && a.slice(i + 2) === b.slice(i + 2); // swap
+  }
+  return a.length > b.length ? a.slice(i + 1) === b.slice(i) : a.slice(i) === b.slice(i + 1);
+}
+
 function stripOrganization(tokens: string[]): Stripped {
   const core: string[] = [];
   const legal: string[] = [];
   for (let i = 0; i < tokens.length; i++) {
     const t = tokens[i]!;
-    const form = LEGAL_FORMS[t];
+    const form = legalFormOf(t);
     // Legal forms are only stripped after the first core word ("Company of Watermen" keeps its head).
     if (form !== undefined && core.length > 0) {
       if (form !== "and") legal.push(form);
