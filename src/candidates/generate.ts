@@ -13,7 +13,7 @@
  */
 import { distance } from "fastest-levenshtein";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
-import type { Kb } from "../kb/kb.js";
+import type { EntityRow, Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import type { CandidatePath, EntityClass } from "../types.js";
@@ -59,6 +59,8 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
 const PRECISE_PATHS: ReadonlySet<CandidatePath> = new Set(["exact", "acronym", "initials", "ocr"]);
 /** Shortest token worth an FTS term: single letters are initials, matched by the initials path. */
 const MIN_FTS_TOKEN_LENGTH = 2;
+/** Most candidates loaded to choose among when there are more than maxCandidates. */
+const PRE_RANK_MAX = 400;
 /** Tokens of one mention looked at by token search; a 10,000-character "name" is noise past this. */
 const MAX_QUERY_TOKENS = 12;
 /** Unknown tokens of one mention sent to fuzzy correction. */
@@ -77,10 +79,16 @@ export interface MentionForm {
   norm: NormalizedName;
 }
 
+/**
+ * Generate the candidates of one mention. `preRank`, when given, values entity rows by the
+ * evidence that does not depend on the name (context, type, popularity); it decides which
+ * candidates are kept when more than maxCandidates are found.
+ */
 export function generateCandidates(
   kb: Kb,
   forms: readonly MentionForm[],
   opts: CandidateOptions,
+  preRank?: (rows: readonly EntityRow[]) => number[],
 ): RawCandidate[] {
   const found = new Map<number, RawCandidate>();
   let order = 0;
@@ -179,15 +187,21 @@ export function generateCandidates(
     (a, b) => Number(isPrecise(b)) - Number(isPrecise(a)) || b.paths.size - a.paths.size || a.rank - b.rank,
   );
   if (all.length <= opts.maxCandidates) return all;
-  // Too many: precise hits beyond the cap are chosen by popularity (many entities share one full name).
-  const precise = all.filter(isPrecise);
-  if (precise.length >= opts.maxCandidates) {
-    const priors = new Map(kb.entities(precise.map((c) => c.eid)).map((e) => [e.eid, e.prior]));
-    return precise
-      .sort((a, b) => priors.get(b.eid)! - priors.get(a.eid)! || a.rank - b.rank)
-      .slice(0, opts.maxCandidates);
+  // Too many (many entities share one name): each tier that does not fit whole is cut by the
+  // pre-rank (context and popularity, the evidence that separates same-name entities), else by
+  // popularity alone. At most PRE_RANK_MAX candidates are loaded for that.
+  const pool = all.slice(0, PRE_RANK_MAX);
+  const rows = kb.entities(pool.map((c) => c.eid));
+  const pre = preRank ? preRank(rows) : rows.map((e) => e.prior);
+  const value = new Map(pool.map((c, i) => [c.eid, pre[i]!]));
+  const out: RawCandidate[] = [];
+  for (const tier of [pool.filter(isPrecise), pool.filter((c) => !isPrecise(c))]) {
+    const room = opts.maxCandidates - out.length;
+    if (room <= 0) break;
+    if (tier.length > room) tier.sort((a, b) => value.get(b.eid)! - value.get(a.eid)! || a.rank - b.rank);
+    out.push(...tier.slice(0, room));
   }
-  return all.slice(0, opts.maxCandidates);
+  return out;
 }
 
 /** Tokens ordered rarest first: the rarest token says most about which entity is meant. */

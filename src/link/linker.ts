@@ -190,6 +190,22 @@ export class Linker {
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
   }
 
+  /**
+   * The part of the score that does not depend on the name (context, type, prior), used to
+   * choose among more same-name candidates than maxCandidates.
+   */
+  private preRankFor(p: Prepared): (rows: readonly EntityRow[]) => number[] {
+    const w = this.config.weights.features;
+    const maxPrior = this.kb.info.maxPrior;
+    return (rows) =>
+      rows.map(
+        (e) =>
+          w.context * (p.context === null ? 0 : contextCosine(p.context, e.terms, e.contextNorm)) +
+          w.typeMatch * p.info.compat[e.cls] +
+          w.prior * priorFeature(e.prior, maxPrior),
+      );
+  }
+
   /** Every generated candidate, scored, best first. */
   scoreCandidates(m: Mention): ScoredCandidate[] {
     const p = this.prepare(m);
@@ -198,7 +214,7 @@ export class Linker {
 
   private scorePrepared(p: Prepared): ScoredCandidate[] {
     if (p.forms.length === 0) return [];
-    const raw = generateCandidates(this.kb, p.forms, this.cand);
+    const raw = generateCandidates(this.kb, p.forms, this.cand, this.preRankFor(p));
     const rows = this.kb.entities(raw.map((c) => c.eid));
     const out = raw.map((c, i) => this.scoreOne(p, rows[i]!, c.cls, c.paths));
     return out.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
@@ -208,7 +224,7 @@ export class Linker {
   candidateIds(m: Mention): string[] {
     const p = this.prepare(m);
     if (p.forms.length === 0) return [];
-    const raw = generateCandidates(this.kb, p.forms, this.cand);
+    const raw = generateCandidates(this.kb, p.forms, this.cand, this.preRankFor(p));
     return this.kb.entities(raw.map((c) => c.eid)).map((e) => e.id);
   }
 
