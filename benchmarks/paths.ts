@@ -29,7 +29,11 @@ interface Setting {
 const without = (p: CandidatePath) => ALL_PATHS.filter((x) => x !== p);
 const SETTINGS: Setting[] = [
   { name: "all (default)", paths: [...ALL_PATHS] },
-  { name: "all, token search even after a key match", paths: [...ALL_PATHS], candidates: { skipSearchOnKeyMatch: false } },
+  {
+    name: "all, token search even after a key match",
+    paths: [...ALL_PATHS],
+    candidates: { skipSearchOnKeyMatch: false },
+  },
   ...ALL_PATHS.map((p) => ({ name: `without ${p}`, paths: without(p) })),
   { name: "exact only", paths: ["exact"] },
   { name: "exact + ocr", paths: ["exact", "ocr"] },

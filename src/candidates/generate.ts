@@ -13,7 +13,7 @@
  */
 import { distance } from "fastest-levenshtein";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
-import type { EntityRow, Kb } from "../kb/kb.js";
+import type { EntitySummary, Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import type { CandidatePath, EntityClass } from "../types.js";
@@ -60,7 +60,7 @@ const PRECISE_PATHS: ReadonlySet<CandidatePath> = new Set(["exact", "acronym", "
 /** Shortest token worth an FTS term: single letters are initials, matched by the initials path. */
 const MIN_FTS_TOKEN_LENGTH = 2;
 /** Most candidates loaded to choose among when there are more than maxCandidates. */
-const PRE_RANK_MAX = 400;
+const PRE_RANK_MAX = 300;
 /** Tokens of one mention looked at by token search; a 10,000-character "name" is noise past this. */
 const MAX_QUERY_TOKENS = 12;
 /** Unknown tokens of one mention sent to fuzzy correction. */
@@ -88,7 +88,7 @@ export function generateCandidates(
   kb: Kb,
   forms: readonly MentionForm[],
   opts: CandidateOptions,
-  preRank?: (rows: readonly EntityRow[]) => number[],
+  preRank?: (rows: readonly EntitySummary[]) => number[],
 ): RawCandidate[] {
   const found = new Map<number, RawCandidate>();
   let order = 0;
@@ -191,7 +191,7 @@ export function generateCandidates(
   // pre-rank (context and popularity, the evidence that separates same-name entities), else by
   // popularity alone. At most PRE_RANK_MAX candidates are loaded for that.
   const pool = all.slice(0, PRE_RANK_MAX);
-  const rows = kb.entities(pool.map((c) => c.eid));
+  const rows = kb.summaries(pool.map((c) => c.eid));
   const pre = preRank ? preRank(rows) : rows.map((e) => e.prior);
   const value = new Map(pool.map((c, i) => [c.eid, pre[i]!]));
   const out: RawCandidate[] = [];

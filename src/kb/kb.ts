@@ -56,6 +56,9 @@ export interface EntityRow {
   aliases: AliasRow[];
 }
 
+/** What choosing among same-name candidates needs of an entity. */
+export type EntitySummary = Pick<EntityRow, "eid" | "cls" | "prior" | "terms" | "contextNorm">;
+
 /** One blocking-key hit: the key, its class and kind, and the entity. */
 export interface KeyHit {
   key: string;
@@ -68,9 +71,9 @@ export interface KeyHit {
 const MAX_IN = 32;
 
 /** Entities kept decoded in memory: the same popular entities are candidates again and again. */
-const ENTITY_CACHE_SIZE = 20_000;
+const ENTITY_CACHE_SIZE = 4_000;
 /** IDF values kept in memory. */
-const IDF_CACHE_SIZE = 200_000;
+const IDF_CACHE_SIZE = 50_000;
 
 /**
  * A bounded cache in two generations: hits are looked up in the young map, then in the old one
@@ -119,6 +122,7 @@ export class Kb {
   /** IN (...) statements by arity, prepared on first use. */
   private readonly keyStmts = new Map<number, Database.Statement<unknown[], unknown>>();
   private readonly entityStmts = new Map<number, Database.Statement<number[], Record<string, unknown>>>();
+  private readonly summaryStmts = new Map<number, Database.Statement<unknown[], unknown>>();
   private readonly deleteStmts = new Map<number, Database.Statement<string[], Record<string, unknown>>>();
 
   constructor(file: string) {
@@ -294,6 +298,41 @@ export class Kb {
       }
     }
     return out as EntityRow[];
+  }
+
+  /**
+   * The name-free facts of entities (class, prior, context terms and norm), for choosing among
+   * many same-name candidates: a lighter read than `entities`, and not cached.
+   */
+  summaries(eids: readonly number[]): EntitySummary[] {
+    const byEid = new Map<number, EntitySummary>();
+    for (let i = 0; i < eids.length; i += MAX_IN) {
+      const slice = eids.slice(i, i + MAX_IN);
+      let stmt = this.summaryStmts.get(slice.length);
+      if (stmt === undefined) {
+        stmt = this.db
+          .prepare(
+            `SELECT eid, class, prior, terms, ctx_norm FROM entities WHERE eid IN (${slice.map(() => "?").join(",")})`,
+          )
+          .raw(true);
+        this.summaryStmts.set(slice.length, stmt);
+      }
+      for (const r of stmt.all(...slice) as unknown[][]) {
+        const terms = r[3] as string;
+        byEid.set(r[0] as number, {
+          eid: r[0] as number,
+          cls: r[1] as EntityClass,
+          prior: r[2] as number,
+          terms: terms === "" ? [] : terms.split(" "),
+          contextNorm: r[4] as number,
+        });
+      }
+    }
+    return eids.map((e) => {
+      const s = byEid.get(e);
+      if (s === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${e}`);
+      return s;
+    });
   }
 
   /** Internal id of a table id, or undefined. */

@@ -11,7 +11,7 @@ import {
   type MentionForm,
 } from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP } from "../decide/decide.js";
-import type { EntityRow, Kb } from "../kb/kb.js";
+import type { EntityRow, EntitySummary, Kb } from "../kb/kb.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
@@ -194,7 +194,7 @@ export class Linker {
    * The part of the score that does not depend on the name (context, type, prior), used to
    * choose among more same-name candidates than maxCandidates.
    */
-  private preRankFor(p: Prepared): (rows: readonly EntityRow[]) => number[] {
+  private preRankFor(p: Prepared): (rows: readonly EntitySummary[]) => number[] {
     const w = this.config.weights.features;
     const maxPrior = this.kb.info.maxPrior;
     return (rows) =>
