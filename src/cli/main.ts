@@ -332,8 +332,16 @@ export function program(): Command {
   p.command("demo")
     .description("run the whole job on the bundled sample tables (a river-port trade gazette archive)")
     .option("--out <dir>", "folder for the KB, links and config (default: a new temporary folder)")
-    .action(async (o: { out?: string }) => {
-      await demo({ ...(o.out ? { out: o.out } : {}), print: out });
+    .addOption(
+      new Option(
+        "--from <input>",
+        "start from the sample mentions as JSONL, CoNLL BIO tokens, or documents + spans",
+      )
+        .choices(["jsonl", "conll", "spans"])
+        .default("jsonl"),
+    )
+    .action(async (o: { out?: string; from: "jsonl" | "conll" | "spans" }) => {
+      await demo({ ...(o.out ? { out: o.out } : {}), from: o.from, print: out });
     });
   return p;
 }

@@ -7,11 +7,13 @@ import { mkdirSync, mkdtempSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import type { EvalReport } from "../evaluate/metrics.js";
+import { alignSpans, evaluateAligned } from "../evaluate/align.js";
+import { type EvalReport, evaluate as evaluateRows } from "../evaluate/metrics.js";
+import { UsageError } from "../util/errors.js";
 import type { LinkRow } from "../types.js";
-import { evaluate } from "./evaluate.js";
+import { evaluate, readLabeled } from "./evaluate.js";
 import { index } from "./index-table.js";
-import { link } from "./link.js";
+import { type LinkOptions, link } from "./link.js";
 import { tune } from "./tune.js";
 
 /** The bundled sample folder, found relative to the installed package. */
@@ -24,7 +26,14 @@ export interface DemoOptions {
   print?: (line: string) => void;
   /** Rows shown with their reasons. Default 4. */
   examples?: number;
+  /**
+   * Which form of the sample mentions to start from: `jsonl` (mentions with context), `conll`
+   * (the articles as BIO-tagged tokens) or `spans` (the articles plus character spans). Default jsonl.
+   */
+  from?: DemoInput;
 }
+
+export type DemoInput = "jsonl" | "conll" | "spans";
 
 export interface DemoResult {
   dir: string;
@@ -43,7 +52,17 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
   const dir = options.out ?? mkdtempSync(join(tmpdir(), "hawser-demo-"));
   mkdirSync(dir, { recursive: true });
   const table = join(SAMPLES_DIR, "gazette-entities.csv");
-  const mentions = join(SAMPLES_DIR, "gazette-mentions.jsonl");
+  const from = options.from ?? "jsonl";
+  const inputs: Record<DemoInput, { mentions: string; extra: Partial<LinkOptions> }> = {
+    jsonl: { mentions: join(SAMPLES_DIR, "gazette-mentions.jsonl"), extra: {} },
+    conll: { mentions: join(SAMPLES_DIR, "articles/gazette.conll"), extra: {} },
+    spans: {
+      mentions: join(SAMPLES_DIR, "articles/spans.jsonl"),
+      extra: { documents: join(SAMPLES_DIR, "articles/documents.jsonl"), window: { sentences: 1 } },
+    },
+  };
+  const input = inputs[from];
+  if (input === undefined) throw new UsageError(`unknown demo input "${from}": use jsonl, conll or spans`);
   const gold = join(SAMPLES_DIR, "gazette-gold.jsonl");
   const kb = join(dir, "gazette.kb");
   const links = join(dir, "links.jsonl");
@@ -53,19 +72,28 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
   print("hawser demo: The Harrowmouth Gazette & Shipping List, 1890-1930 (invented sample archive)");
   const built = await index({ table, out: kb, progress: false });
   print(`1. indexed ${built.entities} entities (${built.aliases} names and aliases) from ${table}`);
-  const s = await link({ kb, mentions, out: links, progress: false, warn: (m) => print(`   warning: ${m}`) });
-  print(`2. linked ${s.mentions} mentions: ${s.linked} linked, ${s.nil} NIL, in ${s.seconds.toFixed(2)}s`);
-  const before = (await evaluate({ kb, gold })) as EvalReport;
+  const s = await link({
+    kb,
+    mentions: input.mentions,
+    ...input.extra,
+    out: links,
+    progress: false,
+    warn: (m) => print(`   warning: ${m}`),
+  });
+  print(
+    `2. linked ${s.mentions} mentions from ${input.mentions}: ${s.linked} linked, ${s.nil} NIL, in ${s.seconds.toFixed(2)}s`,
+  );
+  const rows = readFileSync(links, "utf8")
+    .split("\n")
+    .filter(Boolean)
+    .map((l) => JSON.parse(l) as LinkRow);
+  const before = await measureRows(rows, gold, from);
   const o = before.overall;
   print(
     `3. against the gold set (defaults): accuracy ${pct(o.accuracy)}, link precision ${pct(o.linkPrecision)}, ` +
       `recall ${pct(o.linkRecall)}, F1 ${pct(o.linkF1)}; gold among candidates ${pct(before.candidateRecall.atAll)}`,
   );
   print("   a few rows with their reasons:");
-  const rows = readFileSync(links, "utf8")
-    .split("\n")
-    .filter(Boolean)
-    .map((l) => JSON.parse(l) as LinkRow);
   for (const r of pickExamples(rows, options.examples ?? 4)) {
     print(
       `   - "${r.text}" (${r.type ?? "no label"}) -> ${r.entity === null ? "NIL" : `${r.entity} ${r.name}`}, score ${r.score}`,
@@ -92,6 +120,22 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
   );
   print(`files: KB ${kb}\n       links ${links}\n       config ${config}\n       report ${report}`);
   return { dir, kb, links, config, report, before, after };
+}
+
+/**
+ * The linked rows against the gold set: by span alignment for spans input, by position for the
+ * others (the samples list mentions in the same order in every form; texts are checked).
+ */
+async function measureRows(rows: LinkRow[], goldFile: string, from: DemoInput): Promise<EvalReport> {
+  const gold = await readLabeled(goldFile);
+  if (from === "spans") return evaluateAligned(alignSpans(gold, rows, { mode: "strict", goldFile }));
+  if (rows.length !== gold.length)
+    throw new Error(`demo: ${rows.length} rows for ${gold.length} gold mentions`);
+  rows.forEach((r, i) => {
+    if (r.text !== gold[i]!.text)
+      throw new Error(`demo: row ${i + 1} "${r.text}" is not gold's "${gold[i]!.text}"`);
+  });
+  return evaluateRows(gold.map((g, i) => ({ gold: g, predicted: rows[i]! })));
 }
 
 /** One clean link, one fuzzy or abbreviated link, one NIL, one ambiguous or type-mismatched row. */
