@@ -118,7 +118,11 @@ describe("agree", () => {
     writeFileSync(a, lines.map((l) => JSON.stringify(l)).join("\n"));
     // Labeler B calls the first ten linked mentions NIL.
     let changed = 0;
-    const other = lines.map((l) => (l.gold !== null && changed < 10 ? (changed++, { ...l, gold: null }) : l));
+    const other = lines.map((l) => {
+      if (l.gold === null || changed >= 10) return l;
+      changed++;
+      return { ...l, gold: null };
+    });
     writeFileSync(b, other.map((l) => JSON.stringify(l)).join("\n"));
     const out = join(dir, "disagreements.jsonl");
     const r = await agree({ a, b, out });

@@ -4,9 +4,9 @@
  * document (the per-mention scores themselves are never changed):
  *
  * (a) `doc-same-text`: mentions with the same normalized text and class are decided together:
- *     the entity with the best mean score over the group is chosen for all of them, unless a
- *     member's own context clearly points elsewhere (its own best beats the group's entity by
- *     more than CONFLICT_MARGIN).
+ *     the entity with the best mean score over the group is given to the members left NIL on
+ *     their own, unless a member's own context clearly points elsewhere (its own best beats the
+ *     group's entity by more than CONFLICT_MARGIN); a member linked on its own keeps its link.
  * (b) `doc-short-form`: a short form (a surname alone, a firm without its legal form, a town
  *     without its qualifier) whose tokens are all in a fuller mention earlier in the document
  *     takes that mention's entity, unless its own best candidate clearly beats it.
@@ -176,7 +176,8 @@ function sameText(
     for (const i of members) {
       const item = items[i]!;
       const s = scoreFor(item, best.entity);
-      if (conflicts(item, s) || item.chosen?.entity.eid === best.entity.eid) continue;
+      // A mention that links to another entity on its own evidence keeps it: its context conflicts.
+      if (item.chosen !== null || conflicts(item, s)) continue;
       out.set(i, {
         chosen: s,
         reason: {
