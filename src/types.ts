@@ -121,6 +121,8 @@ export interface LinkRow {
   doc?: string;
   start?: number;
   end?: number;
+  /** The attributes (other table columns) of the linked entity; absent for NIL. */
+  attributes?: Record<string, string>;
   /** CoNLL input: sentence number and token offsets of the mention within its document. */
   sentence?: number;
   tokenStart?: number;

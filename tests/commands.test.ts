@@ -14,6 +14,8 @@ import { link } from "../src/commands/link.js";
 import { tune } from "../src/commands/tune.js";
 import type { AlignedEvalReport } from "../src/evaluate/align.js";
 import type { EvalReport } from "../src/evaluate/metrics.js";
+import { openKb } from "../src/kb/kb.js";
+import { createLinker } from "../src/link/linker.js";
 import { InputError } from "../src/util/errors.js";
 
 const dir = mkdtempSync(join(tmpdir(), "hawser-commands-"));
@@ -103,6 +105,24 @@ describe("eval", () => {
     const empty = join(dir, "empty.jsonl");
     writeFileSync(empty, "");
     await expect(evaluate({ kb, gold: empty })).rejects.toBeInstanceOf(InputError);
+  });
+});
+
+describe("link rows", () => {
+  it("return the linked entity's attributes (the table's other columns), none for NIL", () => {
+    const k = openKb(kb);
+    try {
+      const linker = createLinker(k);
+      // kb-samples/gazette-entities.csv: T0002 Stenmouth, river Sten, county Ambry Vale.
+      const row = linker.link({ id: "a", text: "Stenmouth", type: "LOC" });
+      expect(row.entity).toBe("T0002");
+      expect(row.attributes).toEqual({ river: "Sten", county: "Ambry Vale" });
+      const nil = linker.link({ id: "b", text: "Quorley Xandervane", type: "PER" });
+      expect(nil.entity).toBeNull();
+      expect(nil.attributes).toBeUndefined();
+    } finally {
+      k.close();
+    }
   });
 });
 

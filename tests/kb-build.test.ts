@@ -43,12 +43,13 @@ describe("buildKb on a good table", () => {
       expect(kb.info.byClass).toEqual(s.byClass);
       expect(kb.info.sourceFile).toBe("gazette.csv");
       expect(kb.info.maxPrior).toBe(12000);
-      // Attributes (the extra `port` column) and aliases come back with the entity.
+      // Attributes (the extra `port` column) and the description come back in the entity's
+      // details, the aliases with the entity.
       const eid = kb.eidOf("P05");
       expect(eid).toBeDefined();
       const e = kb.entity(eid!);
       expect(e.name).toBe("Ezra Quillon Marsh");
-      expect(e.attributes).toEqual({ port: "Fort Carrow" });
+      expect(kb.details(eid!).attributes).toEqual({ port: "Fort Carrow" });
       expect(e.aliases.map((a) => a.text)).toEqual(["Ezra Quillon Marsh", "Quillon Marsh"]);
     } finally {
       kb.close();
@@ -92,7 +93,7 @@ describe("buildKb on a good table", () => {
     expect(s2.aliases).toBe(3);
     expect(s2.byClass).toEqual({ person: 1, other: 1 });
     const kb = openKb(t.file("jsonl.kb"));
-    expect(kb.entity(kb.eidOf("P2")!).attributes).toEqual({ tonnage: "212" });
+    expect(kb.details(kb.eidOf("P2")!).attributes).toEqual({ tonnage: "212" });
     kb.close();
   });
 

@@ -162,8 +162,9 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     last = now;
   };
   const insEntity = db.prepare(
-    "INSERT INTO entities (eid, id, name, type, class, description, prior, attributes, terms, forms) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
+    "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms) VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
   );
+  const insDetails = db.prepare("INSERT INTO entity_details (eid, description, attributes) VALUES (?, ?, ?)");
   const insAlias = db.prepare(
     "INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)",
   );
@@ -217,18 +218,8 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
         if (a.n.acronym !== null) add(a.n.acronym, "acronym");
         add(a.n.initialsKey, "initials");
       }
-      insEntity.run(
-        eid,
-        r.id,
-        r.name,
-        r.type,
-        cls,
-        r.description,
-        r.prior,
-        JSON.stringify(r.attributes),
-        terms.join(" "),
-        packForms(packed),
-      );
+      insEntity.run(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
+      insDetails.run(eid, r.description, JSON.stringify(r.attributes));
       for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
     }
   });

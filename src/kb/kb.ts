@@ -46,9 +46,7 @@ export interface EntityRow {
   name: string;
   type: string;
   cls: EntityClass;
-  description: string;
   prior: number;
-  attributes: Record<string, string>;
   /** Sorted stemmed context terms (repeated per occurrence). */
   terms: string[];
   /** TF-IDF norm of `terms`, computed at index time. */
@@ -111,6 +109,7 @@ export class Kb {
     idf: Database.Statement<[string], { df: number }>;
     byClass: Database.Statement<[string], { eid: number }>;
     byId: Database.Statement<[string], { eid: number }>;
+    details: Database.Statement<[number], unknown>;
   };
   private readonly entityCache = new GenerationCache<number, EntityRow>(ENTITY_CACHE_SIZE);
   private readonly idfCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
@@ -162,6 +161,7 @@ export class Kb {
       deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
       idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
       byClass: db.prepare("SELECT eid FROM entities WHERE class = ? ORDER BY eid"),
+      details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
       byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
     };
   }
@@ -280,7 +280,7 @@ export class Kb {
         let stmt = this.entityStmts.get(slice.length);
         if (stmt === undefined) {
           stmt = this.db.prepare(
-            "SELECT eid, id, name, type, class, description, prior, attributes, terms, ctx_norm, forms FROM entities " +
+            "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities " +
               `WHERE eid IN (${slice.map(() => "?").join(",")})`,
           );
           this.entityStmts.set(slice.length, stmt);
@@ -335,6 +335,13 @@ export class Kb {
     });
   }
 
+  /** The description and attributes of an entity (not needed for scoring, so stored apart). */
+  details(eid: number): { description: string; attributes: Record<string, string> } {
+    const r = this.stmts.details.get(eid) as { description: string; attributes: string } | undefined;
+    if (r === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
+    return { description: r.description, attributes: JSON.parse(r.attributes) as Record<string, string> };
+  }
+
   /** Internal id of a table id, or undefined. */
   eidOf(id: string): number | undefined {
     return this.stmts.byId.get(id)?.eid;
@@ -348,7 +355,7 @@ export class Kb {
   /** Every entity row of a class, decoded, streamed in table order without touching the cache. */
   *entityRowsOfClass(cls: EntityClass): Generator<EntityRow> {
     const stmt = this.db.prepare(
-      "SELECT eid, id, name, type, class, description, prior, attributes, terms, ctx_norm, forms FROM entities WHERE class = ? ORDER BY eid",
+      "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities WHERE class = ? ORDER BY eid",
     );
     for (const r of stmt.iterate(cls)) yield decodeEntity(r as Record<string, unknown>);
   }
@@ -356,21 +363,13 @@ export class Kb {
 
 function decodeEntity(r: Record<string, unknown>): EntityRow {
   const terms = r.terms as string;
-  const attributes = r.attributes as string;
-  let parsed: Record<string, string> | undefined;
   return {
     eid: r.eid as number,
     id: r.id as string,
     name: r.name as string,
     type: r.type as string,
     cls: r.class as EntityClass,
-    description: r.description as string,
     prior: r.prior as number,
-    // Attributes are parsed only when read: scoring never needs them.
-    get attributes(): Record<string, string> {
-      parsed ??= JSON.parse(attributes) as Record<string, string>;
-      return parsed;
-    },
     terms: terms === "" ? [] : terms.split(" "),
     contextNorm: r.ctx_norm as number,
     aliases: unpackForms(r.forms as string).map((f, i) => ({ ...f, aid: i, tokens: f.key.split(" ") })),

@@ -3,7 +3,8 @@
  *
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
- * - entities: one row per table row; `terms` holds the stemmed context words of the description
+ * - entities: one row per table row, holding what scoring reads (the description and the
+ *   attributes live in entity_details, so that the rows read per candidate stay small); `terms` holds the stemmed context words of the description
  *   and attributes (sorted, repeated per occurrence) from which TF-IDF vectors are built;
  *   `forms` packs the normalized forms of its names (see packForms), so that scoring reads one
  *   row per candidate.
@@ -33,13 +34,12 @@ CREATE TABLE entities (
   name TEXT NOT NULL,
   type TEXT NOT NULL,
   class TEXT NOT NULL,
-  description TEXT NOT NULL,
   prior REAL NOT NULL,
-  attributes TEXT NOT NULL,
   terms TEXT NOT NULL,
   ctx_norm REAL NOT NULL DEFAULT 0,
   forms TEXT NOT NULL
 );
+CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
 CREATE TABLE aliases (
   aid INTEGER PRIMARY KEY,
   eid INTEGER NOT NULL,
