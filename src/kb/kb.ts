@@ -70,6 +70,8 @@ const MAX_IN = 32;
 
 /** Entities kept decoded in memory: the same popular entities are candidates again and again. */
 const ENTITY_CACHE_SIZE = 4_000;
+/** Entity summaries kept in memory (small: class, prior, context terms and norm). */
+const SUMMARY_CACHE_SIZE = 20_000;
 /** IDF values kept in memory. */
 const IDF_CACHE_SIZE = 50_000;
 
@@ -121,6 +123,8 @@ export class Kb {
   /** IN (...) statements by arity, prepared on first use. */
   private readonly keyStmts = new Map<number, Database.Statement<unknown[], unknown>>();
   private readonly entityStmts = new Map<number, Database.Statement<number[], Record<string, unknown>>>();
+  /** Summaries of entities seen among many namesakes: common names recur, so their pools do too. */
+  private readonly summaryCache = new GenerationCache<number, EntitySummary>(SUMMARY_CACHE_SIZE);
   private readonly summaryStmts = new Map<number, Database.Statement<unknown[], unknown>>();
   private readonly deleteStmts = new Map<number, Database.Statement<string[], Record<string, unknown>>>();
 
@@ -306,8 +310,14 @@ export class Kb {
    */
   summaries(eids: readonly number[]): EntitySummary[] {
     const byEid = new Map<number, EntitySummary>();
-    for (let i = 0; i < eids.length; i += MAX_IN) {
-      const slice = eids.slice(i, i + MAX_IN);
+    const missing: number[] = [];
+    for (const e of eids) {
+      const known = this.entityCache.get(e) ?? this.summaryCache.get(e);
+      if (known !== undefined) byEid.set(e, known);
+      else missing.push(e);
+    }
+    for (let i = 0; i < missing.length; i += MAX_IN) {
+      const slice = missing.slice(i, i + MAX_IN);
       let stmt = this.summaryStmts.get(slice.length);
       if (stmt === undefined) {
         stmt = this.db
@@ -319,13 +329,15 @@ export class Kb {
       }
       for (const r of stmt.all(...slice) as unknown[][]) {
         const terms = r[3] as string;
-        byEid.set(r[0] as number, {
+        const summary: EntitySummary = {
           eid: r[0] as number,
           cls: r[1] as EntityClass,
           prior: r[2] as number,
           terms: terms === "" ? [] : terms.split(" "),
           contextNorm: r[4] as number,
-        });
+        };
+        byEid.set(summary.eid, summary);
+        this.summaryCache.set(summary.eid, summary);
       }
     }
     return eids.map((e) => {
