@@ -120,13 +120,10 @@ export class Kb {
   private readonly keyFilter: BloomFilter | null;
   private readonly variantFilter: BloomFilter | null;
   private readonly tokenFilter: BloomFilter | null;
-  /** IN (...) statements by arity, prepared on first use. */
-  private readonly keyStmts = new Map<number, Database.Statement<unknown[], unknown>>();
-  private readonly entityStmts = new Map<number, Database.Statement<number[], Record<string, unknown>>>();
+  /** `... IN (?, ?, ...)` statements by text and arity, prepared on first use. */
+  private readonly inStatements = new Map<string, Database.Statement<unknown[], unknown>>();
   /** Summaries of entities seen among many namesakes: common names recur, so their pools do too. */
   private readonly summaryCache = new GenerationCache<number, EntitySummary>(SUMMARY_CACHE_SIZE);
-  private readonly summaryStmts = new Map<number, Database.Statement<unknown[], unknown>>();
-  private readonly deleteStmts = new Map<number, Database.Statement<string[], Record<string, unknown>>>();
 
   constructor(file: string) {
     if (!existsSync(file))
@@ -141,33 +138,53 @@ export class Kb {
     this.db = db;
     this.info = readInfo(db, file);
     const filters = new Map<string, BloomFilter>();
-    for (const r of db.prepare("SELECT name, m, k, bits FROM filters").all() as Array<{
-      name: string;
-      m: number;
-      k: number;
-      bits: Buffer;
-    }>) {
-      filters.set(
-        r.name,
-        new BloomFilter(r.m, r.k, new Uint8Array(r.bits.buffer, r.bits.byteOffset, r.bits.byteLength)),
+    try {
+      for (const r of db.prepare("SELECT name, m, k, bits FROM filters").all() as Array<{
+        name: string;
+        m: number;
+        k: number;
+        bits: Buffer;
+      }>) {
+        filters.set(
+          r.name,
+          new BloomFilter(r.m, r.k, new Uint8Array(r.bits.buffer, r.bits.byteOffset, r.bits.byteLength)),
+        );
+      }
+      this.stmts = {
+        // Unranked: rows come in position order, which is falling popularity (see schema.ts).
+        fts: db.prepare(
+          "SELECT r.eid AS eid FROM (SELECT rowid AS pos FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?) f " +
+            "JOIN fts_rows r ON r.pos = f.pos ORDER BY f.pos",
+        ),
+        vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
+        deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
+        idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
+        byClass: db.prepare("SELECT eid FROM entities WHERE class = ? ORDER BY eid"),
+        details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
+        byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
+      };
+    } catch (e) {
+      db.close();
+      throw new InputError(
+        { file },
+        `KB file is damaged or was built by an incompatible hawser (${(e as Error).message}): rebuild it with \`hawser index\``,
       );
     }
     this.keyFilter = filters.get("keys") ?? null;
     this.variantFilter = filters.get("variants") ?? null;
     this.tokenFilter = filters.get("tokens") ?? null;
-    this.stmts = {
-      // Unranked: rows come in position order, which is falling popularity (see schema.ts).
-      fts: db.prepare(
-        "SELECT r.eid AS eid FROM (SELECT rowid AS pos FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?) f " +
-          "JOIN fts_rows r ON r.pos = f.pos ORDER BY f.pos",
-      ),
-      vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
-      deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
-      idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
-      byClass: db.prepare("SELECT eid FROM entities WHERE class = ? ORDER BY eid"),
-      details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
-      byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
-    };
+  }
+
+  /** `${head} IN (?, ..., ?)` with `n` placeholders, prepared once per text and arity. */
+  private inStatement(head: string, n: number, raw: boolean): Database.Statement<unknown[], unknown> {
+    const key = `${raw ? "r" : "o"}${n}:${head}`;
+    let stmt = this.inStatements.get(key);
+    if (stmt === undefined) {
+      stmt = this.db.prepare(`${head} IN (${Array.from({ length: n }, () => "?").join(",")})`);
+      if (raw) stmt.raw(true);
+      this.inStatements.set(key, stmt);
+    }
+    return stmt;
   }
 
   close(): void {
@@ -181,14 +198,8 @@ export class Kb {
     const keys = f === null ? wanted : wanted.filter((k) => f.has(k));
     for (let i = 0; i < keys.length; i += MAX_IN) {
       const slice = keys.slice(i, i + MAX_IN);
-      let stmt = this.keyStmts.get(slice.length);
-      if (stmt === undefined) {
-        stmt = this.db
-          .prepare(`SELECT key, class, kind, eid FROM keys WHERE key IN (${slice.map(() => "?").join(",")})`)
-          .raw(true);
-        this.keyStmts.set(slice.length, stmt);
-      }
-      for (const r of stmt.all(...slice) as unknown as unknown[][]) {
+      const stmt = this.inStatement("SELECT key, class, kind, eid FROM keys WHERE key", slice.length, true);
+      for (const r of stmt.all(...slice) as unknown[][]) {
         out.push({
           key: r[0] as string,
           cls: r[1] as EntityClass,
@@ -245,14 +256,8 @@ export class Kb {
     const variants = f === null ? wanted : wanted.filter((v) => f.has(v));
     for (let i = 0; i < variants.length; i += MAX_IN) {
       const slice = variants.slice(i, i + MAX_IN);
-      let stmt = this.deleteStmts.get(slice.length);
-      if (stmt === undefined) {
-        stmt = this.db.prepare(
-          `SELECT DISTINCT token FROM deletes WHERE variant IN (${slice.map(() => "?").join(",")})`,
-        );
-        this.deleteStmts.set(slice.length, stmt);
-      }
-      for (const r of stmt.all(...slice)) out.push(r.token as string);
+      const stmt = this.inStatement("SELECT DISTINCT token FROM deletes WHERE variant", slice.length, true);
+      for (const r of stmt.all(...slice) as unknown[][]) out.push(r[0] as string);
     }
     return out;
   }
@@ -281,15 +286,12 @@ export class Kb {
       const loaded = new Map<number, EntityRow>();
       for (let i = 0; i < missing.length; i += MAX_IN) {
         const slice = missing.slice(i, i + MAX_IN);
-        let stmt = this.entityStmts.get(slice.length);
-        if (stmt === undefined) {
-          stmt = this.db.prepare(
-            "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities " +
-              `WHERE eid IN (${slice.map(() => "?").join(",")})`,
-          );
-          this.entityStmts.set(slice.length, stmt);
-        }
-        for (const r of stmt.all(...slice)) {
+        const stmt = this.inStatement(
+          "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities WHERE eid",
+          slice.length,
+          false,
+        );
+        for (const r of stmt.all(...slice) as Record<string, unknown>[]) {
           const row = decodeEntity(r);
           loaded.set(row.eid, row);
           this.entityCache.set(row.eid, row);
@@ -318,15 +320,11 @@ export class Kb {
     }
     for (let i = 0; i < missing.length; i += MAX_IN) {
       const slice = missing.slice(i, i + MAX_IN);
-      let stmt = this.summaryStmts.get(slice.length);
-      if (stmt === undefined) {
-        stmt = this.db
-          .prepare(
-            `SELECT eid, class, prior, terms, ctx_norm FROM entities WHERE eid IN (${slice.map(() => "?").join(",")})`,
-          )
-          .raw(true);
-        this.summaryStmts.set(slice.length, stmt);
-      }
+      const stmt = this.inStatement(
+        "SELECT eid, class, prior, terms, ctx_norm FROM entities WHERE eid",
+        slice.length,
+        true,
+      );
       for (const r of stmt.all(...slice) as unknown[][]) {
         const terms = r[3] as string;
         const summary: EntitySummary = {
