@@ -57,6 +57,11 @@ export class LabelMap {
     return this.lookup(label) ?? UNKNOWN_INFO;
   }
 
+  /** Whether a label is in the map (does not count it). */
+  knows(label: string | undefined | null): boolean {
+    return label !== undefined && label !== null && this.labels.has(foldLabel(label));
+  }
+
   /** Class of a table type; unknown table types are "other". */
   classOfTableType(type: string): EntityClass {
     return this.labels.get(foldLabel(type))?.cls ?? "other";

@@ -379,7 +379,8 @@ export class Linker {
           paths: best.paths,
           sharedTerms: shared,
           entityType: best.entity.type,
-          mentionType: m.type ?? null,
+          // An unknown label is compared at a neutral weight (and warned about), not a mismatch.
+          mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,
         }),
       );
     }
@@ -443,7 +444,7 @@ export class Linker {
         paths: chosen.paths,
         sharedTerms: shared,
         entityType: chosen.entity.type,
-        mentionType: m.type ?? null,
+        mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,
       }),
     ];
     if (runner !== undefined) {
