@@ -70,10 +70,6 @@ const MAX_IN = 32;
 
 /** Entities kept decoded in memory: the same popular entities are candidates again and again. */
 const ENTITY_CACHE_SIZE = 4_000;
-/** Key lookups and token searches kept in memory (each answer is a short list of ids). */
-const QUERY_CACHE_SIZE = 10_000;
-/** Longer key answers (a name shared by hundreds of entities) are not kept: they would crowd memory. */
-const MAX_CACHED_HITS = 64;
 /** Entity summaries kept in memory (small: class, prior, context terms and norm). */
 const SUMMARY_CACHE_SIZE = 20_000;
 /** IDF values kept in memory. */
@@ -126,9 +122,6 @@ export class Kb {
   private readonly tokenFilter: BloomFilter | null;
   /** `... IN (?, ?, ...)` statements by text and arity, prepared on first use. */
   private readonly inStatements = new Map<string, Database.Statement<unknown[], unknown>>();
-  /** Answers of key lookups and token searches: the same names recur across mentions. */
-  private readonly keyCache = new GenerationCache<string, KeyHit[]>(QUERY_CACHE_SIZE);
-  private readonly ftsCache = new GenerationCache<string, number[]>(QUERY_CACHE_SIZE);
   /** Summaries of entities seen among many namesakes: common names recur, so their pools do too. */
   private readonly summaryCache = new GenerationCache<number, EntitySummary>(SUMMARY_CACHE_SIZE);
 
@@ -202,29 +195,18 @@ export class Kb {
   lookupKeys(wanted: readonly string[]): KeyHit[] {
     const out: KeyHit[] = [];
     const f = this.keyFilter;
-    const missing: string[] = [];
-    for (const k of wanted) {
-      if (f !== null && !f.has(k)) continue;
-      const hits = this.keyCache.get(k);
-      if (hits === undefined) missing.push(k);
-      else for (const h of hits) out.push(h);
-    }
-    for (let i = 0; i < missing.length; i += MAX_IN) {
-      const slice = missing.slice(i, i + MAX_IN);
-      const found = new Map<string, KeyHit[]>(slice.map((k) => [k, []]));
+    const keys = f === null ? wanted : wanted.filter((k) => f.has(k));
+    for (let i = 0; i < keys.length; i += MAX_IN) {
+      const slice = keys.slice(i, i + MAX_IN);
       const stmt = this.inStatement("SELECT key, class, kind, eid FROM keys WHERE key", slice.length, true);
       for (const r of stmt.all(...slice) as unknown[][]) {
-        const hit: KeyHit = {
+        out.push({
           key: r[0] as string,
           cls: r[1] as EntityClass,
           kind: r[2] as KeyKind,
           eid: r[3] as number,
-        };
-        found.get(hit.key)?.push(hit);
-        out.push(hit);
+        });
       }
-      // Names recur in a corpus (a few are mentioned again and again), so key answers are kept.
-      for (const [k, hits] of found) if (hits.length <= MAX_CACHED_HITS) this.keyCache.set(k, hits);
     }
     return out;
   }
@@ -242,17 +224,10 @@ export class Kb {
     const out: number[] = [];
     for (const w of words) {
       if (out.length >= limit) break;
-      const want = limit - out.length;
-      const cacheKey = `${want}\u0000${w}`;
-      let eids = this.ftsCache.get(cacheKey);
-      if (eids === undefined) {
-        eids = this.stmts.fts.all(ftsString(w), want).map((r) => r.eid);
-        this.ftsCache.set(cacheKey, eids);
-      }
-      for (const eid of eids) {
-        if (seen.has(eid)) continue;
-        seen.add(eid);
-        out.push(eid);
+      for (const row of this.stmts.fts.all(ftsString(w), limit - out.length)) {
+        if (seen.has(row.eid)) continue;
+        seen.add(row.eid);
+        out.push(row.eid);
       }
     }
     return out;
