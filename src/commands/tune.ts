@@ -13,6 +13,7 @@ import { type LinkOptions, linkerOptionsFrom } from "./link.js";
 
 export interface TuneCommandOptions
   extends Pick<LinkOptions, "maxCandidates" | "paths" | "labels" | "from" | "documents" | "window"> {
+  /** KB file the weights are fitted for (its fingerprint goes into the config). */
   kb: string;
   /** Labeled link set. */
   gold: string;
