@@ -64,7 +64,6 @@ CREATE TABLE filters (name TEXT PRIMARY KEY, m INTEGER NOT NULL, k INTEGER NOT N
  */
 export const INDEX_SQL = `
 CREATE UNIQUE INDEX entities_id ON entities(id);
-CREATE INDEX aliases_eid ON aliases(eid);
 CREATE INDEX keys_lookup ON keys(key, class, kind, eid);
 `;
 
