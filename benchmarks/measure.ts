@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 /**
  * Pure bookkeeping of the benchmark measurements: link quality counts and the targets the
  * figures are reported against.
@@ -126,5 +127,20 @@ export function evenSample(length: number, count: number): number[] {
   const n = Math.min(length, count);
   const out: number[] = [];
   for (let i = 0; i < n; i++) out.push(Math.floor((i * length) / n));
+  return out;
+}
+
+/** The labeled mentions of a generated JSONL file (one object a line; a bad line names file and line). */
+export function readLabeled(file: string): LabeledMention[] {
+  const lines = readFileSync(file, "utf8").split("\n");
+  const out: LabeledMention[] = [];
+  lines.forEach((line, i) => {
+    if (line.trim() === "") return;
+    try {
+      out.push(JSON.parse(line) as LabeledMention);
+    } catch (err) {
+      throw new Error(`${file}:${i + 1}: not a JSON object (${(err as Error).message})`);
+    }
+  });
   return out;
 }

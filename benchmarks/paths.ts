@@ -7,7 +7,7 @@
  *
  * One JSON line per (data set, path set) on stdout.
  */
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -17,6 +17,7 @@ import { openKb } from "../src/kb/kb.js";
 import { createLinker, type LinkerOptions } from "../src/link/linker.js";
 import type { CandidatePath, LabeledMention } from "../src/types.js";
 import { generate, MENTIONS_FILE, TABLE_FILE } from "./generate.js";
+import { readLabeled } from "./measure.js";
 
 const samples = fileURLToPath(new URL("../../kb-samples/", import.meta.url));
 
@@ -39,13 +40,6 @@ const SETTINGS: Setting[] = [
   { name: "exact + ocr", paths: ["exact", "ocr"] },
   { name: "exact + fts", paths: ["exact", "fts"] },
 ];
-
-function readLabeled(file: string): LabeledMention[] {
-  return readFileSync(file, "utf8")
-    .split("\n")
-    .filter((l) => l.trim() !== "")
-    .map((l) => JSON.parse(l) as LabeledMention);
-}
 
 function measure(dataset: string, kbFile: string, mentions: LabeledMention[]): void {
   const kb = openKb(kbFile);

@@ -17,7 +17,6 @@ import { fileURLToPath, pathToFileURL } from "node:url";
 import { Command } from "commander";
 import { DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
 import { buildKb, createLinker, openKb } from "../src/index.js";
-import type { LabeledMention } from "../src/types.js";
 import {
   DEFAULT_SEED,
   GENERATOR_VERSION,
@@ -27,7 +26,15 @@ import {
   MENTIONS_FILE,
   TABLE_FILE,
 } from "./generate.js";
-import { CompletenessCounter, evenSample, QualityCounter, round, TARGETS, unlabeled } from "./measure.js";
+import {
+  CompletenessCounter,
+  evenSample,
+  QualityCounter,
+  readLabeled,
+  round,
+  TARGETS,
+  unlabeled,
+} from "./measure.js";
 import { RssSampler } from "./rss.js";
 
 /** Default number of mentions linked. */
@@ -100,20 +107,6 @@ function rssLine(phase: Phase, sampler: RssSampler, extra: Record<string, unknow
     line.meetsTarget = peakMb <= TARGETS.linkPeakRssMb;
   }
   return line;
-}
-
-function readLabeled(file: string): LabeledMention[] {
-  const lines = readFileSync(file, "utf8").split("\n");
-  const out: LabeledMention[] = [];
-  lines.forEach((line, i) => {
-    if (line.trim() === "") return;
-    try {
-      out.push(JSON.parse(line) as LabeledMention);
-    } catch (err) {
-      throw new Error(`${file}:${i + 1}: not a JSON object (${(err as Error).message})`);
-    }
-  });
-  return out;
 }
 
 // ---------------------------------------------------------------- phases (run in a child)

@@ -1,12 +1,11 @@
 /** `hawser tune` as a library call: fit weights and choose the operating point on a labeled set. */
-import { writeFileSync, renameSync, rmSync } from "node:fs";
-import { basename, dirname, join } from "node:path";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { configFromTune, type TunedConfig, writeConfig } from "../tune/config.js";
 import { renderReport } from "../tune/report-html.js";
 import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
+import { writeFileAtomic } from "../util/atomic-file.js";
 import { UsageError } from "../util/errors.js";
 import { readLabeled } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
@@ -72,14 +71,7 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
     writeConfig(options.out, config);
     if (options.report !== undefined) {
       const html = renderReport({ tune: result, kb: kbRef, created: created.toISOString() });
-      const tmp = join(dirname(options.report), `.${basename(options.report)}.tmp-${process.pid}`);
-      try {
-        writeFileSync(tmp, html, "utf8");
-        renameSync(tmp, options.report);
-      } catch (e) {
-        rmSync(tmp, { force: true });
-        throw e;
-      }
+      writeFileAtomic(options.report, html);
     }
     return { config, result };
   } finally {

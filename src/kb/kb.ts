@@ -107,9 +107,7 @@ export class Kb {
   private readonly stmts: {
     fts: Database.Statement<[string, number], { eid: number }>;
     vocab: Database.Statement<[string], { df: number }>;
-    deletes: Database.Statement<[string], { token: string }>;
     idf: Database.Statement<[string], { df: number }>;
-    byClass: Database.Statement<[string], { eid: number }>;
     byId: Database.Statement<[string], { eid: number }>;
     details: Database.Statement<[number], unknown>;
   };
@@ -157,9 +155,7 @@ export class Kb {
             "JOIN fts_rows r ON r.pos = f.pos ORDER BY f.pos",
         ),
         vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
-        deletes: db.prepare("SELECT token FROM deletes WHERE variant = ?"),
         idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
-        byClass: db.prepare("SELECT eid FROM entities WHERE class = ? ORDER BY eid"),
         details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
         byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
       };
@@ -242,11 +238,6 @@ export class Kb {
       this.vocabCache.set(token, df);
     }
     return df;
-  }
-
-  /** Table tokens sharing a one-deletion variant with `variant`. */
-  tokensForVariant(variant: string): string[] {
-    return this.stmts.deletes.all(variant).map((r) => r.token);
   }
 
   /** Table tokens for any of the variants, in one query per 32 variants. */
@@ -355,11 +346,6 @@ export class Kb {
   /** Internal id of a table id, or undefined. */
   eidOf(id: string): number | undefined {
     return this.stmts.byId.get(id)?.eid;
-  }
-
-  /** Every entity of a class, in table order (the brute-force baseline walks this). */
-  *entitiesOfClass(cls: EntityClass): Generator<number> {
-    for (const r of this.stmts.byClass.iterate(cls)) yield r.eid;
   }
 
   /** Every entity row of a class, decoded, streamed in table order without touching the cache. */

@@ -368,30 +368,7 @@ export class Linker {
     const best = d.best >= 0 ? scored[d.best]! : null;
     const runner = scored.length > 1 ? scored[1]! : null;
     reasons.push(decisionReason(d, this.config.threshold, this.config.minMargin, label(best), label(runner)));
-    if (best !== null) {
-      const shared = this.sharedTerms(p, best.entity);
-      reasons.push(
-        ...evidenceReasons({
-          entity: best.entity.id,
-          name: best.entity.name,
-          features: best.features,
-          name_: best.name,
-          paths: best.paths,
-          sharedTerms: shared,
-          entityType: best.entity.type,
-          // An unknown label is compared at a neutral weight (and warned about), not a mismatch.
-          mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,
-        }),
-      );
-    }
-    if (runner !== null && d.outcome === "link") {
-      reasons.push({
-        code: "runner-up",
-        message: `next best ${runner.entity.id} "${runner.entity.name}" scored ${r4(runner.score)}`,
-        entity: runner.entity.id,
-        score: r4(runner.score),
-      });
-    }
+    if (best !== null) reasons.push(...this.evidenceFor(p, best, d.outcome === "link" ? runner : null));
     const candidates = this.candidatesOut(scored);
     const chosen = d.outcome === "link" ? best : null;
     return {
@@ -404,6 +381,31 @@ export class Linker {
       reasons,
       candidates,
     };
+  }
+
+  /** Reasons about the evidence for the chosen (or best) candidate, and the runner-up when given. */
+  private evidenceFor(p: Prepared, c: ScoredCandidate, runner: ScoredCandidate | null): Reason[] {
+    const m = p.mention;
+    const out = evidenceReasons({
+      entity: c.entity.id,
+      name: c.entity.name,
+      features: c.features,
+      name_: c.name,
+      paths: c.paths,
+      sharedTerms: this.sharedTerms(p, c.entity),
+      entityType: c.entity.type,
+      // An unknown label is compared at a neutral weight (and warned about), not a mismatch.
+      mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,
+    });
+    if (runner !== null) {
+      out.push({
+        code: "runner-up",
+        message: `next best ${runner.entity.id} "${runner.entity.name}" scored ${r4(runner.score)}`,
+        entity: runner.entity.id,
+        score: r4(runner.score),
+      });
+    }
+    return out;
   }
 
   /** Context words the mention shares with the entity, heaviest first (for the reasons). */
@@ -430,31 +432,8 @@ export class Linker {
     base: Omit<LinkRow, "entity" | "name" | "score" | "margin" | "reasons" | "candidates">,
   ): LinkRow {
     const chosen = o.chosen;
-    const m = a.p.mention;
-    const others = a.scored.filter((s) => s.entity.eid !== chosen.entity.eid);
-    const runner = others[0];
-    const shared = this.sharedTerms(a.p, chosen.entity);
-    const reasons: Reason[] = [
-      o.reason,
-      ...evidenceReasons({
-        entity: chosen.entity.id,
-        name: chosen.entity.name,
-        features: chosen.features,
-        name_: chosen.name,
-        paths: chosen.paths,
-        sharedTerms: shared,
-        entityType: chosen.entity.type,
-        mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,
-      }),
-    ];
-    if (runner !== undefined) {
-      reasons.push({
-        code: "runner-up",
-        message: `next best ${runner.entity.id} "${runner.entity.name}" scored ${r4(runner.score)}`,
-        entity: runner.entity.id,
-        score: r4(runner.score),
-      });
-    }
+    const runner = a.scored.find((s) => s.entity.eid !== chosen.entity.eid);
+    const reasons: Reason[] = [o.reason, ...this.evidenceFor(a.p, chosen, runner ?? null)];
     const listed = a.scored.some((s) => s.entity.eid === chosen.entity.eid)
       ? a.scored
       : [chosen, ...a.scored];

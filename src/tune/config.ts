@@ -3,20 +3,17 @@
  * and the fingerprint of the KB they were tuned on. A config tuned on one KB is refused for
  * another unless forced, since weights and thresholds depend on the table's names and priors.
  */
-import { randomBytes } from "node:crypto";
-import { readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
-import { basename, dirname, join } from "node:path";
+import { readFileSync } from "node:fs";
 import { MARGIN_CAP } from "../decide/decide.js";
 import type { Figures } from "../evaluate/metrics.js";
 import { FEATURE_NAMES, type FeatureName, type LinkConfig } from "../types.js";
+import { writeFileAtomic } from "../util/atomic-file.js";
 import { InputError } from "../util/errors.js";
 import type { TuneResult } from "./tune.js";
 import { OBJECTIVES, type Objective } from "./types.js";
 
 export const CONFIG_FORMAT = "hawser-config";
 export const CONFIG_VERSION = 1;
-/** Random bytes in a temporary file name: enough that two writers never collide. */
-const TEMP_NAME_BYTES = 6;
 
 /** The figures a config carries: link quality held-out, in-sample, and of the defaults. */
 export interface ConfigFigures {
@@ -221,15 +218,5 @@ export function readConfig(file: string, opts: ReadConfigOptions = {}): TunedCon
 
 /** Write a config atomically: a temporary file beside the target, then a rename. */
 export function writeConfig(file: string, config: TunedConfig): void {
-  const temp = join(
-    dirname(file),
-    `.${basename(file)}.${process.pid}.${randomBytes(TEMP_NAME_BYTES).toString("hex")}.tmp`,
-  );
-  try {
-    writeFileSync(temp, JSON.stringify(config, null, 2) + "\n", { encoding: "utf8", flag: "wx" });
-    renameSync(temp, file);
-  } catch (e) {
-    rmSync(temp, { force: true });
-    throw e;
-  }
+  writeFileAtomic(file, `${JSON.stringify(config, null, 2)}\n`);
 }

@@ -2,7 +2,8 @@
  * Atomic output: write to a temporary file beside the target, rename over it when complete.
  * A run that fails midway removes the temporary file, so no half-written output is ever left.
  */
-import { createWriteStream, openSync, renameSync, rmSync, type WriteStream } from "node:fs";
+import { randomBytes } from "node:crypto";
+import { createWriteStream, openSync, renameSync, rmSync, type WriteStream, writeFileSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { once } from "node:events";
 
@@ -37,5 +38,23 @@ export class AtomicWriter {
     this.done = true;
     this.stream.destroy();
     rmSync(this.tmp, { force: true });
+  }
+}
+
+/** Random bytes in a temporary file name: enough that two writers never collide. */
+const TEMP_NAME_BYTES = 6;
+
+/** Write a whole text file atomically: a new temporary file beside the target, then a rename. */
+export function writeFileAtomic(file: string, text: string): void {
+  const temp = join(
+    dirname(file),
+    `.${basename(file)}.${process.pid}.${randomBytes(TEMP_NAME_BYTES).toString("hex")}.tmp`,
+  );
+  try {
+    writeFileSync(temp, text, { encoding: "utf8", flag: "wx" });
+    renameSync(temp, file);
+  } catch (e) {
+    rmSync(temp, { force: true });
+    throw e;
   }
 }
