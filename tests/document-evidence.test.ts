@@ -52,6 +52,12 @@ describe("short forms", () => {
     expect(rows[1]!.entity).toBe("P1");
     expect(codes(rows[1]!)[0]).toBe("doc-short-form");
     expect(rows[1]!.reasons[0]!.fuller).toBe("a");
+    // The margin of a document decision is in log-odds too: the chosen entity over the best other
+    // candidate (negative here, as the document chose the one that scored lower alone).
+    const chosen = rows[1]!.candidates.find((c) => c.entity === "P1")!;
+    const other = rows[1]!.candidates.find((c) => c.entity !== "P1")!;
+    const logit = (p: number) => Math.log(p / (1 - p));
+    expect(rows[1]!.margin).toBeCloseTo(logit(chosen.score) - logit(other.score), 2);
   });
   it("alone (or with the step off) the surname is NIL: two Aldous in the table", () => {
     const alone = createLinker(kb).link(doc[1]!);

@@ -29,6 +29,11 @@ export function logOdds(p: number): number {
   return Math.log(q / (1 - q));
 }
 
+/** The margin of a best score over the runner-up's: log-odds difference, MARGIN_CAP without a runner-up. */
+export function marginOver(best: number, runnerUp: number | undefined): number {
+  return runnerUp === undefined ? MARGIN_CAP : Math.min(MARGIN_CAP, logOdds(best) - logOdds(runnerUp));
+}
+
 export type DecisionOutcome = "link" | "no-candidates" | "below-threshold" | "ambiguous";
 
 export interface Decision {
@@ -58,7 +63,7 @@ export function decide(scores: readonly number[], threshold: number, minMargin: 
     }
   }
   if (best < 0) return { outcome: "no-candidates", chosen: -1, best: -1, bestScore: 0, margin: 0 };
-  const margin = scores.length < 2 ? MARGIN_CAP : Math.min(MARGIN_CAP, logOdds(bestScore) - logOdds(second));
+  const margin = marginOver(bestScore, scores.length < 2 ? undefined : second);
   if (bestScore < threshold) return { outcome: "below-threshold", chosen: -1, best, bestScore, margin };
   if (margin < minMargin) return { outcome: "ambiguous", chosen: -1, best, bestScore, margin };
   return { outcome: "link", chosen: best, best, bestScore, margin };

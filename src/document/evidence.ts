@@ -13,7 +13,7 @@
  * (c) `doc-acronym`: an acronym defined in the document ("Stenning Grain Exchange (S.G.E.)")
  *     resolves later uses of it to the entity of the defining mention.
  */
-import { logOdds, MARGIN_CAP } from "../decide/decide.js";
+import { marginOver } from "../decide/decide.js";
 import type { EntityRow } from "../kb/kb.js";
 import type { ScoredCandidate } from "../link/linker.js";
 import { acronymOfTokens, readAcronym } from "../normalize/name.js";
@@ -171,7 +171,7 @@ function sameText(
     if (best === undefined) continue;
     const mean = best.sum / members.length;
     // Margin in log-odds, as for single mentions (src/decide/decide.ts).
-    const margin = ranked[1] ? logOdds(mean) - logOdds(ranked[1].sum / members.length) : MARGIN_CAP;
+    const margin = marginOver(mean, ranked[1] ? ranked[1].sum / members.length : undefined);
     if (mean < decision.threshold || margin < decision.minMargin) continue;
     for (const i of members) {
       const item = items[i]!;

@@ -10,7 +10,7 @@ import {
   generateCandidates,
   type MentionForm,
 } from "../candidates/generate.js";
-import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP } from "../decide/decide.js";
+import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
 import type { EntityRow, EntitySummary, Kb } from "../kb/kb.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
@@ -443,7 +443,7 @@ export class Linker {
       name: chosen.entity.name,
       attributes: this.kb.details(chosen.entity.eid).attributes,
       score: r4(chosen.score),
-      margin: r4(chosen.score - (runner?.score ?? 0)),
+      margin: r4(marginOver(chosen.score, runner?.score)),
       reasons,
       candidates: this.candidatesOut([...listed].sort((x, y) => y.score - x.score)),
     };
