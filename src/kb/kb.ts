@@ -270,69 +270,71 @@ export class Kb {
 
   /** Entities by internal id, in the order asked, loading the uncached ones in batched queries. */
   entities(eids: readonly number[]): EntityRow[] {
-    const out: Array<EntityRow | undefined> = eids.map((e) => this.entityCache.get(e));
-    const missing: number[] = [];
-    for (let i = 0; i < eids.length; i++) if (out[i] === undefined) missing.push(eids[i]!);
-    if (missing.length > 0) {
-      const loaded = new Map<number, EntityRow>();
-      for (let i = 0; i < missing.length; i += MAX_IN) {
-        const slice = missing.slice(i, i + MAX_IN);
-        const stmt = this.inStatement(
-          "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities WHERE eid",
-          slice.length,
-          false,
-        );
-        for (const r of stmt.all(...slice) as Record<string, unknown>[]) {
-          const row = decodeEntity(r);
-          loaded.set(row.eid, row);
-          this.entityCache.set(row.eid, row);
-        }
-      }
-      for (let i = 0; i < eids.length; i++) {
-        if (out[i] === undefined) out[i] = loaded.get(eids[i]!);
-        if (out[i] === undefined)
-          throw new Error(`KB ${this.info.file}: no entity with internal id ${eids[i]}`);
-      }
-    }
-    return out as EntityRow[];
+    return this.byEids(
+      eids,
+      (e) => this.entityCache.get(e),
+      "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities WHERE eid",
+      (r) => decodeEntity(r),
+      (row) => this.entityCache.set(row.eid, row),
+    );
   }
 
   /**
    * The name-free facts of entities (class, prior, context terms and norm), for choosing among
-   * many same-name candidates: a lighter read than `entities`, and not cached.
+   * many same-name candidates: a lighter read than `entities`, with a cache of its own.
    */
   summaries(eids: readonly number[]): EntitySummary[] {
-    const byEid = new Map<number, EntitySummary>();
+    return this.byEids<EntitySummary>(
+      eids,
+      (e) => this.entityCache.get(e) ?? this.summaryCache.get(e),
+      "SELECT eid, class, prior, terms, ctx_norm FROM entities WHERE eid",
+      (r) => {
+        const terms = r.terms as string;
+        return {
+          eid: r.eid as number,
+          cls: r.class as EntityClass,
+          prior: r.prior as number,
+          terms: terms === "" ? [] : terms.split(" "),
+          contextNorm: r.ctx_norm as number,
+        };
+      },
+      (summary) => this.summaryCache.set(summary.eid, summary),
+    );
+  }
+
+  /**
+   * Rows by internal id, in the order asked: `cached` answers what it can, the rest is read in
+   * batched `IN` queries (`head` ends in "WHERE eid"), decoded and handed to `store`.
+   */
+  private byEids<T extends { eid: number }>(
+    eids: readonly number[],
+    cached: (eid: number) => T | undefined,
+    head: string,
+    decode: (row: Record<string, unknown>) => T,
+    store: (item: T) => void,
+  ): T[] {
+    const found = new Map<number, T>();
     const missing: number[] = [];
     for (const e of eids) {
-      const known = this.entityCache.get(e) ?? this.summaryCache.get(e);
-      if (known !== undefined) byEid.set(e, known);
+      const known = cached(e);
+      if (known !== undefined) found.set(e, known);
       else missing.push(e);
     }
     for (let i = 0; i < missing.length; i += MAX_IN) {
       const slice = missing.slice(i, i + MAX_IN);
-      const stmt = this.inStatement(
-        "SELECT eid, class, prior, terms, ctx_norm FROM entities WHERE eid",
-        slice.length,
-        true,
-      );
-      for (const r of stmt.all(...slice) as unknown[][]) {
-        const terms = r[3] as string;
-        const summary: EntitySummary = {
-          eid: r[0] as number,
-          cls: r[1] as EntityClass,
-          prior: r[2] as number,
-          terms: terms === "" ? [] : terms.split(" "),
-          contextNorm: r[4] as number,
-        };
-        byEid.set(summary.eid, summary);
-        this.summaryCache.set(summary.eid, summary);
+      for (const r of this.inStatement(head, slice.length, false).all(...slice) as Record<
+        string,
+        unknown
+      >[]) {
+        const item = decode(r);
+        found.set(item.eid, item);
+        store(item);
       }
     }
     return eids.map((e) => {
-      const s = byEid.get(e);
-      if (s === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${e}`);
-      return s;
+      const item = found.get(e);
+      if (item === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${e}`);
+      return item;
     });
   }
 
