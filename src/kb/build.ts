@@ -4,7 +4,7 @@
  * any failure removes the temporary file, so no partial KB is ever left behind.
  */
 import { createHash } from "node:crypto";
-import { createReadStream, existsSync, renameSync, rmSync, statSync } from "node:fs";
+import { existsSync, renameSync, rmSync, statSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
@@ -83,7 +83,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
     db.pragma("cache_size = -262144"); // 256 MiB page cache for the bulk load
     db.exec(SCHEMA_SQL);
     const summary = await load(db, options, labels);
-    const sourceSha = await sha256File(options.table);
+    const sourceSha = summary.sourceSha256;
     const fingerprint = createHash("sha256")
       .update(`${KB_FORMAT}\n${SCHEMA_VERSION}\n${NORMALIZER_VERSION}\n${sourceSha}\n${summary.entities}`)
       .digest("hex")
@@ -148,6 +148,8 @@ interface LoadSummary {
   unknownTypes: Record<string, number>;
   /** Seconds spent in each phase of the build, in order. */
   phases: Record<string, number>;
+  /** SHA-256 of the table file, hex. */
+  sourceSha256: string;
 }
 
 /** Rows written per transaction: large enough to amortize commits, small enough to bound memory. */
@@ -225,7 +227,11 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   });
 
   let rows = 0;
-  for await (const { record } of readTable(options.table, options.from)) {
+  // The source checksum is taken from the same bytes the rows are parsed from: one read of the file.
+  const sourceHash = createHash("sha256");
+  for await (const { record } of readTable(options.table, options.from, (chunk) =>
+    sourceHash.update(chunk),
+  )) {
     batch.push(record);
     rows++;
     if (batch.length >= ROWS_PER_TRANSACTION) {
@@ -236,6 +242,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   }
   if (batch.length > 0) writeBatch(batch);
   if (rows === 0) throw new InputError({ file: options.table }, "the table has no rows");
+  const sourceSha256 = sourceHash.digest("hex");
   options.onProgress?.(rows);
 
   mark("read and insert rows");
@@ -306,6 +313,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     byClass,
     unknownTypes,
     phases,
+    sourceSha256,
   };
 }
 
@@ -316,10 +324,4 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
 const MIN_BYTES_PER_KEY = 24;
 function estimateKeys(file: string): number {
   return Math.max(1024, Math.ceil(statSync(file).size / MIN_BYTES_PER_KEY));
-}
-
-async function sha256File(file: string): Promise<string> {
-  const hash = createHash("sha256");
-  for await (const chunk of createReadStream(file)) hash.update(chunk as Buffer);
-  return hash.digest("hex");
 }

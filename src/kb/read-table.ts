@@ -2,12 +2,12 @@
  * Streaming reader and validator of the knowledge table (CSV with header, TSV, or JSONL).
  * Every problem is an InputError naming the file, line and column.
  */
-import { createReadStream } from "node:fs";
 import { extname } from "node:path";
 import { type CsvError, parse } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
-import { strictUtf8 } from "../read/utf8.js";
+import { readJsonLines } from "../read/jsonl.js";
+import { type BytesTap, openText } from "../read/lines.js";
 
 export type TableFormat = "csv" | "tsv" | "jsonl";
 
@@ -108,7 +108,7 @@ class RowValidator {
   }
 }
 
-async function* readDelimited(file: string, delimiter: string): AsyncGenerator<TableRow> {
+async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTap): AsyncGenerator<TableRow> {
   const validator = new RowValidator(file);
   const parser = parse({
     delimiter,
@@ -131,11 +131,9 @@ async function* readDelimited(file: string, delimiter: string): AsyncGenerator<T
     skip_empty_lines: true,
     quote: delimiter === "\t" ? false : '"',
   });
-  const source = createReadStream(file);
-  const check = strictUtf8(file);
-  source.on("error", (e) => parser.destroy(e));
-  check.on("error", (e) => parser.destroy(e));
-  source.pipe(check).pipe(parser);
+  const text = openText(file, onBytes);
+  text.on("error", (e) => parser.destroy(e));
+  text.pipe(parser);
   try {
     for await (const item of parser as AsyncIterable<{
       record: Record<string, string>;
@@ -160,22 +158,21 @@ async function* readDelimited(file: string, delimiter: string): AsyncGenerator<T
       throw new InputError({ file, line: ce.lines }, ce.message);
     throw e;
   } finally {
-    source.destroy();
+    text.destroy();
   }
 }
 
-async function* readJsonlTable(file: string): AsyncGenerator<TableRow> {
-  const { readJsonLines } = await import("../read/jsonl.js");
+async function* readJsonlTable(file: string, onBytes?: BytesTap): AsyncGenerator<TableRow> {
   const validator = new RowValidator(file);
-  for await (const { line, value } of readJsonLines(file)) {
+  for await (const { line, value } of readJsonLines(file, onBytes)) {
     const obj = value as Record<string, unknown>;
     yield { record: validator.build(line, obj, obj.aliases), line };
   }
 }
 
-/** Stream the validated rows of a knowledge table. */
-export function readTable(file: string, from?: string): AsyncGenerator<TableRow> {
+/** Stream the validated rows of a knowledge table; `onBytes` sees the file's raw bytes as they are read. */
+export function readTable(file: string, from?: string, onBytes?: BytesTap): AsyncGenerator<TableRow> {
   const format = tableFormatOf(file, from);
-  if (format === "jsonl") return readJsonlTable(file);
-  return readDelimited(file, format === "tsv" ? "\t" : ",");
+  if (format === "jsonl") return readJsonlTable(file, onBytes);
+  return readDelimited(file, format === "tsv" ? "\t" : ",", onBytes);
 }

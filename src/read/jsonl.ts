@@ -4,7 +4,7 @@
  */
 
 import { InputError } from "../util/errors.js";
-import { readTextLines } from "./lines.js";
+import { type BytesTap, readTextLines } from "./lines.js";
 
 /** One parsed line: its 1-based line number and the object it holds. */
 export interface JsonLine {
@@ -23,8 +23,8 @@ export function jsonKind(value: unknown): string {
  * Stream the objects of a JSONL file. `value` is always a plain object (never an array, string,
  * number or null); the declared type stays `unknown` so that callers validate fields themselves.
  */
-export async function* readJsonLines(file: string): AsyncGenerator<JsonLine> {
-  for await (const { line, text } of readTextLines(file)) {
+export async function* readJsonLines(file: string, onBytes?: BytesTap): AsyncGenerator<JsonLine> {
+  for await (const { line, text } of readTextLines(file, onBytes)) {
     if (text.trim() === "") continue;
     let value: unknown;
     try {

@@ -26,21 +26,26 @@ export function fileError(file: string, error: unknown): Error {
   return error instanceof Error ? error : new Error(String(error));
 }
 
+/** Receives the file's raw bytes as they are read (e.g. to hash the file in the same pass). */
+export type BytesTap = (chunk: Buffer) => void;
+
 /**
  * The decoded text of `file` as a readable stream of strings (object mode), for parsers that take
  * a stream (CSV). Errors (file system, invalid UTF-8) surface on the returned stream.
  */
-export function openText(file: string): Transform {
+export function openText(file: string, onBytes?: BytesTap): Transform {
   const decoder = strictUtf8(file);
-  pipeline(createReadStream(file), decoder, () => {
+  const raw = createReadStream(file);
+  if (onBytes) raw.on("data", (chunk) => onBytes(chunk as Buffer));
+  pipeline(raw, decoder, () => {
     // Errors are forwarded to `decoder` by pipeline; its consumer reports them.
   });
   return decoder;
 }
 
 /** Yield the lines of `file` one by one (LF, CRLF or CR line ends), streaming. */
-export async function* readTextLines(file: string): AsyncGenerator<TextLine> {
-  const input = openText(file);
+export async function* readTextLines(file: string, onBytes?: BytesTap): AsyncGenerator<TextLine> {
+  const input = openText(file, onBytes);
   const lines = createInterface({ input, crlfDelay: Number.POSITIVE_INFINITY });
   let line = 0;
   try {
