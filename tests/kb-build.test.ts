@@ -36,7 +36,7 @@ describe("buildKb on a good table", () => {
     const kb = openKb(t.file("gazette.kb"));
     try {
       expect(kb.info.format).toBe("hawser-kb");
-      expect(kb.info.schemaVersion).toBe(1);
+      expect(kb.info.schemaVersion).toBe(2);
       expect(kb.info.fingerprint).toBe(s.fingerprint);
       expect(kb.info.entities).toBe(GAZETTE_ROWS);
       expect(kb.info.aliases).toBe(30);
@@ -291,5 +291,18 @@ describe("openKb refuses files that are not current hawser KBs", () => {
     // The original is still fine.
     expect(existsSync(t.file("gazette.kb"))).toBe(true);
     openKb(t.file("gazette.kb")).close();
+  });
+  it("refuses a KB built with an older schema, asking for a rebuild", async () => {
+    const table = writeText(t.file("gazette.csv"), GAZETTE_CSV);
+    await buildKb({ table, out: t.file("gazette.kb") });
+    const copy = t.file("past.kb");
+    copyFileSync(t.file("gazette.kb"), copy);
+    const db = new Database(copy);
+    db.prepare("UPDATE meta SET value='1' WHERE key='schema_version'").run();
+    db.close();
+    const e = throwsInput(() => openKb(copy));
+    expect(e.file).toBe(copy);
+    expect(e.message).toMatch(/schema version 1 is older/);
+    expect(e.message).toMatch(/rebuild it with `hawser index`/);
   });
 });

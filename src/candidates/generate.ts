@@ -13,7 +13,7 @@
  */
 import { distance } from "fastest-levenshtein";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
-import type { EntitySummary, Kb } from "../kb/kb.js";
+import type { Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import type { CandidatePath, EntityClass } from "../types.js";
@@ -80,15 +80,16 @@ export interface MentionForm {
 }
 
 /**
- * Generate the candidates of one mention. `preRank`, when given, values entity rows by the
- * evidence that does not depend on the name (context, type, popularity); it decides which
- * candidates are kept when more than maxCandidates are found.
+ * Generate the candidates of one mention. `preRank`, when given, values entities (by internal
+ * id) on the evidence that is cheap to weigh for hundreds of them (context, type, popularity,
+ * from the KB's hot store); it decides which candidates are kept when more than maxCandidates
+ * are found.
  */
 export function generateCandidates(
   kb: Kb,
   forms: readonly MentionForm[],
   opts: CandidateOptions,
-  preRank?: (rows: readonly EntitySummary[]) => number[],
+  preRank?: (eids: readonly number[]) => number[],
 ): RawCandidate[] {
   const found = new Map<number, RawCandidate>();
   let order = 0;
@@ -159,7 +160,7 @@ export function generateCandidates(
     runProbes();
   }
 
-  // Token search hits carry no class: it comes from the entity rows, loaded in one batch.
+  // Token search hits carry no class: the hot store knows it.
   const searched: Array<[number, CandidatePath]> = [];
   if (on.has("fts") && knownDf.length > 0) {
     for (const eid of kb.searchAliases(rarestFirst([...knownDf]), opts.ftsLimit)) searched.push([eid, "fts"]);
@@ -174,11 +175,9 @@ export function generateCandidates(
     }
     for (const eid of kb.searchAliases(rarestFirst(termDf), opts.ftsLimit)) searched.push([eid, "fuzzy"]);
   }
-  if (searched.length > 0) {
-    const rows = kb.entities(searched.map(([eid]) => eid));
-    rows.forEach((e, i) => {
-      if (classes.has(e.cls)) add(e.eid, e.cls, searched[i]![1]);
-    });
+  for (const [eid, path] of searched) {
+    const cls = kb.hot.classOf(eid);
+    if (classes.has(cls)) add(eid, cls, path);
   }
 
   const all = [...found.values()];
@@ -189,10 +188,10 @@ export function generateCandidates(
   if (all.length <= opts.maxCandidates) return all;
   // Too many (many entities share one name): each tier that does not fit whole is cut by the
   // pre-rank (context and popularity, the evidence that separates same-name entities), else by
-  // popularity alone. At most PRE_RANK_MAX candidates are loaded for that.
+  // popularity alone. At most PRE_RANK_MAX candidates are weighed for that.
   const pool = all.slice(0, PRE_RANK_MAX);
-  const rows = kb.summaries(pool.map((c) => c.eid));
-  const pre = preRank ? preRank(rows) : rows.map((e) => e.prior);
+  const eids = pool.map((c) => c.eid);
+  const pre = preRank ? preRank(eids) : eids.map((e) => kb.hot.prior[e]!);
   const value = new Map(pool.map((c, i) => [c.eid, pre[i]!]));
   const out: RawCandidate[] = [];
   for (const tier of [pool.filter(isPrecise), pool.filter((c) => !isPrecise(c))]) {

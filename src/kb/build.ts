@@ -9,13 +9,12 @@ import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION, normalizeName } from "../normalize/name.js";
-import { termListNorm } from "../score/context.js";
 import { contextTerms } from "../score/terms.js";
-import { idf } from "../score/tfidf.js";
 import type { EntityRecord } from "../types.js";
 import { InputError } from "../util/errors.js";
 import { BloomFilter } from "./bloom.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
+import { HotStoreBuilder } from "./hot.js";
 import { readTable, tableFormatOf } from "./read-table.js";
 import {
   INDEX_SQL,
@@ -164,7 +163,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     last = now;
   };
   const insEntity = db.prepare(
-    "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms) VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
+    "INSERT INTO entities (eid, id, name, type, class, prior, forms) VALUES (?, ?, ?, ?, ?, ?, ?)",
   );
   const insDetails = db.prepare("INSERT INTO entity_details (eid, description, attributes) VALUES (?, ?, ?)");
   const insAlias = db.prepare(
@@ -174,7 +173,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   // Filled while rows stream in; sized from the file's size, since the row count is not known yet.
   const keyFilter = BloomFilter.forItems(estimateKeys(options.table));
   const vocab = new Map<string, number>();
-  const termDf = new Map<string, number>();
+  const hot = new HotStoreBuilder();
   const byClass: Record<string, number> = {};
   const unknownTypes: Record<string, number> = {};
   let eid = 0;
@@ -192,10 +191,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
       byClass[cls] = (byClass[cls] ?? 0) + 1;
       if (r.prior > maxPrior) maxPrior = r.prior;
       const attrText = Object.values(r.attributes).join(" ");
-      const terms = contextTerms(`${r.description} ${attrText}`).sort();
-      for (let i = 0; i < terms.length; i++) {
-        if (i === 0 || terms[i] !== terms[i - 1]) termDf.set(terms[i]!, (termDf.get(terms[i]!) ?? 0) + 1);
-      }
+      const terms = contextTerms(`${r.description} ${attrText}`);
       const seenKeys = new Set<string>();
       const entityTokens = new Set<string>();
       const packed: PackedForm[] = [];
@@ -220,9 +216,10 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
         if (a.n.acronym !== null) add(a.n.acronym, "acronym");
         add(a.n.initialsKey, "initials");
       }
-      insEntity.run(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
+      insEntity.run(eid, r.id, r.name, r.type, cls, r.prior, packForms(packed));
       insDetails.run(eid, r.description, JSON.stringify(r.attributes));
       for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
+      hot.add(cls, r.prior, terms, entityTokens);
     }
   });
 
@@ -250,12 +247,16 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   db.exec(
     "CREATE TEMP TABLE fts_order AS SELECT a.eid AS eid, a.key AS key FROM aliases a JOIN entities e ON e.eid = a.eid ORDER BY e.prior DESC, a.aid",
   );
-  db.exec("INSERT INTO fts_rows (pos, eid) SELECT rowid, eid FROM temp.fts_order");
   db.exec("INSERT INTO alias_fts (rowid, tokens) SELECT rowid, key FROM temp.fts_order");
+  const posEid = new Uint32Array(aid + 1);
+  for (const [pos, e] of db.prepare("SELECT rowid, eid FROM temp.fts_order").raw(true).iterate() as Iterable<
+    [number, number]
+  >)
+    posEid[pos] = e;
   db.exec("DROP TABLE temp.fts_order");
   const insVocab = db.prepare("INSERT INTO vocab (token, df) VALUES (?, ?)");
   const insDelete = db.prepare("INSERT OR IGNORE INTO deletes (variant, token) VALUES (?, ?)");
-  const insIdf = db.prepare("INSERT INTO idf (term, df) VALUES (?, ?)");
+  const insIdf = db.prepare("INSERT INTO idf (term, df, id) VALUES (?, ?, ?)");
   mark("full-text index");
   // Deletion variants sorted before insertion: appending to a B-tree in key order is far faster
   // than inserting at random places.
@@ -276,24 +277,13 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
       insDelete.run(v, t);
       variantFilter.add(v);
     }
-    for (const [term, df] of termDf) insIdf.run(term, df);
+    for (const [term, id] of hot.termIdOf) insIdf.run(term, hot.dfOf(term), id);
   })();
   pairs.length = 0;
   mark("vocabulary and fuzzy index");
-  // Context norms need the final IDF, so they are written in a second pass over the entities.
-  const docs = eid;
-  const idfOf = (t: string) => idf(termDf.get(t) ?? 0, docs);
-  const setNorm = db.prepare("UPDATE entities SET ctx_norm = ? WHERE eid = ?");
-  const readTerms = db.prepare("SELECT eid, terms FROM entities").raw(true);
-  const norms: Array<[number, number]> = [];
-  for (const r of readTerms.iterate()) {
-    const [id, terms] = r as [number, string];
-    if (terms !== "") norms.push([termListNorm(terms.split(" "), idfOf), id]);
-  }
-  db.transaction(() => {
-    for (const [norm, id] of norms) setNorm.run(norm, id);
-  })();
-  mark("context norms");
+  // Context norms need the final IDF, so the hot store computes them once every row is in.
+  hot.write(db, posEid);
+  mark("hot store and context norms");
   const insFilter = db.prepare("INSERT INTO filters (name, m, k, bits) VALUES (?, ?, ?, ?)");
   for (const [name, f] of [
     ["keys", keyFilter],
@@ -308,7 +298,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     aliases: aid,
     keys,
     vocabulary: vocab.size,
-    contextTerms: termDf.size,
+    contextTerms: hot.termIdOf.size,
     maxPrior,
     byClass,
     unknownTypes,

@@ -6,6 +6,7 @@ import { existsSync } from "node:fs";
 import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { BloomFilter } from "./bloom.js";
+import { HotStore } from "./hot.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
 import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, unpackForms } from "./schema.js";
@@ -47,15 +48,10 @@ export interface EntityRow {
   type: string;
   cls: EntityClass;
   prior: number;
-  /** Sorted stemmed context terms (repeated per occurrence). */
-  terms: string[];
-  /** TF-IDF norm of `terms`, computed at index time. */
+  /** TF-IDF norm of the entity's context terms, computed at index time (terms: see hot.ts). */
   contextNorm: number;
   aliases: AliasRow[];
 }
-
-/** What choosing among same-name candidates needs of an entity. */
-export type EntitySummary = Pick<EntityRow, "eid" | "cls" | "prior" | "terms" | "contextNorm">;
 
 /** One blocking-key hit: the key, its class and kind, and the entity. */
 export interface KeyHit {
@@ -70,10 +66,15 @@ const MAX_IN = 32;
 
 /** Entities kept decoded in memory: the same popular entities are candidates again and again. */
 const ENTITY_CACHE_SIZE = 4_000;
-/** Entity summaries kept in memory (small: class, prior, context terms and norm). */
-const SUMMARY_CACHE_SIZE = 20_000;
-/** IDF values kept in memory. */
+/** Context-term and alias-token facts kept in memory. */
 const IDF_CACHE_SIZE = 50_000;
+
+/** What the KB knows of one context term: its document frequency and its id (-1: unknown term). */
+export interface TermInfo {
+  df: number;
+  id: number;
+}
+const UNKNOWN_TERM: TermInfo = { df: 0, id: -1 };
 
 /**
  * A bounded cache in two generations: hits are looked up in the young map, then in the old one
@@ -105,14 +106,14 @@ export class Kb {
   readonly db: Database.Database;
   readonly info: KbInfo;
   private readonly stmts: {
-    fts: Database.Statement<[string, number], { eid: number }>;
+    fts: Database.Statement<[string, number], unknown[]>;
     vocab: Database.Statement<[string], { df: number }>;
-    idf: Database.Statement<[string], { df: number }>;
+    idf: Database.Statement<[string], TermInfo>;
     byId: Database.Statement<[string], { eid: number }>;
     details: Database.Statement<[number], unknown>;
   };
   private readonly entityCache = new GenerationCache<number, EntityRow>(ENTITY_CACHE_SIZE);
-  private readonly idfCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
+  private readonly idfCache = new GenerationCache<string, TermInfo>(IDF_CACHE_SIZE);
   private readonly vocabCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
   /** Bloom filters over keys, deletion variants and tokens (null: answer from SQLite alone). */
   private readonly keyFilter: BloomFilter | null;
@@ -120,8 +121,8 @@ export class Kb {
   private readonly tokenFilter: BloomFilter | null;
   /** `... IN (?, ?, ...)` statements by text and arity, prepared on first use. */
   private readonly inStatements = new Map<string, Database.Statement<unknown[], unknown>>();
-  /** Summaries of entities seen among many namesakes: common names recur, so their pools do too. */
-  private readonly summaryCache = new GenerationCache<number, EntitySummary>(SUMMARY_CACHE_SIZE);
+  /** Per-entity facts for whole candidate pools, in memory (see hot.ts). */
+  readonly hot: HotStore;
 
   constructor(file: string) {
     if (!existsSync(file))
@@ -150,15 +151,17 @@ export class Kb {
       }
       this.stmts = {
         // Unranked: rows come in position order, which is falling popularity (see schema.ts).
-        fts: db.prepare(
-          "SELECT r.eid AS eid FROM (SELECT rowid AS pos FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?) f " +
-            "JOIN fts_rows r ON r.pos = f.pos ORDER BY f.pos",
-        ),
+        fts: db
+          .prepare<[string, number], unknown[]>("SELECT rowid FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?")
+          .raw(true),
         vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
-        idf: db.prepare("SELECT df FROM idf WHERE term = ?"),
+        idf: db.prepare("SELECT df, id FROM idf WHERE term = ?"),
         details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
         byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
       };
+      this.hot = new HotStore(db);
+      if (this.hot.entities !== this.info.entities)
+        throw new Error(`hot store holds ${this.hot.entities} entities, meta says ${this.info.entities}`);
     } catch (e) {
       db.close();
       throw new InputError(
@@ -221,9 +224,10 @@ export class Kb {
     for (const w of words) {
       if (out.length >= limit) break;
       for (const row of this.stmts.fts.all(ftsString(w), limit - out.length)) {
-        if (seen.has(row.eid)) continue;
-        seen.add(row.eid);
-        out.push(row.eid);
+        const eid = this.hot.eidAt(row[0] as number);
+        if (seen.has(eid)) continue;
+        seen.add(eid);
+        out.push(eid);
       }
     }
     return out;
@@ -255,12 +259,17 @@ export class Kb {
 
   /** Number of entities whose context mentions `term` (0 when unknown). */
   termDf(term: string): number {
-    let df = this.idfCache.get(term);
-    if (df === undefined) {
-      df = this.stmts.idf.get(term)?.df ?? 0;
-      this.idfCache.set(term, df);
+    return this.termInfo(term).df;
+  }
+
+  /** Document frequency and hot-store id of a context term. */
+  termInfo(term: string): TermInfo {
+    let info = this.idfCache.get(term);
+    if (info === undefined) {
+      info = this.stmts.idf.get(term) ?? UNKNOWN_TERM;
+      this.idfCache.set(term, info);
     }
-    return df;
+    return info;
   }
 
   /** One entity by internal id (cached). */
@@ -273,32 +282,9 @@ export class Kb {
     return this.byEids(
       eids,
       (e) => this.entityCache.get(e),
-      "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities WHERE eid",
-      (r) => decodeEntity(r),
+      "SELECT eid, id, name, type, class, prior, forms FROM entities WHERE eid",
+      (r) => decodeEntity(r, this.hot),
       (row) => this.entityCache.set(row.eid, row),
-    );
-  }
-
-  /**
-   * The name-free facts of entities (class, prior, context terms and norm), for choosing among
-   * many same-name candidates: a lighter read than `entities`, with a cache of its own.
-   */
-  summaries(eids: readonly number[]): EntitySummary[] {
-    return this.byEids<EntitySummary>(
-      eids,
-      (e) => this.entityCache.get(e) ?? this.summaryCache.get(e),
-      "SELECT eid, class, prior, terms, ctx_norm FROM entities WHERE eid",
-      (r) => {
-        const terms = r.terms as string;
-        return {
-          eid: r.eid as number,
-          cls: r.class as EntityClass,
-          prior: r.prior as number,
-          terms: terms === "" ? [] : terms.split(" "),
-          contextNorm: r.ctx_norm as number,
-        };
-      },
-      (summary) => this.summaryCache.set(summary.eid, summary),
     );
   }
 
@@ -353,23 +339,22 @@ export class Kb {
   /** Every entity row of a class, decoded, streamed in table order without touching the cache. */
   *entityRowsOfClass(cls: EntityClass): Generator<EntityRow> {
     const stmt = this.db.prepare(
-      "SELECT eid, id, name, type, class, prior, terms, ctx_norm, forms FROM entities WHERE class = ? ORDER BY eid",
+      "SELECT eid, id, name, type, class, prior, forms FROM entities WHERE class = ? ORDER BY eid",
     );
-    for (const r of stmt.iterate(cls)) yield decodeEntity(r as Record<string, unknown>);
+    for (const r of stmt.iterate(cls)) yield decodeEntity(r as Record<string, unknown>, this.hot);
   }
 }
 
-function decodeEntity(r: Record<string, unknown>): EntityRow {
-  const terms = r.terms as string;
+function decodeEntity(r: Record<string, unknown>, hot: HotStore): EntityRow {
+  const eid = r.eid as number;
   return {
-    eid: r.eid as number,
+    eid,
     id: r.id as string,
     name: r.name as string,
     type: r.type as string,
     cls: r.class as EntityClass,
     prior: r.prior as number,
-    terms: terms === "" ? [] : terms.split(" "),
-    contextNorm: r.ctx_norm as number,
+    contextNorm: hot.norm[eid]!,
     aliases: unpackForms(r.forms as string).map((f, i) => ({ ...f, aid: i, tokens: f.key.split(" ") })),
   };
 }
@@ -396,6 +381,12 @@ function readInfo(db: Database.Database, file: string): KbInfo {
   const version = Number(m.get("schema_version"));
   if (!Number.isInteger(version) || version < 1)
     throw new InputError({ file }, "KB file has no valid schema version");
+  if (version < SCHEMA_VERSION) {
+    throw new InputError(
+      { file },
+      `KB schema version ${version} is older than this hawser reads (${SCHEMA_VERSION}): rebuild it with \`hawser index\``,
+    );
+  }
   if (version > SCHEMA_VERSION) {
     throw new InputError(
       { file },

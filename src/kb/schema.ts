@@ -4,19 +4,21 @@
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
  * - entities: one row per table row, holding what scoring reads (the description and the
- *   attributes live in entity_details, so that the rows read per candidate stay small); `terms` holds the stemmed context words of the description
- *   and attributes (sorted, repeated per occurrence) from which TF-IDF vectors are built;
- *   `forms` packs the normalized forms of its names (see packForms), so that scoring reads one
- *   row per candidate.
+ *   attributes live in entity_details, so that the rows read per candidate stay small); `forms`
+ *   packs the normalized forms of its names (see packForms), so that scoring reads one row per
+ *   candidate. The stemmed context words of the description and attributes live in the hot
+ *   store, as term ids.
  * - aliases: the canonical name and every alias, with their normalized key and full forms.
  * - keys: blocking keys per entity and class: exact, ocr, acronym, initials.
  * - alias_fts: FTS5 over alias core tokens (contentless). Its rowids are positions in order of
- *   falling popularity (prior), mapped to alias ids by fts_rows, so an unranked match returns
- *   the most popular entities carrying a token first, at a cost that does not grow with how
- *   common the token is.
+ *   falling popularity (prior), mapped to entities by the hot store, so an unranked match
+ *   returns the most popular entities carrying a token first, at a cost that does not grow with
+ *   how common the token is.
  * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
  *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
- * - idf: document frequency of each context term.
+ * - idf: document frequency of each context term, and its id in the hot store's term lists.
+ * - hot: typed arrays loaded whole on open (see hot.ts): class, prior, context norm, context
+ *   term ids and a name-token signature per entity, and full-text position -> entity.
  * - filters: Bloom filters (see bloom.ts) over blocking keys, deletion variants and alias tokens,
  *   loaded into memory on open so probes for absent keys never reach SQLite.
  */
@@ -24,7 +26,7 @@
 /** Identifies a hawser KB among SQLite files. */
 export const KB_FORMAT = "hawser-kb";
 /** Bumped on any incompatible schema change; a KB with a newer version is refused. */
-export const SCHEMA_VERSION = 1;
+export const SCHEMA_VERSION = 2;
 
 export const SCHEMA_SQL = `
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL) WITHOUT ROWID;
@@ -35,8 +37,6 @@ CREATE TABLE entities (
   type TEXT NOT NULL,
   class TEXT NOT NULL,
   prior REAL NOT NULL,
-  terms TEXT NOT NULL,
-  ctx_norm REAL NOT NULL DEFAULT 0,
   forms TEXT NOT NULL
 );
 CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
@@ -51,10 +51,10 @@ CREATE TABLE aliases (
 );
 CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
 CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', detail=column, tokenize='unicode61 remove_diacritics 0');
-CREATE TABLE fts_rows (pos INTEGER PRIMARY KEY, eid INTEGER NOT NULL);
 CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
-CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
+CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL, id INTEGER NOT NULL) WITHOUT ROWID;
+CREATE TABLE hot (name TEXT NOT NULL, part INTEGER NOT NULL, data BLOB NOT NULL, PRIMARY KEY (name, part)) WITHOUT ROWID;
 CREATE TABLE filters (name TEXT PRIMARY KEY, m INTEGER NOT NULL, k INTEGER NOT NULL, bits BLOB NOT NULL) WITHOUT ROWID;
 `;
 

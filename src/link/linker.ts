@@ -11,15 +11,15 @@ import {
   type MentionForm,
 } from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
-import type { EntityRow, EntitySummary, Kb } from "../kb/kb.js";
+import type { EntityRow, Kb } from "../kb/kb.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import { features, type NameMatch, nameMatch, priorFeature } from "../score/features.js";
-import { contextCosine } from "../score/context.js";
+import { type IdVector, idVector } from "../score/context.js";
 import { contextTerms } from "../score/terms.js";
-import { buildVector, idf, type TermVector } from "../score/tfidf.js";
+import { buildVector, idf } from "../score/tfidf.js";
 import {
   type CandidateOut,
   type CandidatePath,
@@ -92,9 +92,6 @@ export interface ScoredCandidate {
   name: NameMatch;
 }
 
-/** The mention's context vector, with each term's IDF kept for the merge with entity terms. */
-type MentionVector = TermVector & { idfs: Float64Array };
-
 interface Analysis {
   p: Prepared;
   scored: ScoredCandidate[];
@@ -105,7 +102,8 @@ interface Prepared {
   mention: Mention;
   info: LabelInfo;
   forms: MentionForm[];
-  context: MentionVector | null;
+  /** The mention's context vector by KB term id (null: no context). */
+  context: IdVector | null;
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;
@@ -169,14 +167,14 @@ export class Linker {
         if (info.compat[cls] >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls) });
       }
     }
-    let context: MentionVector | null = null;
+    let context: IdVector | null = null;
     if (m.context !== undefined && m.context.trim() !== "") {
       // The mention's own words are left out: every candidate shares them, so they say nothing.
       const own = new Set(contextTerms(text));
       const terms = contextTerms(m.context).filter((t) => !own.has(t));
       if (terms.length > 0) {
         const v = buildVector(terms, this.idfOf);
-        context = { ...v, idfs: Float64Array.from(v.terms, this.idfOf) };
+        context = idVector(v, this.idfOf, (t) => this.kb.termInfo(t).id);
       }
     }
     return { mention: m, info, forms, context };
@@ -185,7 +183,7 @@ export class Linker {
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
     const name = nameMatch(form.norm, e);
-    const context = p.context === null ? 0 : contextCosine(p.context, e.terms, e.contextNorm);
+    const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
     const f = features(name, context, p.info.compat[e.cls], priorFeature(e.prior, this.kb.info.maxPrior));
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
   }
@@ -194,15 +192,17 @@ export class Linker {
    * The part of the score that does not depend on the name (context, type, prior), used to
    * choose among more same-name candidates than maxCandidates.
    */
-  private preRankFor(p: Prepared): (rows: readonly EntitySummary[]) => number[] {
+  private preRankFor(p: Prepared): (eids: readonly number[]) => number[] {
     const w = this.config.weights.features;
     const maxPrior = this.kb.info.maxPrior;
-    return (rows) =>
-      rows.map(
+    const hot = this.kb.hot;
+    const ctx = p.context;
+    return (eids) =>
+      eids.map(
         (e) =>
-          w.context * (p.context === null ? 0 : contextCosine(p.context, e.terms, e.contextNorm)) +
-          w.typeMatch * p.info.compat[e.cls] +
-          w.prior * priorFeature(e.prior, maxPrior),
+          w.context * (ctx === null ? 0 : hot.contextCosine(ctx, e)) +
+          w.typeMatch * p.info.compat[hot.classOf(e)] +
+          w.prior * priorFeature(hot.prior[e]!, maxPrior),
       );
   }
 
@@ -411,7 +411,7 @@ export class Linker {
   /** Context words the mention shares with the entity, heaviest first (for the reasons). */
   private sharedTerms(p: Prepared, e: EntityRow): string[] {
     const out: string[] = [];
-    if (p.context !== null) contextCosine(p.context, e.terms, e.contextNorm, out);
+    if (p.context !== null) this.kb.hot.contextCosine(p.context, e.eid, out);
     return out;
   }
 

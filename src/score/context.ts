@@ -1,21 +1,61 @@
 /**
- * The context feature without building a vector per candidate: the entity's TF-IDF norm is
- * computed once at index time (the IDF is fixed then), so at link time the cosine needs only a
- * merge of the mention's few terms with the entity's sorted term list.
+ * The context feature without building a vector per candidate. The KB gives every context term
+ * an id and keeps each entity's term ids (ascending, repeated per occurrence) with the entity's
+ * TF-IDF norm, computed once at index time (the IDF is fixed then) in its hot store. At link time
+ * the cosine needs only a merge of the mention's few term ids with the entity's id list.
  *
  * Weights are those of tfidf.ts: tf = 1 + ln(count), weight = tf * idf(term).
  */
 import type { TermVector } from "./tfidf.js";
 
-/** The TF-IDF norm of a sorted term list (repeats = counts), as stored in the KB. */
-export function termListNorm(sortedTerms: readonly string[], idfOf: (t: string) => number): number {
+/**
+ * A mention's context vector by KB term id: ids ascending (terms unknown to the KB are left
+ * out, since no entity carries them; they still count in `norm`), each with its term and its
+ * weight times its IDF, the factor an entity's term frequency multiplies.
+ */
+export interface IdVector {
+  ids: Uint32Array;
+  terms: string[];
+  weightIdf: Float64Array;
+  norm: number;
+}
+
+/** The id vector of a mention vector; `idOf` gives a term's KB id, or -1 for an unknown term. */
+export function idVector(
+  mention: TermVector,
+  idfOf: (term: string) => number,
+  idOf: (term: string) => number,
+): IdVector {
+  const known: Array<[number, string, number]> = [];
+  mention.terms.forEach((t, i) => {
+    const id = idOf(t);
+    if (id >= 0) known.push([id, t, mention.weights[i]! * idfOf(t)]);
+  });
+  known.sort((a, b) => a[0] - b[0]);
+  return {
+    ids: Uint32Array.from(known, (k) => k[0]),
+    terms: known.map((k) => k[1]),
+    weightIdf: Float64Array.from(known, (k) => k[2]),
+    norm: mention.norm,
+  };
+}
+
+/**
+ * The TF-IDF norm of an entity's ascending term ids `ids[start..end)` (repeats = counts), as the
+ * KB stores it; `idfOfId` gives the IDF of a term id.
+ */
+export function termIdListNorm(
+  ids: Uint32Array,
+  start: number,
+  end: number,
+  idfOfId: (id: number) => number,
+): number {
   let sum = 0;
-  let i = 0;
-  while (i < sortedTerms.length) {
-    const t = sortedTerms[i]!;
+  let i = start;
+  while (i < end) {
     let j = i + 1;
-    while (j < sortedTerms.length && sortedTerms[j] === t) j++;
-    const w = (1 + Math.log(j - i)) * idfOf(t);
+    while (j < end && ids[j] === ids[i]) j++;
+    const w = (1 + Math.log(j - i)) * idfOfId(ids[i]!);
     sum += w * w;
     i = j;
   }
@@ -23,30 +63,33 @@ export function termListNorm(sortedTerms: readonly string[], idfOf: (t: string) 
 }
 
 /**
- * Cosine between a mention vector and an entity's sorted term list with its stored norm, and
- * (when `shared` is given) the shared terms, heaviest product first.
+ * Cosine between a mention's id vector and an entity's ascending term ids `ids[start..end)` with
+ * its stored norm, clamped to [0, 1], and (when `shared` is given) the shared terms, heaviest
+ * product first.
  */
 export function contextCosine(
-  mention: TermVector & { idfs: Float64Array },
-  entityTerms: readonly string[],
+  mention: IdVector,
+  ids: Uint32Array,
+  start: number,
+  end: number,
   entityNorm: number,
   shared?: string[],
 ): number {
   if (mention.norm === 0 || entityNorm === 0) return 0;
-  const mt = mention.terms;
+  const mt = mention.ids;
   let dot = 0;
   let i = 0;
-  let j = 0;
+  let j = start;
   const products: Array<[string, number]> = [];
-  while (i < mt.length && j < entityTerms.length) {
+  while (i < mt.length && j < end) {
     const a = mt[i]!;
-    const b = entityTerms[j]!;
+    const b = ids[j]!;
     if (a === b) {
       let k = j + 1;
-      while (k < entityTerms.length && entityTerms[k] === b) k++;
-      const p = mention.weights[i]! * (1 + Math.log(k - j)) * mention.idfs[i]!;
+      while (k < end && ids[k] === b) k++;
+      const p = mention.weightIdf[i]! * (1 + Math.log(k - j));
       dot += p;
-      if (shared) products.push([a, p]);
+      if (shared) products.push([mention.terms[i]!, p]);
       i++;
       j = k;
     } else if (a < b) i++;

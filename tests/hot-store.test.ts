@@ -1,0 +1,91 @@
+/**
+ * The hot store (src/kb/hot.ts) holds copies of facts that also live in SQLite rows: every copy
+ * must agree with its source, on the sample archive's table (kb-samples/gazette-entities.csv).
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { buildKb } from "../src/kb/build.js";
+import { tokenBits } from "../src/kb/hot.js";
+import { type Kb, openKb } from "../src/kb/kb.js";
+import { idVector } from "../src/score/context.js";
+import { buildVector, cosine, idf } from "../src/score/tfidf.js";
+import { tempDir } from "./helpers/gazette.js";
+
+const t = tempDir();
+let kb: Kb;
+
+beforeAll(async () => {
+  await buildKb({ table: "kb-samples/gazette-entities.csv", out: t.file("gazette.kb") });
+  kb = openKb(t.file("gazette.kb"));
+});
+afterAll(() => {
+  kb.close();
+  t.cleanup();
+});
+
+const allEids = () => Array.from({ length: kb.info.entities }, (_, i) => i + 1);
+
+describe("the hot store", () => {
+  it("holds one slot per entity, with the entity's class and prior", () => {
+    expect(kb.hot.entities).toBe(kb.info.entities);
+    for (const e of kb.entities(allEids())) {
+      expect(kb.hot.classOf(e.eid)).toBe(e.cls);
+      expect(kb.hot.prior[e.eid]).toBeCloseTo(e.prior, 2);
+    }
+  });
+
+  /** Every entity's context terms, read back from its term ids through the KB's term table. */
+  const termsOf = (eid: number): string[] => {
+    const termOfId = new Map(
+      (kb.db.prepare("SELECT term, id FROM idf").all() as Array<{ term: string; id: number }>).map((r) => [
+        r.id,
+        r.term,
+      ]),
+    );
+    const h = kb.hot;
+    return [...h.termIds.subarray(h.termStart[eid]!, h.termStart[eid + 1]!)].map((id) => termOfId.get(id)!);
+  };
+
+  it("stores context norms equal to the TF-IDF norm of the entity's terms", () => {
+    const idfOf = (term: string) => idf(kb.termDf(term), kb.info.contextDocs);
+    let nonZero = 0;
+    for (const e of kb.entities(allEids())) {
+      expect(e.contextNorm).toBeCloseTo(buildVector(termsOf(e.eid), idfOf).norm, 9);
+      if (e.contextNorm > 0) nonZero++;
+    }
+    expect(nonZero).toBeGreaterThan(300);
+  });
+
+  it("gives the plain TF-IDF cosine of mention and entity context", () => {
+    const idfOf = (term: string) => idf(kb.termDf(term), kb.info.contextDocs);
+    const n = kb.info.entities;
+    let positive = 0;
+    // Mention contexts made of the terms of neighbouring entities, plus a word no entity has.
+    for (let eid = 1; eid + 1 <= n; eid += 7) {
+      const words = [...termsOf(eid).slice(0, 3), ...termsOf(eid + 1).slice(0, 2), "zzqx"];
+      const v = buildVector(words, idfOf);
+      const mention = idVector(v, idfOf, (term) => kb.termInfo(term).id);
+      for (let e = eid; e < Math.min(n + 1, eid + 3); e++) {
+        const c = kb.hot.contextCosine(mention, e);
+        expect(c).toBeCloseTo(cosine(v, buildVector(termsOf(e), idfOf)), 12);
+        if (c > 0) positive++;
+      }
+    }
+    expect(positive).toBeGreaterThan(50);
+    expect(kb.termInfo("zzqx")).toEqual({ df: 0, id: -1 });
+  });
+
+  it("never denies a token an entity's names carry", () => {
+    for (const e of kb.entities(allEids())) {
+      for (const a of e.aliases)
+        for (const tok of a.tokens) expect(kb.hot.mayHaveToken(e.eid, tokenBits(tok))).toBe(true);
+    }
+  });
+
+  it("maps full-text hits to entities whose names carry the token searched", () => {
+    for (const tok of ["aldous", "stenmouth", "grain", "wharf"]) {
+      const eids = kb.searchAliases([tok], 50);
+      if (kb.tokenDf(tok) > 0) expect(eids.length).toBeGreaterThan(0);
+      for (const e of kb.entities(eids)) expect(e.aliases.some((a) => a.tokens.includes(tok))).toBe(true);
+    }
+  });
+});
