@@ -8,20 +8,25 @@
  * - fts: FTS5 token search over alias tokens (escaped terms only), rarest token first, each
  *   token's most popular carriers first;
  * - fuzzy: tokens unknown to the table are corrected through one-deletion variants of the table's
- *   vocabulary (edit distance <= 2) and searched again.
+ *   vocabulary (edit distance <= 2, a swap of adjacent letters counting one) and searched again.
  * The candidate list is capped; precise paths come first.
  */
-import { distance } from "fastest-levenshtein";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
+import { tokenBits } from "../kb/hot.js";
 import type { Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import type { CandidatePath, EntityClass } from "../types.js";
+import { osaDistance } from "./edit-distance.js";
 
 export interface CandidateOptions {
   /** Most candidates kept per mention (after merging paths). Default 30. */
   maxCandidates: number;
-  /** Entities taken from FTS5 token search (and again from the fuzzy path's search). Default 30. */
+  /**
+   * Entities taken from FTS5 token search (and again from the fuzzy path's search), most popular
+   * carriers of the rarest token first; when more than maxCandidates come back, the pre-rank
+   * chooses among them. Default 300.
+   */
   ftsLimit: number;
   /**
    * Tokens found in more aliases than this are left out of the FTS query: they cost the most to
@@ -33,10 +38,11 @@ export interface CandidateOptions {
   /** Corrections kept per unknown token (closest first, then most frequent). Default 6. */
   fuzzyMaxCorrections: number;
   /**
-   * Skip token search and fuzzy correction when a whole key (exact, acronym, initials, OCR)
-   * already matched: they would only add entities sharing some words, which score below the key
-   * match. Default true (measured in benchmarks/README.md: completeness barely moves, linking
-   * gets much faster).
+   * Skip token search and fuzzy correction when a whole key (exact, acronym, initials, OCR) of
+   * two or more words, or an acronym, already matched: they would only add entities sharing some
+   * words, which score below the key match. A one-word key match ("Edith") does not skip them.
+   * Default true (measured in benchmarks/README.md: completeness barely moves, linking gets much
+   * faster).
    */
   skipSearchOnKeyMatch: boolean;
   /** Paths that run; default all. Turning one off is how their value is measured. */
@@ -47,7 +53,7 @@ export const ALL_PATHS: readonly CandidatePath[] = ["exact", "ocr", "acronym", "
 
 export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   maxCandidates: 30,
-  ftsLimit: 30,
+  ftsLimit: 300,
   ftsMaxDf: 5000,
   fuzzyMaxEdits: 2,
   fuzzyMaxCorrections: 6,
@@ -55,12 +61,40 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   paths: new Set(ALL_PATHS),
 };
 
+/** One bit per path: a candidate's paths as a bit set while pools of thousands are sorted. */
+const PATH_BIT = new Map<CandidatePath, number>(ALL_PATHS.map((p, i) => [p, 1 << i]));
 /** Paths that match a whole key: their hits outrank token-search hits when the list is capped. */
-const PRECISE_PATHS: ReadonlySet<CandidatePath> = new Set(["exact", "acronym", "initials", "ocr"]);
+const PRECISE_MASK = (["exact", "acronym", "initials", "ocr"] as const).reduce(
+  (m, p) => m | PATH_BIT.get(p)!,
+  0,
+);
+const bitCount = (mask: number) => {
+  let n = 0;
+  for (let m = mask; m !== 0; m &= m - 1) n++;
+  return n;
+};
+/** A candidate while the pool is gathered: its paths as bits (see PATH_BIT). */
+interface Found {
+  eid: number;
+  cls: EntityClass;
+  mask: number;
+  rank: number;
+}
+const isPrecise = (c: Found) => (c.mask & PRECISE_MASK) !== 0;
+const toRaw = (c: Found): RawCandidate => ({
+  eid: c.eid,
+  cls: c.cls,
+  paths: new Set(ALL_PATHS.filter((p) => (c.mask & PATH_BIT.get(p)!) !== 0)),
+  rank: c.rank,
+});
 /** Shortest token worth an FTS term: single letters are initials, matched by the initials path. */
 const MIN_FTS_TOKEN_LENGTH = 2;
-/** Most candidates loaded to choose among when there are more than maxCandidates. */
-const PRE_RANK_MAX = 300;
+/**
+ * Most candidates weighed by the pre-rank when there are more than maxCandidates (a common name
+ * can have thousands of carriers). The pre-rank reads only the in-memory hot store, so this
+ * bounds the cost of the key lookup rows, not of SQLite entity reads.
+ */
+const PRE_RANK_MAX = 3000;
 /** Tokens of one mention looked at by token search; a 10,000-character "name" is noise past this. */
 const MAX_QUERY_TOKENS = 12;
 /** Unknown tokens of one mention sent to fuzzy correction. */
@@ -80,56 +114,77 @@ export interface MentionForm {
 }
 
 /**
- * Generate the candidates of one mention. `preRank`, when given, values entities (by internal
- * id) on the evidence that is cheap to weigh for hundreds of them (context, type, popularity,
- * from the KB's hot store); it decides which candidates are kept when more than maxCandidates
- * are found.
+ * Values entities (by internal id) on the evidence that is cheap to weigh for thousands of them
+ * (context, type, popularity, from the KB's hot store). `nameShare[i]` is the share of the
+ * mention's words (or their corrections) that entity `eids[i]`'s names may carry (from the
+ * name-token signatures: it can say yes wrongly, never no wrongly).
+ */
+export type PreRank = (eids: readonly number[], nameShare: Float64Array) => number[];
+
+/**
+ * Generate the candidates of one mention. `preRank`, when given, decides which candidates are
+ * kept when more than maxCandidates are found; without it, the share of the mention's words,
+ * then popularity decide.
  */
 export function generateCandidates(
   kb: Kb,
   forms: readonly MentionForm[],
   opts: CandidateOptions,
-  preRank?: (eids: readonly number[]) => number[],
+  preRank?: PreRank,
 ): RawCandidate[] {
-  const found = new Map<number, RawCandidate>();
+  const found = new Map<number, Found>();
   let order = 0;
   const add = (eid: number, cls: EntityClass, path: CandidatePath) => {
     const c = found.get(eid);
-    if (c) c.paths.add(path);
-    else found.set(eid, { eid, cls, paths: new Set([path]), rank: order++ });
+    if (c) c.mask |= PATH_BIT.get(path)!;
+    else found.set(eid, { eid, cls, mask: PATH_BIT.get(path)!, rank: order++ });
   };
   const classes = new Set(forms.map((f) => f.cls));
   const on = opts.paths;
 
-  // Every whole-key probe of every form, answered by one batched lookup.
-  const probes = new Map<string, Array<{ cls: EntityClass; kind: KeyKind; path: CandidatePath }>>();
-  const probe = (key: string | null, cls: EntityClass, kind: KeyKind, path: CandidatePath) => {
+  // Every whole-key probe of every form, answered by one batched lookup. A probe "names" an
+  // entity when a match on it is specific: a key of two or more words, or an acronym. A single
+  // word ("Mrs Ingeldale", "Edith") is shared by everyone of that surname or given name.
+  type Probe = { cls: EntityClass; kind: KeyKind; path: CandidatePath; names: boolean };
+  const probes = new Map<string, Probe[]>();
+  const probe = (
+    key: string | null,
+    cls: EntityClass,
+    kind: KeyKind,
+    path: CandidatePath,
+    names: boolean,
+  ) => {
     if (key === null || key === "" || !on.has(path)) return;
     const list = probes.get(key);
-    if (list) list.push({ cls, kind, path });
-    else probes.set(key, [{ cls, kind, path }]);
+    if (list) list.push({ cls, kind, path, names });
+    else probes.set(key, [{ cls, kind, path, names }]);
   };
   for (const { cls, norm } of forms) {
     if (norm.key === "") continue;
-    probe(norm.key, cls, "exact", "exact");
-    probe(norm.acronym, cls, "acronym", "acronym");
-    if (norm.tokens[0]!.length === 1) probe(norm.initialsKey, cls, "initials", "initials");
-    probe(norm.ocrKey, cls, "ocr", "ocr");
+    const words = norm.tokens.length >= 2;
+    probe(norm.key, cls, "exact", "exact", words);
+    probe(norm.acronym, cls, "acronym", "acronym", true);
+    if (norm.tokens[0]!.length === 1) probe(norm.initialsKey, cls, "initials", "initials", true);
+    probe(norm.ocrKey, cls, "ocr", "ocr", words);
   }
 
+  let named = false;
   const runProbes = () => {
     if (probes.size === 0) return;
     for (const hit of kb.lookupKeys([...probes.keys()])) {
       for (const p of probes.get(hit.key) ?? [])
-        if (p.cls === hit.cls && p.kind === hit.kind) add(hit.eid, hit.cls, p.path);
+        if (p.cls === hit.cls && p.kind === hit.kind) {
+          add(hit.eid, hit.cls, p.path);
+          if (p.names) named = true;
+        }
     }
     probes.clear();
   };
   runProbes();
-  // A whole-key match (exact, acronym, initials or OCR key) already names the entity: token
-  // search and fuzzy correction would only add entities that share some words, scoring below it.
-  const keyMatched = [...found.values()].some((c) => [...c.paths].some((p) => PRECISE_PATHS.has(p)));
-  const search = !(opts.skipSearchOnKeyMatch && keyMatched);
+  // A whole-key match that names an entity (exact, acronym, initials or OCR key of two or more
+  // words) already found it: token search and fuzzy correction would only add entities that
+  // share some words, scoring below it.
+  const search = !(opts.skipSearchOnKeyMatch && named);
 
   // Tokens known to the table feed the token search; unknown ones go to fuzzy correction.
   const tokens = new Set<string>();
@@ -146,16 +201,43 @@ export function generateCandidates(
       else if (df <= opts.ftsMaxDf) knownDf.push([t, df]);
     }
   }
+  // Corrections of unknown tokens feed token search and whole keys; a known token may be a
+  // misreading too ("Grimehurst" is a name, and a slip for "Grimerhurst"), so the rarest known
+  // tokens are corrected as well, for whole keys only.
   const corrected = new Map<string, string[]>();
+  const respelled = new Map<string, string[]>();
   if (search && on.has("fuzzy")) {
     for (const t of unknown.slice(0, MAX_FUZZY_TOKENS)) {
       const fixes = correctToken(kb, t, opts);
       if (fixes.length > 0) corrected.set(t, fixes);
     }
-    // The best correction of every token, as a whole key.
+    const room = MAX_FUZZY_TOKENS - Math.min(unknown.length, MAX_FUZZY_TOKENS);
+    for (const t of rarestFirst([...knownDf]).slice(0, room)) {
+      if (t.length < FUZZY_MIN_TOKEN_LENGTH) continue;
+      const fixes = correctToken(kb, t, opts).filter((f) => f !== t);
+      if (fixes.length > 0) respelled.set(t, [t, ...fixes]);
+    }
+  }
+  if (search) {
+    const options = new Map([...corrected, ...respelled]);
     for (const { cls, norm } of forms) {
-      const key = norm.tokens.map((t) => corrected.get(t)?.[0] ?? t).join(" ");
-      if (key !== norm.key) probe(key, cls, "exact", "fuzzy");
+      // Whole keys again, from the corrected tokens (fewest changes first).
+      for (const tokens of correctedReadings(norm.tokens, options)) {
+        const key = tokens.join(" ");
+        const fixed = key !== norm.key;
+        if (fixed) probe(key, cls, "exact", "fuzzy", false);
+        // A person's given name may be written short in a way no table spells out ("Js.",
+        // "Thos"), or misread: the initial and the surname still meet the "J. Uddale" keys.
+        if (cls === "person" && tokens.length >= 2 && (fixed || tokens[0]!.length > 1)) {
+          probe(
+            `${tokens[0]![0]} ${tokens[tokens.length - 1]}`,
+            cls,
+            "initials",
+            fixed ? "fuzzy" : "initials",
+            false,
+          );
+        }
+      }
     }
     runProbes();
   }
@@ -181,24 +263,82 @@ export function generateCandidates(
   }
 
   const all = [...found.values()];
-  const isPrecise = (c: RawCandidate) => [...c.paths].some((p) => PRECISE_PATHS.has(p));
   all.sort(
-    (a, b) => Number(isPrecise(b)) - Number(isPrecise(a)) || b.paths.size - a.paths.size || a.rank - b.rank,
+    (a, b) =>
+      Number(isPrecise(b)) - Number(isPrecise(a)) || bitCount(b.mask) - bitCount(a.mask) || a.rank - b.rank,
   );
-  if (all.length <= opts.maxCandidates) return all;
+  if (all.length <= opts.maxCandidates) return all.map(toRaw);
   // Too many (many entities share one name): each tier that does not fit whole is cut by the
   // pre-rank (context and popularity, the evidence that separates same-name entities), else by
   // popularity alone. At most PRE_RANK_MAX candidates are weighed for that.
   const pool = all.slice(0, PRE_RANK_MAX);
   const eids = pool.map((c) => c.eid);
-  const pre = preRank ? preRank(eids) : eids.map((e) => kb.hot.prior[e]!);
+  const share = nameShares(kb, eids, tokens, corrected);
+  const pre = preRank ? preRank(eids, share) : eids.map((e, i) => share[i]! * 1e12 + kb.hot.prior[e]!);
   const value = new Map(pool.map((c, i) => [c.eid, pre[i]!]));
-  const out: RawCandidate[] = [];
+  const out: Found[] = [];
   for (const tier of [pool.filter(isPrecise), pool.filter((c) => !isPrecise(c))]) {
     const room = opts.maxCandidates - out.length;
     if (room <= 0) break;
     if (tier.length > room) tier.sort((a, b) => value.get(b.eid)! - value.get(a.eid)! || a.rank - b.rank);
     out.push(...tier.slice(0, room));
+  }
+  return out.map(toRaw);
+}
+
+/**
+ * For each entity, the share of the mention's words (of two or more letters) whose spelling, or
+ * one of whose corrections, its names may carry.
+ */
+function nameShares(
+  kb: Kb,
+  eids: readonly number[],
+  tokens: ReadonlySet<string>,
+  corrected: ReadonlyMap<string, string[]>,
+): Float64Array {
+  const slots: Array<Array<[number, number]>> = [];
+  for (const t of tokens) {
+    if (t.length < MIN_FTS_TOKEN_LENGTH) continue;
+    slots.push([t, ...(corrected.get(t) ?? [])].map(tokenBits));
+  }
+  const out = new Float64Array(eids.length);
+  if (slots.length === 0) return out;
+  eids.forEach((e, i) => {
+    let n = 0;
+    for (const slot of slots) if (slot.some((bits) => kb.hot.mayHaveToken(e, bits))) n++;
+    out[i] = n / slots.length;
+  });
+  return out;
+}
+
+/** Most whole keys built from combinations of token corrections. */
+const MAX_CORRECTED_KEYS = 12;
+
+/**
+ * Readings of a token list where each token with options (`options.get(t)`, first = preferred)
+ * is replaced by one of them: first the reading of every token's first option, then those that
+ * change one token to a later option, then two tokens; at most MAX_CORRECTED_KEYS readings.
+ */
+export function correctedReadings(
+  tokens: readonly string[],
+  options: ReadonlyMap<string, string[]>,
+): string[][] {
+  const alts = tokens.map((t) => options.get(t) ?? [t]);
+  const base = alts.map((a) => a[0]!);
+  const out: string[][] = [base];
+  const varied = alts.flatMap((a, i) => a.slice(1).map((o) => [i, o] as const));
+  for (const [i, o] of varied) {
+    if (out.length >= MAX_CORRECTED_KEYS) return out;
+    out.push(base.map((t, k) => (k === i ? o : t)));
+  }
+  for (let x = 0; x < varied.length; x++) {
+    for (let y = x + 1; y < varied.length; y++) {
+      const [i, o] = varied[x]!;
+      const [k, q] = varied[y]!;
+      if (i === k) continue;
+      if (out.length >= MAX_CORRECTED_KEYS) return out;
+      out.push(base.map((t, n) => (n === i ? o : n === k ? q : t)));
+    }
   }
   return out;
 }
@@ -253,7 +393,7 @@ export function correctToken(kb: Kb, token: string, opts: CandidateOptions): str
   for (const [r] of readings) for (const v of deletionVariants(r)) variants.add(v);
   for (const t of kb.tokensForVariants([...variants])) {
     for (const [r, extra] of readings) {
-      const d = distance(r, t) + extra;
+      const d = osaDistance(r, t) + extra;
       if (d <= opts.fuzzyMaxEdits && d < (seen.get(t) ?? Number.POSITIVE_INFINITY)) seen.set(t, d);
     }
   }

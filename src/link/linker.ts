@@ -9,6 +9,7 @@ import {
   DEFAULT_CANDIDATE_OPTIONS,
   generateCandidates,
   type MentionForm,
+  type PreRank,
 } from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
 import type { EntityRow, Kb } from "../kb/kb.js";
@@ -189,17 +190,19 @@ export class Linker {
   }
 
   /**
-   * The part of the score that does not depend on the name (context, type, prior), used to
-   * choose among more same-name candidates than maxCandidates.
+   * The score's cheap part, used to choose among more candidates than maxCandidates: context,
+   * type and prior as scored, and the share of the mention's words the entity's names carry in
+   * place of the name features (weighted as token-set overlap).
    */
-  private preRankFor(p: Prepared): (eids: readonly number[]) => number[] {
+  private preRankFor(p: Prepared): PreRank {
     const w = this.config.weights.features;
     const maxPrior = this.kb.info.maxPrior;
     const hot = this.kb.hot;
     const ctx = p.context;
-    return (eids) =>
+    return (eids, nameShare) =>
       eids.map(
-        (e) =>
+        (e, i) =>
+          w.tokenSet * nameShare[i]! +
           w.context * (ctx === null ? 0 : hot.contextCosine(ctx, e)) +
           w.typeMatch * p.info.compat[hot.classOf(e)] +
           w.prior * priorFeature(hot.prior[e]!, maxPrior),

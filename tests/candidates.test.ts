@@ -1,0 +1,100 @@
+/**
+ * Candidate generation where namesakes crowd a name (src/candidates/generate.ts): corrections of
+ * words that are themselves names, the initial-and-surname fallback, one-word key matches that
+ * do not stop the search, and wide token-search pools chosen by the pre-rank. The table is
+ * invented (a river-port gazette's index, 1890-1930).
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { correctedReadings } from "../src/candidates/generate.js";
+import { buildKb } from "../src/kb/build.js";
+import { type Kb, openKb } from "../src/kb/kb.js";
+import { createLinker, type Linker } from "../src/link/linker.js";
+import type { Mention } from "../src/types.js";
+import { tempDir, writeText } from "./helpers/gazette.js";
+
+/** Forty popular Frobelsons in the grain trade, and one obscure ferry pilot of the name. */
+const FROBELSONS = Array.from(
+  { length: 40 },
+  (_, i) =>
+    `F${String(i).padStart(2, "0")},${["Arthur", "Henry", "Walter", "Thomas", "Edwin"][i % 5]} ${"BCDEFGHJKL"[i % 10]}. Frobelson,person,,grain merchant of Stenmouth exchange,${1000 + i}`,
+);
+
+const TABLE = [
+  "id,name,type,aliases,description,prior",
+  "P01,Robert N. Grimerhurst,person,,tug master at Carow bar,1",
+  "P02,Walter Grimehurst,person,,cooper in the brewery lane,900",
+  "P03,Joseph Uddale,person,,lighterman of the east basin,2",
+  "P04,Elizabeth Ingeldale,person,,milliner of Quay Street,3",
+  "P05,Amos Ingeldale,person,Ingeldale,harbour board clerk,800",
+  "P06,William D. Frobelson,person,,ferry pilot at Carow crossing steam ferry,1",
+  ...FROBELSONS,
+].join("\n");
+
+const t = tempDir("hawser-candidates-");
+let kb: Kb;
+let linker: Linker;
+
+beforeAll(async () => {
+  const table = writeText(t.file("crowded.csv"), `${TABLE}\n`);
+  await buildKb({ table, out: t.file("crowded.kb") });
+  kb = openKb(t.file("crowded.kb"));
+  linker = createLinker(kb);
+});
+afterAll(() => {
+  kb.close();
+  t.cleanup();
+});
+
+const m = (text: string, context?: string): Mention => ({ id: text, text, type: "PER", context });
+const pathsOf = (text: string, entity: string, context?: string) =>
+  linker.scoreCandidates(m(text, context)).find((c) => c.entity.id === entity)?.paths;
+
+describe("candidates among namesakes", () => {
+  it("corrects a word that is itself a name: Grimehurst may be a slip for Grimerhurst", () => {
+    expect(kb.tokenDf("grimehurst")).toBe(1);
+    const ids = linker.candidateIds(m("Robert N. Grimehurst"));
+    expect(ids).toContain("P01");
+    expect(pathsOf("Robert N. Grimehurst", "P01")).toContain("fuzzy");
+  });
+
+  it("meets an unlisted short given name through the initial and surname", () => {
+    expect([...(pathsOf("Js. Uddale", "P03") ?? [])]).toContain("initials");
+  });
+
+  it("keeps searching after a one-word key match: a bare surname names nobody in particular", () => {
+    const ids = linker.candidateIds(m("Mrs Ingeldale"));
+    expect(ids).toContain("P05"); // the alias "Ingeldale" is a whole-key match
+    expect(ids).toContain("P04"); // found by token search all the same
+  });
+
+  it("takes more token-search hits than it scores, and keeps the ones the context supports", () => {
+    const ids = linker.candidateIds(m("Capt. Frobelson", "the steam ferry pilot at the Carow crossing"));
+    expect(kb.tokenDf("frobelson")).toBe(41);
+    expect(ids.length).toBeLessThanOrEqual(30);
+    expect(ids).toContain("P06");
+    // With token search cut to the 30 most popular carriers, the obscure pilot is never seen.
+    const narrow = createLinker(kb, { candidates: { ftsLimit: 30 } });
+    expect(
+      narrow.candidateIds(m("Capt. Frobelson", "the steam ferry pilot at the Carow crossing")),
+    ).not.toContain("P06");
+  });
+});
+
+describe("correctedReadings", () => {
+  it("lists the preferred reading, then one change, then two, up to its cap", () => {
+    const options = new Map([
+      ["a", ["a", "a1", "a2"]],
+      ["b", ["b1", "b2"]],
+    ]);
+    expect(correctedReadings(["a", "x", "b"], options)).toEqual([
+      ["a", "x", "b1"],
+      ["a1", "x", "b1"],
+      ["a2", "x", "b1"],
+      ["a", "x", "b2"],
+      ["a1", "x", "b2"],
+      ["a2", "x", "b2"],
+    ]);
+    const many = new Map([...Array(6).keys()].map((i) => [`t${i}`, [`t${i}`, `u${i}`, `v${i}`]]));
+    expect(correctedReadings([...many.keys()], many).length).toBe(12);
+  });
+});
