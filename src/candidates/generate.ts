@@ -23,6 +23,13 @@ export interface CandidateOptions {
   /** Most candidates kept per mention (after merging paths). Default 30. */
   maxCandidates: number;
   /**
+   * Most candidates kept from token search and fuzzy search (the tier below whole-key matches),
+   * chosen by the pre-rank among up to ftsLimit hits. Hits that share one word with the mention
+   * are many and rarely right: scoring fifteen of them keeps the right one as often as scoring
+   * thirty (benchmarks/README.md), at half the cost. Default 15.
+   */
+  maxSearchCandidates: number;
+  /**
    * Entities taken from FTS5 token search (and again from the fuzzy path's search), most popular
    * carriers of the rarest token first; when more than maxCandidates come back, the pre-rank
    * chooses among them. Default 300.
@@ -53,6 +60,7 @@ export const ALL_PATHS: readonly CandidatePath[] = ["exact", "ocr", "acronym", "
 
 export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   maxCandidates: 30,
+  maxSearchCandidates: 15,
   ftsLimit: 300,
   ftsMaxDf: 5000,
   fuzzyMaxEdits: 2,
@@ -267,20 +275,27 @@ export function generateCandidates(
     (a, b) =>
       Number(isPrecise(b)) - Number(isPrecise(a)) || bitCount(b.mask) - bitCount(a.mask) || a.rank - b.rank,
   );
-  if (all.length <= opts.maxCandidates) return all.map(toRaw);
-  // Too many (many entities share one name): each tier that does not fit whole is cut by the
-  // pre-rank (context and popularity, the evidence that separates same-name entities), else by
-  // popularity alone. At most PRE_RANK_MAX candidates are weighed for that.
+  const searchedCount = all.reduce((n, c) => n + (isPrecise(c) ? 0 : 1), 0);
+  if (all.length <= opts.maxCandidates && searchedCount <= opts.maxSearchCandidates) return all.map(toRaw);
+  // Too many (many entities share one name, or one word): each tier that does not fit whole is
+  // cut by the pre-rank (context, type, popularity and the share of the mention's words), else
+  // by that share and popularity. At most PRE_RANK_MAX candidates are weighed for that.
   const pool = all.slice(0, PRE_RANK_MAX);
-  const eids = pool.map((c) => c.eid);
-  const share = nameShares(kb, eids, tokens, corrected);
-  const pre = preRank ? preRank(eids, share) : eids.map((e, i) => share[i]! * 1e12 + kb.hot.prior[e]!);
-  const value = new Map(pool.map((c, i) => [c.eid, pre[i]!]));
   const out: Found[] = [];
-  for (const tier of [pool.filter(isPrecise), pool.filter((c) => !isPrecise(c))]) {
-    const room = opts.maxCandidates - out.length;
+  const tiers: Array<[Found[], number]> = [
+    [pool.filter(isPrecise), opts.maxCandidates],
+    [pool.filter((c) => !isPrecise(c)), opts.maxSearchCandidates],
+  ];
+  for (const [tier, most] of tiers) {
+    const room = Math.min(opts.maxCandidates - out.length, most);
     if (room <= 0) break;
-    if (tier.length > room) tier.sort((a, b) => value.get(b.eid)! - value.get(a.eid)! || a.rank - b.rank);
+    if (tier.length > room) {
+      const eids = tier.map((c) => c.eid);
+      const share = nameShares(kb, eids, tokens, corrected);
+      const pre = preRank ? preRank(eids, share) : eids.map((e, i) => share[i]! * 1e12 + kb.hot.prior[e]!);
+      const value = new Map(eids.map((e, i) => [e, pre[i]!]));
+      tier.sort((a, b) => value.get(b.eid)! - value.get(a.eid)! || a.rank - b.rank);
+    }
     out.push(...tier.slice(0, room));
   }
   return out.map(toRaw);

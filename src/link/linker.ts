@@ -150,6 +150,11 @@ export class Linker {
     if (!Number.isInteger(this.cand.maxCandidates) || this.cand.maxCandidates < 1) {
       throw new UsageError(`maxCandidates must be a whole number >= 1, got ${this.cand.maxCandidates}`);
     }
+    if (!Number.isInteger(this.cand.maxSearchCandidates) || this.cand.maxSearchCandidates < 0) {
+      throw new UsageError(
+        `maxSearchCandidates must be a whole number >= 0, got ${this.cand.maxSearchCandidates}`,
+      );
+    }
     this.blockMinCompat = options.blockMinCompat ?? DEFAULT_BLOCK_MIN_COMPAT;
     this.documentSteps =
       options.document === false
