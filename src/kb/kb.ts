@@ -9,7 +9,7 @@ import { BloomFilter } from "./bloom.js";
 import { HotStore } from "./hot.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
-import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, unpackForms } from "./schema.js";
+import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, type UnpackedForm, unpackForms } from "./schema.js";
 
 export interface KbInfo {
   file: string;
@@ -30,16 +30,8 @@ export interface KbInfo {
   created: string;
 }
 
-export interface AliasRow {
-  /** Position among the entity's names (0: the canonical name). */
-  aid: number;
-  text: string;
-  key: string;
-  full: string;
-  ocr: string;
-  canonical: boolean;
-  tokens: string[];
-}
+/** One of an entity's names with its normalized forms (see schema.ts). */
+export type AliasRow = UnpackedForm;
 
 export interface EntityRow {
   eid: number;
@@ -355,7 +347,7 @@ function decodeEntity(r: Record<string, unknown>, hot: HotStore): EntityRow {
     cls: r.class as EntityClass,
     prior: r.prior as number,
     contextNorm: hot.norm[eid]!,
-    aliases: unpackForms(r.forms as string).map((f, i) => ({ ...f, aid: i, tokens: f.key.split(" ") })),
+    aliases: unpackForms(r.forms as string),
   };
 }
 

@@ -91,10 +91,17 @@ export function packForms(forms: readonly PackedForm[]): string {
     .join(RECORD);
 }
 
-export function unpackForms(packed: string): PackedForm[] {
+/** A packed form as read back: with its position among the entity's names and its key's tokens. */
+export interface UnpackedForm extends PackedForm {
+  /** Position among the entity's names (0: the canonical name). */
+  aid: number;
+  tokens: string[];
+}
+
+export function unpackForms(packed: string): UnpackedForm[] {
   if (packed === "") return [];
-  return packed.split(RECORD).map((r) => {
+  return packed.split(RECORD).map((r, aid) => {
     const [text = "", key = "", full = "", ocr = "", canonical = "0"] = r.split(FIELD);
-    return { text, key, full, ocr, canonical: canonical === "1" };
+    return { aid, text, key, full, ocr, canonical: canonical === "1", tokens: key.split(" ") };
   });
 }
