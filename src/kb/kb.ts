@@ -98,7 +98,7 @@ export class Kb {
   readonly db: Database.Database;
   readonly info: KbInfo;
   private readonly stmts: {
-    fts: Database.Statement<[string, number], unknown[]>;
+    fts: Database.Statement<[string, number], number>;
     vocab: Database.Statement<[string], { df: number }>;
     idf: Database.Statement<[string], TermInfo>;
     byId: Database.Statement<[string], { eid: number }>;
@@ -144,8 +144,8 @@ export class Kb {
       this.stmts = {
         // Unranked: rows come in position order, which is falling popularity (see schema.ts).
         fts: db
-          .prepare<[string, number], unknown[]>("SELECT rowid FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?")
-          .raw(true),
+          .prepare<[string, number], number>("SELECT rowid FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?")
+          .pluck(true),
         vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
         idf: db.prepare("SELECT df, id FROM idf WHERE term = ?"),
         details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
@@ -215,8 +215,8 @@ export class Kb {
     const out: number[] = [];
     for (const w of words) {
       if (out.length >= limit) break;
-      for (const row of this.stmts.fts.all(ftsString(w), limit - out.length)) {
-        const eid = this.hot.eidAt(row[0] as number);
+      for (const pos of this.stmts.fts.all(ftsString(w), limit - out.length)) {
+        const eid = this.hot.eidAt(pos);
         if (seen.has(eid)) continue;
         seen.add(eid);
         out.push(eid);
