@@ -35,6 +35,16 @@ const SETTINGS: Setting[] = [
     paths: [...ALL_PATHS],
     candidates: { skipSearchOnKeyMatch: false },
   },
+  {
+    name: "all, token search cut to the 30 most popular hits (ftsLimit 30)",
+    paths: [...ALL_PATHS],
+    candidates: { ftsLimit: 30 },
+  },
+  {
+    name: "all, up to 30 candidates from search (maxSearchCandidates 30)",
+    paths: [...ALL_PATHS],
+    candidates: { maxSearchCandidates: 30 },
+  },
   ...ALL_PATHS.map((p) => ({ name: `without ${p}`, paths: without(p) })),
   { name: "exact only", paths: ["exact"] },
   { name: "exact + ocr", paths: ["exact", "ocr"] },
