@@ -9,13 +9,14 @@ import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION, normalizeName } from "../normalize/name.js";
-import { termListNorm } from "../score/context.js";
 import { contextTerms } from "../score/terms.js";
-import { idf } from "../score/tfidf.js";
 import type { EntityRecord } from "../types.js";
 import { InputError } from "../util/errors.js";
+import { BatchInsert } from "./batch-insert.js";
 import { BloomFilter } from "./bloom.js";
+import { ContextStats } from "./context-stats.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
+import { FtsRows } from "./fts-load.js";
 import { readTable, tableFormatOf } from "./read-table.js";
 import {
   INDEX_SQL,
@@ -58,12 +59,6 @@ export interface BuildSummary {
 }
 
 const DEFAULT_PROGRESS_EVERY = 10_000;
-
-/** Everything the indexer derives from one record before writing it. */
-function aliasForms(record: EntityRecord, cls: ReturnType<LabelMap["classOfTableType"]>) {
-  const texts = [record.name, ...record.aliases];
-  return texts.map((text, i) => ({ text, canonical: i === 0, n: normalizeName(text, cls) }));
-}
 
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
@@ -163,18 +158,18 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     phases[phase] = Number(now - last) / 1e9;
     last = now;
   };
-  const insEntity = db.prepare(
-    "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms) VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
+  const insEntity = new BatchInsert(
+    db,
+    "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms)",
+    8,
   );
-  const insDetails = db.prepare("INSERT INTO entity_details (eid, description, attributes) VALUES (?, ?, ?)");
-  const insAlias = db.prepare(
-    "INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)",
-  );
-  const insKey = db.prepare("INSERT INTO keys (key, class, kind, eid) VALUES (?, ?, ?, ?)");
+  const insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description, attributes)", 3);
+  const insKey = new BatchInsert(db, "INSERT INTO keys (key, class, kind, eid)", 4);
   // Filled while rows stream in; sized from the file's size, since the row count is not known yet.
   const keyFilter = BloomFilter.forItems(estimateKeys(options.table));
+  const context = new ContextStats();
+  const ftsRows = new FtsRows();
   const vocab = new Map<string, number>();
-  const termDf = new Map<string, number>();
   const byClass: Record<string, number> = {};
   const unknownTypes: Record<string, number> = {};
   let eid = 0;
@@ -193,37 +188,42 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
       if (r.prior > maxPrior) maxPrior = r.prior;
       const attrText = Object.values(r.attributes).join(" ");
       const terms = contextTerms(`${r.description} ${attrText}`).sort();
-      for (let i = 0; i < terms.length; i++) {
-        if (i === 0 || terms[i] !== terms[i - 1]) termDf.set(terms[i]!, (termDf.get(terms[i]!) ?? 0) + 1);
-      }
+      context.add(terms);
       const seenKeys = new Set<string>();
       const entityTokens = new Set<string>();
       const packed: PackedForm[] = [];
+      const nameKeys: string[] = [];
       const add = (key: string | null, kind: KeyKind) => {
         if (key === null || key === "") return;
         const dedupe = `${kind}\u0000${key}`;
         if (seenKeys.has(dedupe)) return;
         seenKeys.add(dedupe);
-        insKey.run(key, cls, kind, eid);
+        insKey.add(key, cls, kind, eid);
         keyFilter.add(key);
         keys++;
       };
-      for (const a of aliasForms(r, cls)) {
-        if (a.n.key === "") continue;
+      for (let i = 0; i <= r.aliases.length; i++) {
+        const text = i === 0 ? r.name : r.aliases[i - 1]!;
+        const n = normalizeName(text, cls);
+        if (n.key === "") continue;
         aid++;
-        insAlias.run(aid, eid, a.text, a.n.key, a.n.full, a.n.ocrKey, a.canonical ? 1 : 0);
-        packed.push({ text: a.text, key: a.n.key, full: a.n.full, ocr: a.n.ocrKey, canonical: a.canonical });
-        for (const t of a.n.tokens) entityTokens.add(t);
-        add(a.n.key, "exact");
-        add(a.n.ocrKey, "ocr");
-        add(a.n.acronymKey, "acronym");
-        if (a.n.acronym !== null) add(a.n.acronym, "acronym");
-        add(a.n.initialsKey, "initials");
+        nameKeys.push(n.key);
+        packed.push({ text, key: n.key, full: n.full, ocr: n.ocrKey, canonical: i === 0 });
+        for (const t of n.tokens) entityTokens.add(t);
+        add(n.key, "exact");
+        add(n.ocrKey, "ocr");
+        add(n.acronymKey, "acronym");
+        if (n.acronym !== null) add(n.acronym, "acronym");
+        add(n.initialsKey, "initials");
       }
-      insEntity.run(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
-      insDetails.run(eid, r.description, JSON.stringify(r.attributes));
+      ftsRows.add(r.prior, nameKeys);
+      insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
+      insDetails.add(eid, r.description, JSON.stringify(r.attributes));
       for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
     }
+    insEntity.flush();
+    insDetails.flush();
+    insKey.flush();
   });
 
   let rows = 0;
@@ -246,16 +246,8 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   options.onProgress?.(rows);
 
   mark("read and insert rows");
-  // Full-text rows in order of falling popularity (see schema.ts): positions first, then the index.
-  db.exec(
-    "CREATE TEMP TABLE fts_order AS SELECT a.eid AS eid, a.key AS key FROM aliases a JOIN entities e ON e.eid = a.eid ORDER BY e.prior DESC, a.aid",
-  );
-  db.exec("INSERT INTO fts_rows (pos, eid) SELECT rowid, eid FROM temp.fts_order");
-  db.exec("INSERT INTO alias_fts (rowid, tokens) SELECT rowid, key FROM temp.fts_order");
-  db.exec("DROP TABLE temp.fts_order");
-  const insVocab = db.prepare("INSERT INTO vocab (token, df) VALUES (?, ?)");
-  const insDelete = db.prepare("INSERT OR IGNORE INTO deletes (variant, token) VALUES (?, ?)");
-  const insIdf = db.prepare("INSERT INTO idf (term, df) VALUES (?, ?)");
+  // Full-text rows in order of falling popularity (see schema.ts and fts-load.ts).
+  db.transaction(() => ftsRows.write(db))();
   mark("full-text index");
   // Deletion variants sorted before insertion: appending to a B-tree in key order is far faster
   // than inserting at random places.
@@ -267,31 +259,30 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   pairs.sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : a[1] < b[1] ? -1 : a[1] > b[1] ? 1 : 0));
   const variantFilter = BloomFilter.forItems(pairs.length);
   const tokenFilter = BloomFilter.forItems(vocab.size);
+  const insVocab = new BatchInsert(db, "INSERT INTO vocab (token, df)", 2);
+  const insDelete = new BatchInsert(db, "INSERT OR IGNORE INTO deletes (variant, token)", 2);
+  const insIdf = new BatchInsert(db, "INSERT INTO idf (term, df)", 2);
   db.transaction(() => {
     for (const [token, df] of vocab) {
-      insVocab.run(token, df);
+      insVocab.add(token, df);
       tokenFilter.add(token);
     }
     for (const [v, t] of pairs) {
-      insDelete.run(v, t);
+      insDelete.add(v, t);
       variantFilter.add(v);
     }
-    for (const [term, df] of termDf) insIdf.run(term, df);
+    for (const [term, df] of context.frequencies()) insIdf.add(term, df);
+    insVocab.flush();
+    insDelete.flush();
+    insIdf.flush();
   })();
   pairs.length = 0;
   mark("vocabulary and fuzzy index");
-  // Context norms need the final IDF, so they are written in a second pass over the entities.
-  const docs = eid;
-  const idfOf = (t: string) => idf(termDf.get(t) ?? 0, docs);
+  // Context norms need the final IDF, so they are written once every row is in.
+  const norms = context.norms();
   const setNorm = db.prepare("UPDATE entities SET ctx_norm = ? WHERE eid = ?");
-  const readTerms = db.prepare("SELECT eid, terms FROM entities").raw(true);
-  const norms: Array<[number, number]> = [];
-  for (const r of readTerms.iterate()) {
-    const [id, terms] = r as [number, string];
-    if (terms !== "") norms.push([termListNorm(terms.split(" "), idfOf), id]);
-  }
   db.transaction(() => {
-    for (const [norm, id] of norms) setNorm.run(norm, id);
+    for (let i = 0; i < norms.length; i++) if (norms[i]! !== 0) setNorm.run(norms[i]!, i + 1);
   })();
   mark("context norms");
   const insFilter = db.prepare("INSERT INTO filters (name, m, k, bits) VALUES (?, ?, ?, ?)");
@@ -308,7 +299,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     aliases: aid,
     keys,
     vocabulary: vocab.size,
-    contextTerms: termDf.size,
+    contextTerms: context.size,
     maxPrior,
     byClass,
     unknownTypes,

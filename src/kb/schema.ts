@@ -8,10 +8,9 @@
  *   and attributes (sorted, repeated per occurrence) from which TF-IDF vectors are built;
  *   `forms` packs the normalized forms of its names (see packForms), so that scoring reads one
  *   row per candidate.
- * - aliases: the canonical name and every alias, with their normalized key and full forms.
  * - keys: blocking keys per entity and class: exact, ocr, acronym, initials.
  * - alias_fts: FTS5 over alias core tokens (contentless). Its rowids are positions in order of
- *   falling popularity (prior), mapped to alias ids by fts_rows, so an unranked match returns
+ *   falling popularity (prior), mapped to entity ids by fts_rows, so an unranked match returns
  *   the most popular entities carrying a token first, at a cost that does not grow with how
  *   common the token is.
  * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
@@ -40,15 +39,6 @@ CREATE TABLE entities (
   forms TEXT NOT NULL
 );
 CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
-CREATE TABLE aliases (
-  aid INTEGER PRIMARY KEY,
-  eid INTEGER NOT NULL,
-  text TEXT NOT NULL,
-  key TEXT NOT NULL,
-  full TEXT NOT NULL,
-  ocr TEXT NOT NULL,
-  canonical INTEGER NOT NULL
-);
 CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
 CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', detail=column, tokenize='unicode61 remove_diacritics 0');
 CREATE TABLE fts_rows (pos INTEGER PRIMARY KEY, eid INTEGER NOT NULL);
