@@ -18,8 +18,8 @@ export class BatchInsert {
   private readonly width: number;
   private filled = 0;
 
-  /** `head` is `INSERT INTO t (a, b, ...)`; `width` the number of columns it names. */
-  constructor(db: Database.Database, head: string, width: number) {
+  /** `head` is `INSERT INTO t (a, b, ...)`; `width` the number of columns it names: 2, 3, 4 or 8. */
+  constructor(db: Database.Database, head: string, width: 2 | 3 | 4 | 8) {
     const group = `(${Array.from({ length: width }, () => "?").join(", ")})`;
     this.width = width;
     this.full = db.prepare(
@@ -29,12 +29,38 @@ export class BatchInsert {
     this.values = new Array(width * ROWS_PER_STATEMENT);
   }
 
-  /** Buffers one row (`width` values); a full buffer is written at once. */
-  add(...row: unknown[]): void {
+  /**
+   * Buffers one row: the first `width` arguments (named parameters rather than a rest array, so
+   * a row allocates nothing); a full buffer is written at once.
+   */
+  add(
+    a: unknown,
+    b: unknown,
+    c?: unknown,
+    d?: unknown,
+    e?: unknown,
+    f?: unknown,
+    g?: unknown,
+    h?: unknown,
+  ): void {
+    const v = this.values;
     const at = this.filled * this.width;
-    for (let i = 0; i < this.width; i++) this.values[at + i] = row[i];
+    v[at] = a;
+    v[at + 1] = b;
+    if (this.width > 2) {
+      v[at + 2] = c;
+      if (this.width > 3) {
+        v[at + 3] = d;
+        if (this.width > 4) {
+          v[at + 4] = e;
+          v[at + 5] = f;
+          v[at + 6] = g;
+          v[at + 7] = h;
+        }
+      }
+    }
     if (++this.filled === ROWS_PER_STATEMENT) {
-      this.full.run(this.values);
+      this.full.run(v);
       this.filled = 0;
     }
   }

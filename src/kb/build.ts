@@ -8,25 +8,14 @@ import { existsSync, renameSync, rmSync, statSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
-import { NORMALIZER_VERSION, normalizeName } from "../normalize/name.js";
-import { contextTerms } from "../score/terms.js";
-import type { EntityRecord } from "../types.js";
+import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { BloomFilter } from "./bloom.js";
-import { ContextStats } from "./context-stats.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
-import { FtsRows } from "./fts-load.js";
 import { readTable, tableFormatOf } from "./read-table.js";
-import {
-  INDEX_SQL,
-  KB_FORMAT,
-  type KeyKind,
-  type PackedForm,
-  packForms,
-  SCHEMA_SQL,
-  SCHEMA_VERSION,
-} from "./schema.js";
+import { RowWriter } from "./row-writer.js";
+import { INDEX_SQL, KB_FORMAT, SCHEMA_SQL, SCHEMA_VERSION } from "./schema.js";
 
 export interface BuildKbOptions {
   /** The knowledge table: CSV (header row), TSV or JSONL. */
@@ -172,96 +161,37 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     phases[phase] = Number(now - last) / 1e9;
     last = now;
   };
-  const insEntity = new BatchInsert(
-    db,
-    "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms)",
-    8,
-  );
-  const insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description, attributes)", 3);
-  const insKey = new BatchInsert(db, "INSERT INTO keys (key, class, kind, eid)", 4);
-  // Filled while rows stream in; sized from the file's size, since the row count is not known yet.
-  const keyFilter = BloomFilter.forItems(estimateKeys(options.table));
-  const context = new ContextStats();
-  const ftsRows = new FtsRows();
-  const vocab = new Map<string, number>();
-  const byClass: Record<string, number> = {};
-  const unknownTypes: Record<string, number> = {};
-  let eid = 0;
-  let aid = 0;
-  let keys = 0;
-  let maxPrior = 0;
-  let batch: EntityRecord[] = [];
+  // The key filter is filled while rows stream in; sized from the file's size, since the row
+  // count is not known yet.
+  const writer = new RowWriter(db, labels, BloomFilter.forItems(estimateKeys(options.table)));
   const every = options.progressEvery ?? DEFAULT_PROGRESS_EVERY;
-
-  const writeBatch = db.transaction((records: EntityRecord[]) => {
-    for (const r of records) {
-      eid++;
-      const cls = labels.classOfTableType(r.type);
-      if (!labels.knowsTableType(r.type)) unknownTypes[r.type] = (unknownTypes[r.type] ?? 0) + 1;
-      byClass[cls] = (byClass[cls] ?? 0) + 1;
-      if (r.prior > maxPrior) maxPrior = r.prior;
-      const attrText = Object.values(r.attributes).join(" ");
-      const terms = contextTerms(`${r.description} ${attrText}`).sort();
-      context.add(terms);
-      const seenKeys = new Set<string>();
-      const entityTokens = new Set<string>();
-      const packed: PackedForm[] = [];
-      const nameKeys: string[] = [];
-      const add = (key: string | null, kind: KeyKind) => {
-        if (key === null || key === "") return;
-        const dedupe = `${kind}\u0000${key}`;
-        if (seenKeys.has(dedupe)) return;
-        seenKeys.add(dedupe);
-        insKey.add(key, cls, kind, eid);
-        keyFilter.add(key);
-        keys++;
-      };
-      for (let i = 0; i <= r.aliases.length; i++) {
-        const text = i === 0 ? r.name : r.aliases[i - 1]!;
-        const n = normalizeName(text, cls);
-        if (n.key === "") continue;
-        aid++;
-        nameKeys.push(n.key);
-        packed.push({ text, key: n.key, full: n.full, ocr: n.ocrKey, canonical: i === 0 });
-        for (const t of n.tokens) entityTokens.add(t);
-        add(n.key, "exact");
-        add(n.ocrKey, "ocr");
-        add(n.acronymKey, "acronym");
-        if (n.acronym !== null) add(n.acronym, "acronym");
-        add(n.initialsKey, "initials");
-      }
-      ftsRows.add(r.prior, nameKeys);
-      insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
-      insDetails.add(eid, r.description, JSON.stringify(r.attributes));
-      for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
-    }
-    insEntity.flush();
-    insDetails.flush();
-    insKey.flush();
-  });
-
   let rows = 0;
   // The source checksum is taken from the same bytes the rows are parsed from: one read of the file.
   const sourceHash = createHash("sha256");
+  // Each row is written as it arrives (no batch of parsed rows is held), in transactions of
+  // ROWS_PER_TRANSACTION rows; a failure leaves one open, which closing the database rolls back.
+  db.exec("BEGIN");
   for await (const { record } of readTable(options.table, options.from, (chunk) =>
     sourceHash.update(chunk),
   )) {
-    batch.push(record);
+    writer.write(record);
     rows++;
-    if (batch.length >= ROWS_PER_TRANSACTION) {
-      writeBatch(batch);
-      batch = [];
+    if (rows % ROWS_PER_TRANSACTION === 0) {
+      writer.flush();
+      db.exec("COMMIT; BEGIN");
     }
     if (options.onProgress && rows % every === 0) options.onProgress(rows);
   }
-  if (batch.length > 0) writeBatch(batch);
+  writer.flush();
+  db.exec("COMMIT");
   if (rows === 0) throw new InputError({ file: options.table }, "the table has no rows");
   const sourceSha256 = sourceHash.digest("hex");
   options.onProgress?.(rows);
+  const { vocab, context, eid } = writer;
 
   mark("read and insert rows");
   // Full-text rows in order of falling popularity (see schema.ts and fts-load.ts).
-  db.transaction(() => ftsRows.write(db))();
+  db.transaction(() => writer.fts.write(db))();
   mark("full-text index");
   // Deletion variants sorted before insertion: appending to a B-tree in key order is far faster
   // than inserting at random places.
@@ -301,7 +231,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   mark("context norms");
   const insFilter = db.prepare("INSERT INTO filters (name, m, k, bits) VALUES (?, ?, ?, ?)");
   for (const [name, f] of [
-    ["keys", keyFilter],
+    ["keys", writer.keyFilter],
     ["variants", variantFilter],
     ["tokens", tokenFilter],
   ] as const) {
@@ -310,13 +240,13 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   mark("filters");
   return {
     entities: eid,
-    aliases: aid,
-    keys,
+    aliases: writer.aliases,
+    keys: writer.keys,
     vocabulary: vocab.size,
     contextTerms: context.size,
-    maxPrior,
-    byClass,
-    unknownTypes,
+    maxPrior: writer.maxPrior,
+    byClass: writer.byClass,
+    unknownTypes: writer.unknownTypes,
     phases,
     sourceSha256,
   };

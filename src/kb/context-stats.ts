@@ -30,10 +30,6 @@ class ChunkedUint32 {
   get(i: number): number {
     return this.chunks[i >>> CHUNK_BITS]![i & CHUNK_MASK]!;
   }
-
-  set(i: number, v: number): void {
-    this.chunks[i >>> CHUNK_BITS]![i & CHUNK_MASK] = v;
-  }
 }
 
 export class ContextStats {
@@ -41,7 +37,7 @@ export class ContextStats {
   /** Terms by id, in order of first appearance. */
   private readonly termList: string[] = [];
   /** Document frequency by term id. */
-  private readonly df = new ChunkedUint32();
+  private readonly df: number[] = [];
   /** The term id of every occurrence, documents one after another, each in sorted term order. */
   private readonly occurrences = new ChunkedUint32();
   /** Entry d: where document d + 1 starts in `occurrences` (document 0 starts at 0). */
@@ -59,16 +55,20 @@ export class ContextStats {
 
   /** Adds the next document's terms, sorted (repeats are counts). */
   add(sortedTerms: readonly string[]): void {
+    let id = -1;
     for (let i = 0; i < sortedTerms.length; i++) {
       const t = sortedTerms[i]!;
-      let id = this.ids.get(t);
-      if (id === undefined) {
-        id = this.termList.length;
-        this.ids.set(t, id);
-        this.termList.push(t);
-        this.df.push(0);
+      if (i === 0 || t !== sortedTerms[i - 1]) {
+        let known = this.ids.get(t);
+        if (known === undefined) {
+          known = this.termList.length;
+          this.ids.set(t, known);
+          this.termList.push(t);
+          this.df.push(0);
+        }
+        id = known;
+        this.df[id]!++;
       }
-      if (i === 0 || t !== sortedTerms[i - 1]) this.df.set(id, this.df.get(id) + 1);
       this.occurrences.push(id);
     }
     this.ends.push(this.occurrences.length);
@@ -76,7 +76,7 @@ export class ContextStats {
 
   /** Every term with its document frequency, in order of first appearance. */
   *frequencies(): Generator<[string, number]> {
-    for (let id = 0; id < this.termList.length; id++) yield [this.termList[id]!, this.df.get(id)];
+    for (let id = 0; id < this.termList.length; id++) yield [this.termList[id]!, this.df[id]!];
   }
 
   /**
@@ -86,7 +86,7 @@ export class ContextStats {
   norms(): Float64Array {
     const docs = this.documents;
     const idfs = new Float64Array(this.termList.length);
-    for (let id = 0; id < idfs.length; id++) idfs[id] = idf(this.df.get(id), docs);
+    for (let id = 0; id < idfs.length; id++) idfs[id] = idf(this.df[id]!, docs);
     const out = new Float64Array(docs);
     let e = 0;
     for (let d = 0; d < docs; d++) {

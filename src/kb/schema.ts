@@ -12,7 +12,9 @@
  * - alias_fts: FTS5 over alias core tokens (contentless). Its rowids are positions in order of
  *   falling popularity (prior), mapped to entity ids by fts_rows, so an unranked match returns
  *   the most popular entities carrying a token first, at a cost that does not grow with how
- *   common the token is.
+ *   common the token is. No per-row token counts are kept (columnsize=0): they serve only
+ *   ranking functions, which the unranked lookup never calls, and writing them was a quarter of
+ *   the full-text build.
  * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
  *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
  * - idf: document frequency of each context term.
@@ -40,7 +42,7 @@ CREATE TABLE entities (
 );
 CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
 CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
-CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', detail=column, tokenize='unicode61 remove_diacritics 0');
+CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', columnsize=0, detail=column, tokenize='unicode61 remove_diacritics 0');
 CREATE TABLE fts_rows (pos INTEGER PRIMARY KEY, eid INTEGER NOT NULL);
 CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
