@@ -3,7 +3,7 @@
  * Every problem is an InputError naming the file, line and column.
  */
 import { extname } from "node:path";
-import { type CsvError, parse } from "csv-parse";
+import { type CsvError, Parser } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { readJsonLines } from "../read/jsonl.js";
@@ -108,9 +108,28 @@ class RowValidator {
   }
 }
 
+/** A parsed CSV/TSV record and the line count of the file when it ended (csv-parse's `info.lines`). */
+interface NumberedRecord {
+  record: Record<string, string>;
+  lines: number;
+}
+
+/**
+ * A csv-parse stream whose records carry the parser's line count, read from its live counters at
+ * the moment the record is pushed, which is the value csv-parse's `info` option reports: that
+ * option builds two objects of a dozen fields per record, and only the line count is used here.
+ */
+class LineNumberedParser extends Parser {
+  override push(record: unknown, encoding?: BufferEncoding): boolean {
+    if (record === null) return super.push(null, encoding);
+    const numbered: NumberedRecord = { record: record as Record<string, string>, lines: this.info.lines };
+    return super.push(numbered, encoding);
+  }
+}
+
 async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTap): AsyncGenerator<TableRow> {
   const validator = new RowValidator(file);
-  const parser = parse({
+  const parser = new LineNumberedParser({
     delimiter,
     columns: (header: string[]) => {
       const cols = header.map((h) => h.trim());
@@ -126,7 +145,6 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
         throw new InputError({ file, line: 1, field: dup }, `column "${dup}" appears twice in the header`);
       return cols;
     },
-    info: true,
     relax_quotes: false,
     skip_empty_lines: true,
     quote: delimiter === "\t" ? false : '"',
@@ -135,11 +153,8 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
   text.on("error", (e) => parser.destroy(e));
   text.pipe(parser);
   try {
-    for await (const item of parser as AsyncIterable<{
-      record: Record<string, string>;
-      info: { lines: number };
-    }>) {
-      const line = item.info.lines;
+    for await (const item of parser as AsyncIterable<NumberedRecord>) {
+      const line = item.lines;
       yield { record: validator.build(line, item.record, item.record.aliases), line };
     }
   } catch (e) {
