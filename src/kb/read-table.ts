@@ -13,6 +13,7 @@ export type TableFormat = "csv" | "tsv" | "jsonl";
 
 /** The columns with a meaning of their own; every other column is an attribute. */
 export const RESERVED_COLUMNS = ["id", "name", "type", "aliases", "description", "prior"] as const;
+const RESERVED: ReadonlySet<string> = new Set(RESERVED_COLUMNS);
 const REQUIRED_COLUMNS = ["id", "name", "type"] as const;
 /** Separator of aliases inside one CSV/TSV cell. */
 export const ALIAS_SEPARATOR = "|";
@@ -51,14 +52,18 @@ class RowValidator {
         `expected text, got ${Array.isArray(v) ? "an array" : typeof v}`,
       );
     };
-    for (const field of REQUIRED_COLUMNS) {
-      if (str(field) === "")
+    // The required columns, each read once, checked in the order of REQUIRED_COLUMNS.
+    const required = (field: (typeof REQUIRED_COLUMNS)[number]): string => {
+      const v = str(field);
+      if (v === "")
         throw new InputError({ file, line, field }, `missing ${field}: every row needs id, name and type`);
-    }
-    const id = str("id");
+      return v;
+    };
+    const id = required("id");
+    const name = required("name");
+    const type = required("type");
     if (this.seen.has(id)) throw new InputError({ file, line, field: "id" }, `duplicate id "${id}"`);
     this.seen.add(id);
-    const name = str("name");
     let prior = 0;
     const priorRaw = raw.prior;
     if (priorRaw !== undefined && priorRaw !== null && priorRaw !== "") {
@@ -74,11 +79,11 @@ class RowValidator {
     const aliases = this.aliases(line, aliasesRaw, name);
     const attributes: Record<string, string> = {};
     for (const [k, v] of Object.entries(raw)) {
-      if ((RESERVED_COLUMNS as readonly string[]).includes(k) || v === undefined || v === null) continue;
+      if (RESERVED.has(k) || v === undefined || v === null) continue;
       const s = typeof v === "string" ? v.trim() : typeof v === "object" ? JSON.stringify(v) : String(v);
       if (s !== "") attributes[k] = s;
     }
-    return { id, name, type: str("type"), aliases, description: str("description"), prior, attributes };
+    return { id, name, type, aliases, description: str("description"), prior, attributes };
   }
 
   private aliases(line: number, v: unknown, name: string): string[] {
