@@ -207,7 +207,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   const insDelete = new BatchInsert(db, "INSERT OR IGNORE INTO deletes (variant, token)", 2);
   const insIdf = new BatchInsert(db, "INSERT INTO idf (term, df)", 2);
   db.transaction(() => {
-    for (const [token, df] of vocab) {
+    for (const [token, { df }] of vocab) {
       insVocab.add(token, df);
       tokenFilter.add(token);
     }

@@ -26,8 +26,11 @@ export class RowWriter {
   readonly byClass: Record<string, number> = {};
   /** Table types the label map does not know, with counts. */
   readonly unknownTypes: Record<string, number> = {};
-  /** Alias token -> number of entities with it in a name. */
-  readonly vocab = new Map<string, number>();
+  /**
+   * Alias token -> number of entities with it in a name, in a mutable box, so that counting a
+   * known token is one map lookup instead of a get and a set.
+   */
+  readonly vocab = new Map<string, { df: number }>();
   readonly context = new ContextStats();
   readonly fts = new FtsRows();
 
@@ -41,6 +44,8 @@ export class RowWriter {
     acronym: new Set(),
     initials: new Set(),
   };
+  /** The sets of `seen`, to clear them without enumerating the object's keys. */
+  private readonly seenSets = Object.values(this.seen);
   /** Distinct name tokens of the current entity (cleared per entity). */
   private readonly tokens = new Set<string>();
 
@@ -68,7 +73,7 @@ export class RowWriter {
     const attrText = Object.values(r.attributes).join(" ");
     const terms = contextTerms(`${r.description} ${attrText}`).sort();
     this.context.add(terms);
-    for (const kind in this.seen) this.seen[kind as KeyKind].clear();
+    for (const set of this.seenSets) set.clear();
     this.tokens.clear();
     const packed: PackedForm[] = [];
     const nameKeys: string[] = [];
@@ -98,7 +103,11 @@ export class RowWriter {
     this.fts.add(r.prior, nameKeys);
     this.insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
     this.insDetails.add(eid, r.description, JSON.stringify(r.attributes));
-    for (const t of this.tokens) this.vocab.set(t, (this.vocab.get(t) ?? 0) + 1);
+    for (const t of this.tokens) {
+      const count = this.vocab.get(t);
+      if (count === undefined) this.vocab.set(t, { df: 1 });
+      else count.df++;
+    }
   }
 
   /** Writes the buffered rows; call before the enclosing transaction commits. */
