@@ -18,8 +18,8 @@ export class BatchInsert {
   private readonly width: number;
   private filled = 0;
 
-  /** `head` is `INSERT INTO t (a, b, ...)`; `width` the number of columns it names: 2, 3, 4 or 8. */
-  constructor(db: Database.Database, head: string, width: 2 | 3 | 4 | 8) {
+  /** `head` is `INSERT INTO t (a, b, ...)`; `width` the number of columns it names: 2, 3, 4, 8 or 9. */
+  constructor(db: Database.Database, head: string, width: 2 | 3 | 4 | 8 | 9) {
     const group = `(${Array.from({ length: width }, () => "?").join(", ")})`;
     this.width = width;
     this.full = db.prepare(
@@ -42,6 +42,7 @@ export class BatchInsert {
     f?: unknown,
     g?: unknown,
     h?: unknown,
+    i?: unknown,
   ): void {
     const v = this.values;
     const at = this.filled * this.width;
@@ -56,6 +57,7 @@ export class BatchInsert {
           v[at + 5] = f;
           v[at + 6] = g;
           v[at + 7] = h;
+          if (this.width > 8) v[at + 8] = i;
         }
       }
     }

@@ -15,6 +15,16 @@ import { ContextStats } from "./context-stats.js";
 import { FtsRows } from "./fts-load.js";
 import { type KeyKind, type PackedForm, packForms } from "./schema.js";
 
+/**
+ * The context norm written with an entity that has context terms, until the real one (which
+ * needs the final IDF) replaces it: a REAL that is not a whole number, so SQLite stores it in
+ * eight bytes like the norm itself, and the update rewrites each row in place instead of
+ * growing it (rows growing by a few bytes overflowed the pages the load had filled, and the
+ * update split them). Every entity with terms gets its norm (>= 1, since every IDF is), so the
+ * placeholder never remains; an entity without terms is written with its final norm, 0.
+ */
+export const NORM_PLACEHOLDER = 0.5;
+
 export class RowWriter {
   /** Internal id of the last entity written (ids count from 1 in table order). */
   eid = 0;
@@ -57,8 +67,8 @@ export class RowWriter {
   ) {
     this.insEntity = new BatchInsert(
       db,
-      "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms)",
-      8,
+      "INSERT INTO entities (eid, id, name, type, class, prior, terms, forms, ctx_norm)",
+      9,
     );
     this.insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description, attributes)", 3);
     this.insKey = new BatchInsert(db, "INSERT INTO keys (key, class, kind, eid)", 4);
@@ -101,7 +111,8 @@ export class RowWriter {
       add(n.initialsKey, "initials");
     }
     this.fts.add(r.prior, nameKeys);
-    this.insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed));
+    const norm = terms.length > 0 ? NORM_PLACEHOLDER : 0;
+    this.insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, terms.join(" "), packForms(packed), norm);
     this.insDetails.add(eid, r.description, JSON.stringify(r.attributes));
     for (const t of this.tokens) {
       const count = this.vocab.get(t);
