@@ -152,7 +152,7 @@ interface LoadSummary {
   sourceSha256: string;
 }
 
-/** Rows written per transaction: large enough to amortize commits, small enough to bound memory. */
+/** Rows written per transaction: enough that commits cost nothing next to the rows themselves. */
 const ROWS_PER_TRANSACTION = 20_000;
 
 async function load(db: Database.Database, options: BuildKbOptions, labels: LabelMap): Promise<LoadSummary> {
