@@ -16,13 +16,24 @@ const FNV_PRIME = 0x01000193;
 /** A second offset basis, so the two hashes of one string are independent enough for double hashing. */
 const FNV_OFFSET_2 = 0x01000193 ^ 0x5bd1e995;
 
-function fnv1a(s: string, seed: number): number {
-  let h = seed;
+/** The two hashes of the last `hash` call (module state, so hashing a string allocates nothing). */
+let hash1 = 0;
+let hash2 = 0;
+
+/**
+ * Both FNV-1a hashes of `s` in one pass: hash1 from FNV_OFFSET, hash2 from FNV_OFFSET_2 with its
+ * lowest bit set (an odd step, so the k probes of double hashing never repeat early).
+ */
+function hash(s: string): void {
+  let a = FNV_OFFSET;
+  let b = FNV_OFFSET_2;
   for (let i = 0; i < s.length; i++) {
-    h ^= s.charCodeAt(i);
-    h = Math.imul(h, FNV_PRIME);
+    const c = s.charCodeAt(i);
+    a = Math.imul(a ^ c, FNV_PRIME);
+    b = Math.imul(b ^ c, FNV_PRIME);
   }
-  return h >>> 0;
+  hash1 = a >>> 0;
+  hash2 = (b >>> 0) | 1;
 }
 
 export class BloomFilter {
@@ -45,10 +56,9 @@ export class BloomFilter {
   }
 
   add(s: string): void {
-    const h1 = fnv1a(s, FNV_OFFSET);
-    const h2 = fnv1a(s, FNV_OFFSET_2) | 1;
+    hash(s);
     for (let i = 0; i < this.k; i++) {
-      const bit = (h1 + Math.imul(i, h2)) >>> 0;
+      const bit = (hash1 + Math.imul(i, hash2)) >>> 0;
       const at = bit % this.m;
       this.bits[at >>> 3]! |= 1 << (at & 7);
     }
@@ -56,10 +66,9 @@ export class BloomFilter {
 
   /** False: certainly never added. True: probably added. */
   has(s: string): boolean {
-    const h1 = fnv1a(s, FNV_OFFSET);
-    const h2 = fnv1a(s, FNV_OFFSET_2) | 1;
+    hash(s);
     for (let i = 0; i < this.k; i++) {
-      const bit = (h1 + Math.imul(i, h2)) >>> 0;
+      const bit = (hash1 + Math.imul(i, hash2)) >>> 0;
       const at = bit % this.m;
       if ((this.bits[at >>> 3]! & (1 << (at & 7))) === 0) return false;
     }

@@ -8,23 +8,14 @@ import { existsSync, renameSync, rmSync, statSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
-import { NORMALIZER_VERSION, normalizeName } from "../normalize/name.js";
-import { contextTerms } from "../score/terms.js";
-import type { EntityRecord } from "../types.js";
+import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { InputError } from "../util/errors.js";
+import { BatchInsert } from "./batch-insert.js";
 import { BloomFilter } from "./bloom.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
-import { HotStoreBuilder } from "./hot.js";
 import { readTable, tableFormatOf } from "./read-table.js";
-import {
-  INDEX_SQL,
-  KB_FORMAT,
-  type KeyKind,
-  type PackedForm,
-  packForms,
-  SCHEMA_SQL,
-  SCHEMA_VERSION,
-} from "./schema.js";
+import { RowWriter } from "./row-writer.js";
+import { INDEX_SQL, KB_FORMAT, SCHEMA_SQL, SCHEMA_VERSION } from "./schema.js";
 
 export interface BuildKbOptions {
   /** The knowledge table: CSV (header row), TSV or JSONL. */
@@ -58,11 +49,21 @@ export interface BuildSummary {
 
 const DEFAULT_PROGRESS_EVERY = 10_000;
 
-/** Everything the indexer derives from one record before writing it. */
-function aliasForms(record: EntityRecord, cls: ReturnType<LabelMap["classOfTableType"]>) {
-  const texts = [record.name, ...record.aliases];
-  return texts.map((text, i) => ({ text, canonical: i === 0, n: normalizeName(text, cls) }));
-}
+/**
+ * Page cache during the bulk load, KiB. Every table is appended to at its end, so only the last
+ * pages of each are hot; a larger cache only holds back writes, grows the process and crowds
+ * the CPU caches (inserting a million entity rows alone took 1.5 s with 8 MiB, 1.75 s with
+ * 64 MiB and 2.45 s with 256 MiB).
+ */
+const LOAD_CACHE_KIB = 8_192;
+/**
+ * Page cache while the indexes are created, KiB. SQLite's sorter sorts runs of at most the cache
+ * size in memory, spills them to temporary files and merges them: runs that fit the CPU caches
+ * sort faster, and the whole sort stays out of the process's memory (with the sorter in memory,
+ * as `temp_store = MEMORY` makes it, the index on blocking keys took 2.5 times as long and a few
+ * hundred MB at a million entities).
+ */
+const INDEX_CACHE_KIB = 4_096;
 
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
@@ -78,8 +79,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
     db.pragma("journal_mode = OFF");
     db.pragma("synchronous = OFF");
     db.pragma("locking_mode = EXCLUSIVE");
-    db.pragma("temp_store = MEMORY");
-    db.pragma("cache_size = -262144"); // 256 MiB page cache for the bulk load
+    db.pragma(`cache_size = -${LOAD_CACHE_KIB}`);
     db.exec(SCHEMA_SQL);
     const summary = await load(db, options, labels);
     const sourceSha = summary.sourceSha256;
@@ -109,6 +109,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       for (const [k, v] of Object.entries(facts)) meta.run(k, String(v));
     })();
     const before = process.hrtime.bigint();
+    db.pragma(`cache_size = -${INDEX_CACHE_KIB}`);
     db.exec(INDEX_SQL);
     db.exec("INSERT INTO alias_fts(alias_fts) VALUES ('optimize')");
     summary.phases["indexes and statistics"] = Number(process.hrtime.bigint() - before) / 1e9;
@@ -151,7 +152,7 @@ interface LoadSummary {
   sourceSha256: string;
 }
 
-/** Rows written per transaction: large enough to amortize commits, small enough to bound memory. */
+/** Rows written per transaction: enough that commits cost nothing next to the rows themselves. */
 const ROWS_PER_TRANSACTION = 20_000;
 
 async function load(db: Database.Database, options: BuildKbOptions, labels: LabelMap): Promise<LoadSummary> {
@@ -162,101 +163,37 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     phases[phase] = Number(now - last) / 1e9;
     last = now;
   };
-  const insEntity = db.prepare(
-    "INSERT INTO entities (eid, id, name, type, class, prior, forms) VALUES (?, ?, ?, ?, ?, ?, ?)",
-  );
-  const insDetails = db.prepare("INSERT INTO entity_details (eid, description, attributes) VALUES (?, ?, ?)");
-  const insAlias = db.prepare(
-    "INSERT INTO aliases (aid, eid, text, key, full, ocr, canonical) VALUES (?, ?, ?, ?, ?, ?, ?)",
-  );
-  const insKey = db.prepare("INSERT INTO keys (key, class, kind, eid) VALUES (?, ?, ?, ?)");
-  // Filled while rows stream in; sized from the file's size, since the row count is not known yet.
-  const keyFilter = BloomFilter.forItems(estimateKeys(options.table));
-  const vocab = new Map<string, number>();
-  const hot = new HotStoreBuilder();
-  const byClass: Record<string, number> = {};
-  const unknownTypes: Record<string, number> = {};
-  let eid = 0;
-  let aid = 0;
-  let keys = 0;
-  let maxPrior = 0;
-  let batch: EntityRecord[] = [];
+  // The key filter is filled while rows stream in; sized from the file's size, since the row
+  // count is not known yet.
+  const writer = new RowWriter(db, labels, BloomFilter.forItems(estimateKeys(options.table)));
   const every = options.progressEvery ?? DEFAULT_PROGRESS_EVERY;
-
-  const writeBatch = db.transaction((records: EntityRecord[]) => {
-    for (const r of records) {
-      eid++;
-      const cls = labels.classOfTableType(r.type);
-      if (!labels.knowsTableType(r.type)) unknownTypes[r.type] = (unknownTypes[r.type] ?? 0) + 1;
-      byClass[cls] = (byClass[cls] ?? 0) + 1;
-      if (r.prior > maxPrior) maxPrior = r.prior;
-      const attrText = Object.values(r.attributes).join(" ");
-      const terms = contextTerms(`${r.description} ${attrText}`);
-      const seenKeys = new Set<string>();
-      const entityTokens = new Set<string>();
-      const packed: PackedForm[] = [];
-      const add = (key: string | null, kind: KeyKind) => {
-        if (key === null || key === "") return;
-        const dedupe = `${kind}\u0000${key}`;
-        if (seenKeys.has(dedupe)) return;
-        seenKeys.add(dedupe);
-        insKey.run(key, cls, kind, eid);
-        keyFilter.add(key);
-        keys++;
-      };
-      for (const a of aliasForms(r, cls)) {
-        if (a.n.key === "") continue;
-        aid++;
-        insAlias.run(aid, eid, a.text, a.n.key, a.n.full, a.n.ocrKey, a.canonical ? 1 : 0);
-        packed.push({ text: a.text, key: a.n.key, full: a.n.full, ocr: a.n.ocrKey, canonical: a.canonical });
-        for (const t of a.n.tokens) entityTokens.add(t);
-        add(a.n.key, "exact");
-        add(a.n.ocrKey, "ocr");
-        add(a.n.acronymKey, "acronym");
-        if (a.n.acronym !== null) add(a.n.acronym, "acronym");
-        add(a.n.initialsKey, "initials");
-      }
-      insEntity.run(eid, r.id, r.name, r.type, cls, r.prior, packForms(packed));
-      insDetails.run(eid, r.description, JSON.stringify(r.attributes));
-      for (const t of entityTokens) vocab.set(t, (vocab.get(t) ?? 0) + 1);
-      hot.add(cls, r.prior, terms, entityTokens);
-    }
-  });
-
   let rows = 0;
   // The source checksum is taken from the same bytes the rows are parsed from: one read of the file.
   const sourceHash = createHash("sha256");
+  // Each row is written as it arrives (no batch of parsed rows is held), in transactions of
+  // ROWS_PER_TRANSACTION rows; a failure leaves one open, which closing the database rolls back.
+  db.exec("BEGIN");
   for await (const { record } of readTable(options.table, options.from, (chunk) =>
     sourceHash.update(chunk),
   )) {
-    batch.push(record);
+    writer.write(record);
     rows++;
-    if (batch.length >= ROWS_PER_TRANSACTION) {
-      writeBatch(batch);
-      batch = [];
+    if (rows % ROWS_PER_TRANSACTION === 0) {
+      writer.flush();
+      db.exec("COMMIT; BEGIN");
     }
     if (options.onProgress && rows % every === 0) options.onProgress(rows);
   }
-  if (batch.length > 0) writeBatch(batch);
+  writer.flush();
+  db.exec("COMMIT");
   if (rows === 0) throw new InputError({ file: options.table }, "the table has no rows");
   const sourceSha256 = sourceHash.digest("hex");
   options.onProgress?.(rows);
+  const { vocab, hot, eid } = writer;
 
   mark("read and insert rows");
-  // Full-text rows in order of falling popularity (see schema.ts): positions first, then the index.
-  db.exec(
-    "CREATE TEMP TABLE fts_order AS SELECT a.eid AS eid, a.key AS key FROM aliases a JOIN entities e ON e.eid = a.eid ORDER BY e.prior DESC, a.aid",
-  );
-  db.exec("INSERT INTO alias_fts (rowid, tokens) SELECT rowid, key FROM temp.fts_order");
-  const posEid = new Uint32Array(aid + 1);
-  for (const [pos, e] of db.prepare("SELECT rowid, eid FROM temp.fts_order").raw(true).iterate() as Iterable<
-    [number, number]
-  >)
-    posEid[pos] = e;
-  db.exec("DROP TABLE temp.fts_order");
-  const insVocab = db.prepare("INSERT INTO vocab (token, df) VALUES (?, ?)");
-  const insDelete = db.prepare("INSERT OR IGNORE INTO deletes (variant, token) VALUES (?, ?)");
-  const insIdf = db.prepare("INSERT INTO idf (term, df, id) VALUES (?, ?, ?)");
+  // Full-text rows in order of falling popularity (see schema.ts and fts-load.ts).
+  const posEid = db.transaction(() => writer.fts.write(db))();
   mark("full-text index");
   // Deletion variants sorted before insertion: appending to a B-tree in key order is far faster
   // than inserting at random places.
@@ -268,16 +205,22 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   pairs.sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : a[1] < b[1] ? -1 : a[1] > b[1] ? 1 : 0));
   const variantFilter = BloomFilter.forItems(pairs.length);
   const tokenFilter = BloomFilter.forItems(vocab.size);
+  const insVocab = new BatchInsert(db, "INSERT INTO vocab (token, df)", 2);
+  const insDelete = new BatchInsert(db, "INSERT OR IGNORE INTO deletes (variant, token)", 2);
+  const insIdf = new BatchInsert(db, "INSERT INTO idf (term, df, id)", 3);
   db.transaction(() => {
-    for (const [token, df] of vocab) {
-      insVocab.run(token, df);
+    for (const [token, { df }] of vocab) {
+      insVocab.add(token, df);
       tokenFilter.add(token);
     }
     for (const [v, t] of pairs) {
-      insDelete.run(v, t);
+      insDelete.add(v, t);
       variantFilter.add(v);
     }
-    for (const [term, id] of hot.termIdOf) insIdf.run(term, hot.dfOf(term), id);
+    for (const [term, id] of hot.termIdOf) insIdf.add(term, hot.dfOf(term), id);
+    insVocab.flush();
+    insDelete.flush();
+    insIdf.flush();
   })();
   pairs.length = 0;
   mark("vocabulary and fuzzy index");
@@ -286,7 +229,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   mark("hot store and context norms");
   const insFilter = db.prepare("INSERT INTO filters (name, m, k, bits) VALUES (?, ?, ?, ?)");
   for (const [name, f] of [
-    ["keys", keyFilter],
+    ["keys", writer.keyFilter],
     ["variants", variantFilter],
     ["tokens", tokenFilter],
   ] as const) {
@@ -295,13 +238,13 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   mark("filters");
   return {
     entities: eid,
-    aliases: aid,
-    keys,
+    aliases: writer.aliases,
+    keys: writer.keys,
     vocabulary: vocab.size,
     contextTerms: hot.termIdOf.size,
-    maxPrior,
-    byClass,
-    unknownTypes,
+    maxPrior: writer.maxPrior,
+    byClass: writer.byClass,
+    unknownTypes: writer.unknownTypes,
     phases,
     sourceSha256,
   };

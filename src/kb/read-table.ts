@@ -3,7 +3,7 @@
  * Every problem is an InputError naming the file, line and column.
  */
 import { extname } from "node:path";
-import { type CsvError, parse } from "csv-parse";
+import { type CsvError, Parser } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { readJsonLines } from "../read/jsonl.js";
@@ -13,6 +13,7 @@ export type TableFormat = "csv" | "tsv" | "jsonl";
 
 /** The columns with a meaning of their own; every other column is an attribute. */
 export const RESERVED_COLUMNS = ["id", "name", "type", "aliases", "description", "prior"] as const;
+const RESERVED: ReadonlySet<string> = new Set(RESERVED_COLUMNS);
 const REQUIRED_COLUMNS = ["id", "name", "type"] as const;
 /** Separator of aliases inside one CSV/TSV cell. */
 export const ALIAS_SEPARATOR = "|";
@@ -51,14 +52,18 @@ class RowValidator {
         `expected text, got ${Array.isArray(v) ? "an array" : typeof v}`,
       );
     };
-    for (const field of REQUIRED_COLUMNS) {
-      if (str(field) === "")
+    // The required columns, each read once, checked in the order of REQUIRED_COLUMNS.
+    const required = (field: (typeof REQUIRED_COLUMNS)[number]): string => {
+      const v = str(field);
+      if (v === "")
         throw new InputError({ file, line, field }, `missing ${field}: every row needs id, name and type`);
-    }
-    const id = str("id");
+      return v;
+    };
+    const id = required("id");
+    const name = required("name");
+    const type = required("type");
     if (this.seen.has(id)) throw new InputError({ file, line, field: "id" }, `duplicate id "${id}"`);
     this.seen.add(id);
-    const name = str("name");
     let prior = 0;
     const priorRaw = raw.prior;
     if (priorRaw !== undefined && priorRaw !== null && priorRaw !== "") {
@@ -74,11 +79,11 @@ class RowValidator {
     const aliases = this.aliases(line, aliasesRaw, name);
     const attributes: Record<string, string> = {};
     for (const [k, v] of Object.entries(raw)) {
-      if ((RESERVED_COLUMNS as readonly string[]).includes(k) || v === undefined || v === null) continue;
+      if (RESERVED.has(k) || v === undefined || v === null) continue;
       const s = typeof v === "string" ? v.trim() : typeof v === "object" ? JSON.stringify(v) : String(v);
       if (s !== "") attributes[k] = s;
     }
-    return { id, name, type: str("type"), aliases, description: str("description"), prior, attributes };
+    return { id, name, type, aliases, description: str("description"), prior, attributes };
   }
 
   private aliases(line: number, v: unknown, name: string): string[] {
@@ -108,9 +113,28 @@ class RowValidator {
   }
 }
 
+/** A parsed CSV/TSV record and the line count of the file when it ended (csv-parse's `info.lines`). */
+interface NumberedRecord {
+  record: Record<string, string>;
+  lines: number;
+}
+
+/**
+ * A csv-parse stream whose records carry the parser's line count, read from its live counters at
+ * the moment the record is pushed, which is the value csv-parse's `info` option reports: that
+ * option builds two objects of a dozen fields per record, and only the line count is used here.
+ */
+class LineNumberedParser extends Parser {
+  override push(record: unknown, encoding?: BufferEncoding): boolean {
+    if (record === null) return super.push(null, encoding);
+    const numbered: NumberedRecord = { record: record as Record<string, string>, lines: this.info.lines };
+    return super.push(numbered, encoding);
+  }
+}
+
 async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTap): AsyncGenerator<TableRow> {
   const validator = new RowValidator(file);
-  const parser = parse({
+  const parser = new LineNumberedParser({
     delimiter,
     columns: (header: string[]) => {
       const cols = header.map((h) => h.trim());
@@ -126,7 +150,6 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
         throw new InputError({ file, line: 1, field: dup }, `column "${dup}" appears twice in the header`);
       return cols;
     },
-    info: true,
     relax_quotes: false,
     skip_empty_lines: true,
     quote: delimiter === "\t" ? false : '"',
@@ -135,11 +158,8 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
   text.on("error", (e) => parser.destroy(e));
   text.pipe(parser);
   try {
-    for await (const item of parser as AsyncIterable<{
-      record: Record<string, string>;
-      info: { lines: number };
-    }>) {
-      const line = item.info.lines;
+    for await (const item of parser as AsyncIterable<NumberedRecord>) {
+      const line = item.lines;
       yield { record: validator.build(line, item.record, item.record.aliases), line };
     }
   } catch (e) {

@@ -1,5 +1,5 @@
 /**
- * The KB file: one SQLite database. Version 1 of the schema.
+ * The KB file: one SQLite database. Version 2 of the schema.
  *
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
@@ -8,12 +8,13 @@
  *   packs the normalized forms of its names (see packForms), so that scoring reads one row per
  *   candidate. The stemmed context words of the description and attributes live in the hot
  *   store, as term ids.
- * - aliases: the canonical name and every alias, with their normalized key and full forms.
  * - keys: blocking keys per entity and class: exact, ocr, acronym, initials.
  * - alias_fts: FTS5 over alias core tokens (contentless). Its rowids are positions in order of
  *   falling popularity (prior), mapped to entities by the hot store, so an unranked match
  *   returns the most popular entities carrying a token first, at a cost that does not grow with
- *   how common the token is.
+ *   how common the token is. No per-row token counts are kept (columnsize=0): they serve only
+ *   ranking functions, which the unranked lookup never calls, and writing them was a quarter of
+ *   the full-text build.
  * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
  *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
  * - idf: document frequency of each context term, and its id in the hot store's term lists.
@@ -40,17 +41,8 @@ CREATE TABLE entities (
   forms TEXT NOT NULL
 );
 CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
-CREATE TABLE aliases (
-  aid INTEGER PRIMARY KEY,
-  eid INTEGER NOT NULL,
-  text TEXT NOT NULL,
-  key TEXT NOT NULL,
-  full TEXT NOT NULL,
-  ocr TEXT NOT NULL,
-  canonical INTEGER NOT NULL
-);
 CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
-CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', detail=column, tokenize='unicode61 remove_diacritics 0');
+CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', columnsize=0, detail=column, tokenize='unicode61 remove_diacritics 0');
 CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
 CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL, id INTEGER NOT NULL) WITHOUT ROWID;

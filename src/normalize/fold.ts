@@ -27,8 +27,16 @@ const AMPERSAND = /&/g;
 /** Anything that is not a letter or digit separates tokens. */
 const SEPARATORS = /[^\p{L}\p{N}]+/gu;
 
+/**
+ * Any character outside ASCII. ASCII text is its own NFKD form, has no combining marks and no
+ * special letters, so folding it is lowercasing alone, which skips the Unicode normalizer (the
+ * dearest step for the short strings names are).
+ */
+export const NON_ASCII = /[^\u0000-\u007f]/;
+
 /** NFKD, strip diacritics, lowercase, expand special letters. Keeps punctuation. */
 export function foldCase(text: string): string {
+  if (!NON_ASCII.test(text)) return text.toLowerCase();
   return text
     .normalize("NFKD")
     .replace(COMBINING_MARKS, "")

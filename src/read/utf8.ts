@@ -13,22 +13,18 @@ const CR = 0x0d;
 /** The byte order mark some editors put at the start of a UTF-8 file; it is not part of the data. */
 const BOM = "\ufeff";
 
-/** Count line ends in `bytes`: LF, CRLF and lone CR each count once. */
-function countLineEnds(bytes: Uint8Array, afterCR: boolean): { count: number; endsWithCR: boolean } {
+/**
+ * Count line ends in `bytes`: LF, CRLF and lone CR each count once (every CR, and every LF not
+ * right after a CR). Found with Buffer.indexOf, which scans natively, not byte by byte in JS.
+ */
+function countLineEnds(bytes: Buffer, afterCR: boolean): { count: number; endsWithCR: boolean } {
   let count = 0;
-  let previousCR = afterCR;
-  for (const byte of bytes) {
-    if (byte === LF) {
-      if (!previousCR) count++;
-      previousCR = false;
-    } else if (byte === CR) {
-      count++;
-      previousCR = true;
-    } else {
-      previousCR = false;
-    }
+  for (let i = bytes.indexOf(CR); i >= 0; i = bytes.indexOf(CR, i + 1)) count++;
+  for (let i = bytes.indexOf(LF); i >= 0; i = bytes.indexOf(LF, i + 1)) {
+    const previousCR = i === 0 ? afterCR : bytes[i - 1] === CR;
+    if (!previousCR) count++;
   }
-  return { count, endsWithCR: previousCR };
+  return { count, endsWithCR: bytes.length === 0 ? afterCR : bytes[bytes.length - 1] === CR };
 }
 
 /** Index of the last LF or CR byte, or -1. */

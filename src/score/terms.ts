@@ -7,6 +7,7 @@
  * `{ words: string[] }`, the Porter stemmer exports an object with `stem(token): string`.
  */
 import { createRequire } from "node:module";
+import { NON_ASCII } from "../normalize/fold.js";
 
 const requireCjs = createRequire(import.meta.url);
 
@@ -79,6 +80,8 @@ function isAllDigits(token: string): boolean {
 
 /** Unicode fold used for context words: lowercase, NFKD, combining marks removed. */
 export function foldText(text: string): string {
+  // ASCII text is its own NFKD form and has no combining marks (see NON_ASCII).
+  if (!NON_ASCII.test(text)) return text.toLowerCase();
   return text.toLowerCase().normalize("NFKD").replace(COMBINING_MARKS, "");
 }
 

@@ -1,0 +1,120 @@
+/**
+ * Writes the table's rows into the KB as they stream in: the entity row (with its packed name
+ * forms), its details, and its blocking keys, while gathering what the later phases need (Bloom
+ * filter over keys, token vocabulary, the hot store with the context terms, full-text rows).
+ * Inserts are buffered (see batch-insert.ts): call `flush` before each commit.
+ */
+import type Database from "better-sqlite3";
+import type { LabelMap } from "../labels/label-map.js";
+import { normalizeName } from "../normalize/name.js";
+import { contextTerms } from "../score/terms.js";
+import type { EntityRecord } from "../types.js";
+import { BatchInsert } from "./batch-insert.js";
+import type { BloomFilter } from "./bloom.js";
+import { FtsRows } from "./fts-load.js";
+import { HotStoreBuilder } from "./hot.js";
+import { type KeyKind, type PackedForm, packForms } from "./schema.js";
+
+export class RowWriter {
+  /** Internal id of the last entity written (ids count from 1 in table order). */
+  eid = 0;
+  /** Names written (canonical names and aliases with a non-empty key). */
+  aliases = 0;
+  /** Blocking-key rows written. */
+  keys = 0;
+  maxPrior = 0;
+  readonly byClass: Record<string, number> = {};
+  /** Table types the label map does not know, with counts. */
+  readonly unknownTypes: Record<string, number> = {};
+  /**
+   * Alias token -> number of entities with it in a name, in a mutable box, so that counting a
+   * known token is one map lookup instead of a get and a set.
+   */
+  readonly vocab = new Map<string, { df: number }>();
+  /** Class, prior, context terms and name-token signature of every entity (see hot.ts). */
+  readonly hot = new HotStoreBuilder();
+  readonly fts = new FtsRows();
+
+  private readonly insEntity: BatchInsert;
+  private readonly insDetails: BatchInsert;
+  private readonly insKey: BatchInsert;
+  /** Keys of the current entity already written, one set per kind (cleared per entity). */
+  private readonly seen: Record<KeyKind, Set<string>> = {
+    exact: new Set(),
+    ocr: new Set(),
+    acronym: new Set(),
+    initials: new Set(),
+  };
+  /** The sets of `seen`, to clear them without enumerating the object's keys. */
+  private readonly seenSets = Object.values(this.seen);
+  /** Distinct name tokens of the current entity (cleared per entity). */
+  private readonly tokens = new Set<string>();
+
+  constructor(
+    db: Database.Database,
+    private readonly labels: LabelMap,
+    /** Bloom filter over the blocking keys, filled as keys are written. */
+    readonly keyFilter: BloomFilter,
+  ) {
+    this.insEntity = new BatchInsert(
+      db,
+      "INSERT INTO entities (eid, id, name, type, class, prior, forms)",
+      7,
+    );
+    this.insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description, attributes)", 3);
+    this.insKey = new BatchInsert(db, "INSERT INTO keys (key, class, kind, eid)", 4);
+  }
+
+  write(r: EntityRecord): void {
+    const eid = ++this.eid;
+    const cls = this.labels.classOfTableType(r.type);
+    if (!this.labels.knowsTableType(r.type)) this.unknownTypes[r.type] = (this.unknownTypes[r.type] ?? 0) + 1;
+    this.byClass[cls] = (this.byClass[cls] ?? 0) + 1;
+    if (r.prior > this.maxPrior) this.maxPrior = r.prior;
+    const attrText = Object.values(r.attributes).join(" ");
+    const terms = contextTerms(`${r.description} ${attrText}`);
+    for (const set of this.seenSets) set.clear();
+    this.tokens.clear();
+    const packed: PackedForm[] = [];
+    const nameKeys: string[] = [];
+    const add = (key: string | null, kind: KeyKind) => {
+      if (key === null || key === "") return;
+      const seen = this.seen[kind];
+      if (seen.has(key)) return;
+      seen.add(key);
+      this.insKey.add(key, cls, kind, eid);
+      this.keyFilter.add(key);
+      this.keys++;
+    };
+    for (let i = 0; i <= r.aliases.length; i++) {
+      const text = i === 0 ? r.name : r.aliases[i - 1]!;
+      const n = normalizeName(text, cls);
+      if (n.key === "") continue;
+      this.aliases++;
+      nameKeys.push(n.key);
+      packed.push({ text, key: n.key, full: n.full, ocr: n.ocrKey, canonical: i === 0 });
+      for (const t of n.tokens) this.tokens.add(t);
+      add(n.key, "exact");
+      add(n.ocrKey, "ocr");
+      add(n.acronymKey, "acronym");
+      if (n.acronym !== null) add(n.acronym, "acronym");
+      add(n.initialsKey, "initials");
+    }
+    this.fts.add(r.prior, nameKeys);
+    this.hot.add(cls, r.prior, terms, this.tokens);
+    this.insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, packForms(packed));
+    this.insDetails.add(eid, r.description, JSON.stringify(r.attributes));
+    for (const t of this.tokens) {
+      const count = this.vocab.get(t);
+      if (count === undefined) this.vocab.set(t, { df: 1 });
+      else count.df++;
+    }
+  }
+
+  /** Writes the buffered rows; call before the enclosing transaction commits. */
+  flush(): void {
+    this.insEntity.flush();
+    this.insDetails.flush();
+    this.insKey.flush();
+  }
+}
