@@ -62,8 +62,10 @@ class RowValidator {
     const id = required("id");
     const name = required("name");
     const type = required("type");
-    if (this.seen.has(id)) throw new InputError({ file, line, field: "id" }, `duplicate id "${id}"`);
+    // One set operation per row: adding an id already there leaves the size unchanged.
+    const before = this.seen.size;
     this.seen.add(id);
+    if (this.seen.size === before) throw new InputError({ file, line, field: "id" }, `duplicate id "${id}"`);
     let prior = 0;
     const priorRaw = raw.prior;
     if (priorRaw !== undefined && priorRaw !== null && priorRaw !== "") {
