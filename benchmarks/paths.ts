@@ -41,6 +41,11 @@ const SETTINGS: Setting[] = [
     candidates: { ftsLimit: 30 },
   },
   {
+    name: "all, token search widened to 300 hits (ftsLimit 300)",
+    paths: [...ALL_PATHS],
+    candidates: { ftsLimit: 300 },
+  },
+  {
     name: "all, up to 30 candidates from search (maxSearchCandidates 30)",
     paths: [...ALL_PATHS],
     candidates: { maxSearchCandidates: 30 },

@@ -70,8 +70,8 @@ describe("candidates among namesakes", () => {
   it("takes more token-search hits than it scores, and keeps the ones the context supports", () => {
     const ids = linker.candidateIds(m("Capt. Frobelson", "the steam ferry pilot at the Carow crossing"));
     expect(kb.tokenDf("frobelson")).toBe(41);
-    // No whole key names him: all 41 carriers come from token search, which keeps 15 of them.
-    expect(ids.length).toBe(15);
+    // No whole key names him: all 41 carriers come from token search, which keeps 10 of them.
+    expect(ids.length).toBe(10);
     const wider = createLinker(kb, { candidates: { maxSearchCandidates: 30 } });
     expect(wider.candidateIds(m("Capt. Frobelson")).length).toBe(30);
     expect(ids).toContain("P06");
