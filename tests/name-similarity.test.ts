@@ -2,13 +2,11 @@ import { createRequire } from "node:module";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
-  acronymOf,
   INITIAL_MATCH_CREDIT,
   initialsCompatible,
   jaro,
   jaroWinkler,
   levenshteinSimilarity,
-  looksLikeAcronym,
   TOKEN_MATCH_MIN_JW,
   tokenSetSimilarity,
 } from "../src/score/name-similarity.js";
@@ -212,30 +210,6 @@ describe("initialsCompatible", () => {
     expect(jaroWinkler("aldous", "aldouss")).toBeGreaterThanOrEqual(0.92);
     expect(initialsCompatible(["j", "aldouss"], ["josiah", "aldous"])).toBe(true);
     expect(initialsCompatible(["j", "alden"], ["josiah", "aldous"])).toBe(false);
-  });
-});
-
-describe("acronymOf / looksLikeAcronym", () => {
-  it("takes first letters and skips joiner words", () => {
-    expect(acronymOf(["stenning", "grain", "exchange"])).toBe("sge");
-    expect(acronymOf(["the", "stenning", "grain", "and", "coal", "exchange"])).toBe("sgce");
-    expect(acronymOf(["bank", "of", "marrowby"], { skip: new Set() })).toBe("bom");
-    expect(acronymOf(["the", "of"])).toBe("");
-  });
-  it("reads dotted and undotted capitals as acronyms", () => {
-    expect(looksLikeAcronym("S.G.E.")).toBe("sge");
-    expect(looksLikeAcronym("SGE")).toBe("sge");
-    expect(looksLikeAcronym("S. G. E.")).toBe("sge");
-    expect(looksLikeAcronym("S.G.E")).toBe("sge");
-    expect(looksLikeAcronym(" s.g.e. ")).toBe("sge");
-  });
-  it("rejects ordinary words, single letters and over-long runs", () => {
-    expect(looksLikeAcronym("Sge")).toBeNull();
-    expect(looksLikeAcronym("harbour")).toBeNull();
-    expect(looksLikeAcronym("A")).toBeNull();
-    expect(looksLikeAcronym("A.")).toBeNull();
-    expect(looksLikeAcronym("SHIPPING")).toBeNull();
-    expect(looksLikeAcronym("S.G.E.1")).toBeNull();
   });
 });
 

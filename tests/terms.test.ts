@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { contextTerms, foldText, STOPWORDS, stem } from "../src/score/terms.js";
-import { buildVector, cosine, decodeVector, encodeVector, idf, type TermVector } from "../src/score/tfidf.js";
+import { buildVector, cosine, idf } from "../src/score/tfidf.js";
 
 /** Property-test runs: enough to find edge cases, small enough for a shared 2-core machine. */
 const RUNS = 200;
@@ -103,46 +103,5 @@ describe("buildVector / cosine", () => {
       }),
       { numRuns: RUNS, seed: SEED },
     );
-  });
-});
-
-describe("encodeVector / decodeVector", () => {
-  const expectSame = (got: TermVector, want: TermVector) => {
-    expect(got.terms).toEqual(want.terms);
-    expect(Array.from(got.weights)).toEqual(Array.from(want.weights));
-    expect(got.norm).toBe(want.norm);
-  };
-  it("round-trips, including non-ASCII terms and the empty vector", () => {
-    const v = buildVector(["ærø", "quai", "1897", "quai", "société"], (t) => t.length);
-    expectSame(decodeVector(encodeVector(v)), v);
-    const empty = buildVector([], () => 1);
-    expect(encodeVector(empty).length).toBe(16);
-    expectSame(decodeVector(encodeVector(empty)), empty);
-  });
-  it("decodes from a Uint8Array view at an odd offset", () => {
-    const v = buildVector(["barg", "wharf"], () => 1.5);
-    const enc = encodeVector(v);
-    const backing = new Uint8Array(enc.length + 3);
-    backing.set(enc, 3);
-    expectSame(decodeVector(backing.subarray(3)), v);
-  });
-  it("round-trips random vectors", () => {
-    fc.assert(
-      fc.property(fc.array(fc.string({ maxLength: 6 }), { maxLength: 10 }), (terms) => {
-        const v = buildVector(terms, (t) => 1 + t.length);
-        expectSame(decodeVector(encodeVector(v)), v);
-      }),
-      { numRuns: RUNS, seed: SEED },
-    );
-  });
-  it("rejects foreign, truncated or padded data with a named problem", () => {
-    const enc = encodeVector(buildVector(["barg", "wharf"], () => 1));
-    expect(() => decodeVector(Buffer.from("not a vector at all"))).toThrow(/bad header/);
-    const wrongVersion = Buffer.from(enc);
-    wrongVersion[2] = 9;
-    expect(() => decodeVector(wrongVersion)).toThrow(/version 9/);
-    expect(() => decodeVector(enc.subarray(0, 20))).toThrow(/truncated/);
-    expect(() => decodeVector(enc.subarray(0, enc.length - 1))).toThrow(/truncated/);
-    expect(() => decodeVector(Buffer.concat([enc, Buffer.from([0])]))).toThrow(/trailing/);
   });
 });
