@@ -294,9 +294,13 @@ export function generateCandidates(
     if (tier.length > room) {
       const eids = tier.map((c) => c.eid);
       const share = nameShares(kb, eids, tokens, corrected);
-      const pre = preRank ? preRank(eids, share) : eids.map((e, i) => share[i]! * 1e12 + kb.hot.prior[e]!);
-      const value = new Map(eids.map((e, i) => [e, pre[i]!]));
-      tier.sort((a, b) => value.get(b.eid)! - value.get(a.eid)! || a.rank - b.rank);
+      // Without a pre-rank: the share of the mention's words first, then popularity.
+      const pre = preRank ? preRank(eids, share) : Array.from(share);
+      const at = new Map(eids.map((e, i) => [e, i]));
+      const prior = (c: Found) => (preRank ? 0 : kb.hot.prior[c.eid]!);
+      tier.sort(
+        (a, b) => pre[at.get(b.eid)!]! - pre[at.get(a.eid)!]! || prior(b) - prior(a) || a.rank - b.rank,
+      );
     }
     out.push(...tier.slice(0, room));
   }
