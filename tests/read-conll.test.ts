@@ -9,6 +9,7 @@ import type { ReadMention } from "../src/read/mention-row.js";
 import { chunkTags, detectScheme, parseScheme } from "../src/read/tags.js";
 import type { ReadWarning } from "../src/read/warnings.js";
 import { InputError, UsageError } from "../src/util/errors.js";
+import { collect, failure } from "./helpers/streams.js";
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "hawser-read-conll-"));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -19,21 +20,6 @@ function fixture(content: string | Buffer, ext = ".conll"): string {
   const file = path.join(dir, `f${counter}${ext}`);
   fs.writeFileSync(file, content);
   return file;
-}
-
-async function collect<T>(items: AsyncIterable<T>): Promise<T[]> {
-  const out: T[] = [];
-  for await (const item of items) out.push(item);
-  return out;
-}
-
-async function failure(items: AsyncIterable<unknown>): Promise<Error> {
-  try {
-    await collect(items);
-  } catch (error) {
-    return error as Error;
-  }
-  throw new Error("expected the reader to fail");
 }
 
 /** Chunks as compact strings "LABEL start-end" with "!" for ill-formed ones. */

@@ -7,6 +7,7 @@ import { readMentionsCsv } from "../src/read/mentions-csv.js";
 import { readMentionsJsonl } from "../src/read/mentions-jsonl.js";
 import { readMentions, resolveFormat } from "../src/read/index.js";
 import { InputError, UsageError } from "../src/util/errors.js";
+import { collect, failure } from "./helpers/streams.js";
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "hawser-read-mentions-"));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -17,22 +18,6 @@ function fixture(ext: string, content: string | Buffer): string {
   const file = path.join(dir, `f${counter}${ext}`);
   fs.writeFileSync(file, content);
   return file;
-}
-
-async function collect<T>(items: AsyncIterable<T>): Promise<T[]> {
-  const out: T[] = [];
-  for await (const item of items) out.push(item);
-  return out;
-}
-
-/** Run a reader to the end and return the error it throws. */
-async function failure(items: AsyncIterable<unknown>): Promise<Error> {
-  try {
-    await collect(items);
-  } catch (error) {
-    return error as Error;
-  }
-  throw new Error("expected the reader to fail");
 }
 
 const jsonl = (rows: unknown[]): string => rows.map((r) => JSON.stringify(r)).join("\n") + "\n";

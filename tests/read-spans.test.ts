@@ -8,6 +8,7 @@ import { readMentions } from "../src/read/index.js";
 import { splitSentences } from "../src/read/sentences.js";
 import { loadDocuments, readSpans, type Span, spansFromTokens, tokensFromSpans } from "../src/read/spans.js";
 import { InputError, UsageError } from "../src/util/errors.js";
+import { collect, failure } from "./helpers/streams.js";
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "hawser-read-spans-"));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -21,21 +22,6 @@ function fixture(ext: string, content: string): string {
 }
 
 const jsonl = (rows: unknown[]): string => rows.map((r) => JSON.stringify(r)).join("\n") + "\n";
-
-async function collect<T>(items: AsyncIterable<T>): Promise<T[]> {
-  const out: T[] = [];
-  for await (const item of items) out.push(item);
-  return out;
-}
-
-async function failure(items: AsyncIterable<unknown>): Promise<Error> {
-  try {
-    await collect(items);
-  } catch (error) {
-    return error as Error;
-  }
-  throw new Error("expected the reader to fail");
-}
 
 const NOTICE =
   "Capt. J. Marsh of the packet Wren reached St. Ebbe on Monday. Messrs. Brannock & Tull paid the dues! " +
