@@ -30,16 +30,7 @@ export interface EvalPair {
 }
 
 /** Counts and fractions over one group of mentions. */
-export interface Figures {
-  mentions: number;
-  /** Gold non-NIL mentions. */
-  goldLinks: number;
-  /** Gold NIL mentions. */
-  goldNil: number;
-  predictedLinks: number;
-  predictedNil: number;
-  correctLinks: number;
-  correctNil: number;
+export interface Figures extends FigureCounts {
   accuracy: number;
   linkPrecision: number;
   linkRecall: number;
@@ -103,7 +94,9 @@ export function f1(precision: number, recall: number): number {
 /** Raw counts behind Figures. */
 export interface FigureCounts {
   mentions: number;
+  /** Gold non-NIL mentions. */
   goldLinks: number;
+  /** Gold NIL mentions. */
   goldNil: number;
   predictedLinks: number;
   predictedNil: number;
