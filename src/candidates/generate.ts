@@ -211,6 +211,7 @@ export function generateCandidates(
       else if (df <= opts.ftsMaxDf) knownDf.push([t, df]);
     }
   }
+  const rarestKnown = rarestFirst(knownDf);
   // Corrections of unknown tokens feed token search and whole keys; a known token may be a
   // misreading too ("Grimehurst" is a name, and a slip for "Grimerhurst"), so the rarest known
   // tokens are corrected as well, for whole keys only.
@@ -222,7 +223,7 @@ export function generateCandidates(
       if (fixes.length > 0) corrected.set(t, fixes);
     }
     const room = MAX_FUZZY_TOKENS - Math.min(unknown.length, MAX_FUZZY_TOKENS);
-    for (const t of rarestFirst([...knownDf]).slice(0, room)) {
+    for (const t of rarestKnown.slice(0, room)) {
       if (t.length < FUZZY_MIN_TOKEN_LENGTH) continue;
       const fixes = correctToken(kb, t, opts).filter((f) => f !== t);
       if (fixes.length > 0) respelled.set(t, [t, ...fixes]);
@@ -255,7 +256,7 @@ export function generateCandidates(
   // Token search hits carry no class: the hot store knows it.
   const searched: Array<[number, CandidatePath]> = [];
   if (on.has("fts") && knownDf.length > 0) {
-    for (const eid of kb.searchAliases(rarestFirst([...knownDf]), opts.ftsLimit)) searched.push([eid, "fts"]);
+    for (const eid of kb.searchAliases(rarestKnown, opts.ftsLimit)) searched.push([eid, "fts"]);
   }
   if (corrected.size > 0) {
     const termDf: Array<[string, number]> = [];
