@@ -269,50 +269,32 @@ export class Kb {
     return this.entities([eid])[0]!;
   }
 
-  /** Entities by internal id, in the order asked, loading the uncached ones in batched queries. */
+  /** Entities by internal id, in the order asked: cached ones from memory, the rest in batched `IN` queries. */
   entities(eids: readonly number[]): EntityRow[] {
-    return this.byEids(
-      eids,
-      (e) => this.entityCache.get(e),
-      "SELECT eid, id, name, type, class, prior, forms FROM entities WHERE eid",
-      (r) => decodeEntity(r, this.hot),
-      (row) => this.entityCache.set(row.eid, row),
-    );
-  }
-
-  /**
-   * Rows by internal id, in the order asked: `cached` answers what it can, the rest is read in
-   * batched `IN` queries (`head` ends in "WHERE eid"), decoded and handed to `store`.
-   */
-  private byEids<T extends { eid: number }>(
-    eids: readonly number[],
-    cached: (eid: number) => T | undefined,
-    head: string,
-    decode: (row: Record<string, unknown>) => T,
-    store: (item: T) => void,
-  ): T[] {
-    const found = new Map<number, T>();
+    const found = new Map<number, EntityRow>();
     const missing: number[] = [];
     for (const e of eids) {
-      const known = cached(e);
+      const known = this.entityCache.get(e);
       if (known !== undefined) found.set(e, known);
       else missing.push(e);
     }
     for (let i = 0; i < missing.length; i += MAX_IN) {
       const slice = missing.slice(i, i + MAX_IN);
-      for (const r of this.inStatement(head, slice.length, false).all(...slice) as Record<
-        string,
-        unknown
-      >[]) {
-        const item = decode(r);
-        found.set(item.eid, item);
-        store(item);
+      const stmt = this.inStatement(
+        "SELECT eid, id, name, type, class, prior, forms FROM entities WHERE eid",
+        slice.length,
+        false,
+      );
+      for (const r of stmt.all(...slice) as Record<string, unknown>[]) {
+        const row = decodeEntity(r, this.hot);
+        found.set(row.eid, row);
+        this.entityCache.set(row.eid, row);
       }
     }
     return eids.map((e) => {
-      const item = found.get(e);
-      if (item === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${e}`);
-      return item;
+      const row = found.get(e);
+      if (row === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${e}`);
+      return row;
     });
   }
 
