@@ -333,15 +333,8 @@ function cachedManifest(cfg: RunConfig): GenerateManifest | null {
     : null;
 }
 
-interface CliOptions {
-  entities: number;
-  mentions: number;
-  bruteSample: number;
-  bruteMaxSeconds: number;
-  seed: number;
-  maxCandidates: number;
-  keep?: string;
-}
+/** The command line's options: the run's settings, and where to keep the data (default: a temp dir). */
+type CliOptions = Omit<RunConfig, "dataDir"> & { keep?: string };
 
 async function orchestrate(o: CliOptions): Promise<void> {
   const keep = o.keep;
