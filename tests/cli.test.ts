@@ -171,7 +171,7 @@ describe("hawser info", () => {
     expect(r.status).toBe(0);
     const info = JSON.parse(r.stdout) as Record<string, unknown>;
     expect(info.format).toBe("hawser-kb");
-    expect(info.schemaVersion).toBe(2);
+    expect(info.schemaVersion).toBe(3);
     expect(info.entities).toBe(GAZETTE_ROWS);
     expect(info.sourceFile).toBe("gazette.csv");
     expect(info.fingerprint).toMatch(/^[0-9a-f]{32}$/);

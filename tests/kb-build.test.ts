@@ -8,6 +8,7 @@ import Database from "better-sqlite3";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { buildKb } from "../src/kb/build.js";
 import { openKb } from "../src/kb/kb.js";
+import { SCHEMA_VERSION } from "../src/kb/schema.js";
 import { InputError } from "../src/util/errors.js";
 import { rejectsNaming, throwsInput } from "./helpers/errors.js";
 import { GAZETTE_CSV, GAZETTE_ROWS, jsonl, tempDir, writeText } from "./helpers/gazette.js";
@@ -36,7 +37,7 @@ describe("buildKb on a good table", () => {
     const kb = openKb(t.file("gazette.kb"));
     try {
       expect(kb.info.format).toBe("hawser-kb");
-      expect(kb.info.schemaVersion).toBe(2);
+      expect(kb.info.schemaVersion).toBe(SCHEMA_VERSION);
       expect(kb.info.fingerprint).toBe(s.fingerprint);
       expect(kb.info.entities).toBe(GAZETTE_ROWS);
       expect(kb.info.aliases).toBe(30);

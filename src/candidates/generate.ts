@@ -152,7 +152,7 @@ export function generateCandidates(
   const classes = new Set(forms.map((f) => f.cls));
   const on = opts.paths;
 
-  // Every whole-key probe of every form, answered by one batched lookup. A probe "names" an
+  // Every whole-key probe of every form, answered from the KB's in-memory key index. A probe "names" an
   // entity when a match on it is specific: a key of two or more words, or an acronym. A single
   // word ("Mrs Ingeldale", "Edith") is shared by everyone of that surname or given name.
   type Probe = { cls: EntityClass; kind: KeyKind; path: CandidatePath; names: boolean };
@@ -181,12 +181,14 @@ export function generateCandidates(
   let named = false;
   const runProbes = () => {
     if (probes.size === 0) return;
-    for (const hit of kb.lookupKeys([...probes.keys()])) {
-      for (const p of probes.get(hit.key) ?? [])
-        if (p.cls === hit.cls && p.kind === hit.kind) {
-          add(hit.eid, hit.cls, p.path);
-          if (p.names) named = true;
-        }
+    for (const [key, list] of probes) {
+      kb.forEachKeyHit(key, (cls, kind, eid) => {
+        for (const p of list)
+          if (p.cls === cls && p.kind === kind) {
+            add(eid, cls, p.path);
+            if (p.names) named = true;
+          }
+      });
     }
     probes.clear();
   };

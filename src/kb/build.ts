@@ -4,17 +4,17 @@
  * any failure removes the temporary file, so no partial KB is ever left behind.
  */
 import { createHash } from "node:crypto";
-import { existsSync, renameSync, rmSync, statSync } from "node:fs";
+import { existsSync, renameSync, rmSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
-import { BloomFilter } from "./bloom.js";
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
 import { RowWriter } from "./row-writer.js";
+import { StringIndexBuilder } from "./string-index.js";
 import { INDEX_SQL, KB_FORMAT, SCHEMA_SQL, SCHEMA_VERSION } from "./schema.js";
 
 export interface BuildKbOptions {
@@ -163,9 +163,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     phases[phase] = Number(now - last) / 1e9;
     last = now;
   };
-  // The key filter is filled while rows stream in; sized from the file's size, since the row
-  // count is not known yet.
-  const writer = new RowWriter(db, labels, BloomFilter.forItems(estimateKeys(options.table)));
+  const writer = new RowWriter(db, labels);
   const every = options.progressEvery ?? DEFAULT_PROGRESS_EVERY;
   let rows = 0;
   // The source checksum is taken from the same bytes the rows are parsed from: one read of the file.
@@ -195,47 +193,27 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   // Full-text rows in order of falling popularity (see schema.ts and fts-load.ts).
   const posEid = db.transaction(() => writer.fts.write(db))();
   mark("full-text index");
-  // Deletion variants sorted before insertion: appending to a B-tree in key order is far faster
-  // than inserting at random places.
-  const pairs: Array<[string, string]> = [];
-  for (const token of vocab.keys()) {
-    if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
-      for (const v of deletionVariants(token)) pairs.push([v, token]);
-  }
-  pairs.sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : a[1] < b[1] ? -1 : a[1] > b[1] ? 1 : 0));
-  const variantFilter = BloomFilter.forItems(pairs.length);
-  const tokenFilter = BloomFilter.forItems(vocab.size);
-  const insVocab = new BatchInsert(db, "INSERT INTO vocab (token, df)", 2);
-  const insDelete = new BatchInsert(db, "INSERT OR IGNORE INTO deletes (variant, token)", 2);
+  // The vocabulary with ids in order of first appearance; its deletion variants go into the
+  // hot store's in-memory index (variant -> token id), which the fuzzy path reads.
+  const variants = new StringIndexBuilder();
+  const insVocab = new BatchInsert(db, "INSERT INTO vocab (token, df, id)", 3);
   const insIdf = new BatchInsert(db, "INSERT INTO idf (term, df, id)", 3);
   db.transaction(() => {
+    let id = 0;
     for (const [token, { df }] of vocab) {
-      insVocab.add(token, df);
-      tokenFilter.add(token);
-    }
-    for (const [v, t] of pairs) {
-      insDelete.add(v, t);
-      variantFilter.add(v);
+      insVocab.add(token, df, id);
+      if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
+        for (const v of deletionVariants(token)) variants.add(v, id);
+      id++;
     }
     for (const [term, id] of hot.termIdOf) insIdf.add(term, hot.dfOf(term), id);
     insVocab.flush();
-    insDelete.flush();
     insIdf.flush();
   })();
-  pairs.length = 0;
   mark("vocabulary and fuzzy index");
   // Context norms need the final IDF, so the hot store computes them once every row is in.
-  hot.write(db, posEid);
+  hot.write(db, posEid, variants.build());
   mark("hot store and context norms");
-  const insFilter = db.prepare("INSERT INTO filters (name, m, k, bits) VALUES (?, ?, ?, ?)");
-  for (const [name, f] of [
-    ["keys", writer.keyFilter],
-    ["variants", variantFilter],
-    ["tokens", tokenFilter],
-  ] as const) {
-    insFilter.run(name, f.m, f.k, Buffer.from(f.bits.buffer, f.bits.byteOffset, f.bits.byteLength));
-  }
-  mark("filters");
   return {
     entities: eid,
     aliases: writer.aliases,
@@ -248,13 +226,4 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     phases,
     sourceSha256,
   };
-}
-
-/**
- * An upper estimate of the number of blocking keys, from the table's size: a row of a knowledge
- * table takes at least this many bytes per key it yields (names, aliases and description together).
- */
-const MIN_BYTES_PER_KEY = 24;
-function estimateKeys(file: string): number {
-  return Math.max(1024, Math.ceil(statSync(file).size / MIN_BYTES_PER_KEY));
 }

@@ -12,6 +12,9 @@ import type Database from "better-sqlite3";
 import { contextCosine, type IdVector, termIdListNorm } from "../score/context.js";
 import { idf } from "../score/tfidf.js";
 import { ENTITY_CLASSES, type EntityClass } from "../types.js";
+import type { KeyKind } from "./schema.js";
+import { StringIndex, type StringIndexArrays, StringIndexBuilder } from "./string-index.js";
+import { U32List } from "./u32-list.js";
 
 /** Largest BLOB written in one row: well under SQLite's default 1 GB value limit. */
 const PART_BYTES = 64 * 1024 * 1024;
@@ -35,22 +38,15 @@ export function tokenBits(token: string): [number, number] {
 
 const CLASS_CODE = new Map<EntityClass, number>(ENTITY_CLASSES.map((c, i) => [c, i]));
 
-/** Growable Uint32Array. */
-class U32List {
-  data = new Uint32Array(1024);
-  length = 0;
-  push(v: number): void {
-    if (this.length === this.data.length) {
-      const next = new Uint32Array(this.data.length * 2);
-      next.set(this.data);
-      this.data = next;
-    }
-    this.data[this.length++] = v;
-  }
-  toArray(): Uint32Array {
-    return this.data.slice(0, this.length);
-  }
-}
+/** Key kinds in the order of their codes in a packed key hit. */
+export const KEY_KINDS: readonly KeyKind[] = ["exact", "ocr", "acronym", "initials"];
+const KIND_CODE = new Map<KeyKind, number>(KEY_KINDS.map((k, i) => [k, i]));
+/**
+ * A blocking-key hit packed in 32 bits: the entity id above KEY_HIT_SHIFT bits, then the class
+ * (3 bits, room for eight) and the kind (2 bits). Entity ids up to 2^27 (134 million) fit.
+ */
+const KEY_HIT_SHIFT = 5;
+export const MAX_KEYED_ENTITIES = 2 ** (32 - KEY_HIT_SHIFT) - 1;
 
 /** Collects the hot store row by row during the build (entity ids 1, 2, 3, ... in order). */
 export class HotStoreBuilder {
@@ -63,6 +59,8 @@ export class HotStoreBuilder {
   readonly termIdOf = new Map<string, number>();
   /** Entities whose context carries each term id. */
   private readonly termDf = new U32List();
+  /** Blocking key -> packed hit (see KEY_HIT_SHIFT). */
+  private readonly keys = new StringIndexBuilder();
 
   constructor() {
     // Entity ids start at 1: slot 0 is a placeholder.
@@ -106,6 +104,12 @@ export class HotStoreBuilder {
     this.sig.push(hi >>> 0);
   }
 
+  /** One blocking key of an entity (each (key, kind) once per entity). */
+  addKey(key: string, cls: EntityClass, kind: KeyKind, eid: number): void {
+    if (eid > MAX_KEYED_ENTITIES) throw new Error(`a KB holds at most ${MAX_KEYED_ENTITIES} entities`);
+    this.keys.add(key, ((eid << KEY_HIT_SHIFT) | (CLASS_CODE.get(cls)! << 2) | KIND_CODE.get(kind)!) >>> 0);
+  }
+
   /** Number of entities whose context carries `term` (0 when none). */
   dfOf(term: string): number {
     const id = this.termIdOf.get(term);
@@ -129,9 +133,19 @@ export class HotStoreBuilder {
     return out;
   }
 
-  /** Write the store into `db` (table `hot`); `posEid[pos]` maps full-text positions to entity ids. */
-  write(db: Database.Database, posEid: Uint32Array): void {
+  /**
+   * Write the store into `db` (table `hot`): `posEid[pos]` maps full-text positions to entity
+   * ids, `variants` maps deletion variants to vocabulary token ids (see Kb.tokensForVariants).
+   */
+  write(db: Database.Database, posEid: Uint32Array, variants: StringIndexArrays): void {
+    const keys = this.keys.build();
     const arrays: Record<string, ArrayBufferView> = {
+      keyStart: keys.start,
+      keyCheck: keys.check,
+      keyValue: keys.value,
+      variantStart: variants.start,
+      variantCheck: variants.check,
+      variantValue: variants.value,
       cls: Uint8Array.from(this.cls.toArray()),
       prior: Float32Array.from(this.prior),
       norm: this.norms(),
@@ -164,6 +178,10 @@ export class HotStore {
   readonly termIds: Uint32Array;
   private readonly sig: Uint32Array;
   private readonly posEid: Uint32Array;
+  /** Blocking key -> packed hits (see forEachKeyHit). */
+  private readonly keys: StringIndex;
+  /** Deletion variant -> vocabulary token ids (see Kb.tokensForVariants). */
+  readonly variants: StringIndex;
 
   constructor(db: Database.Database) {
     const parts = new Map<string, Buffer[]>();
@@ -196,6 +214,14 @@ export class HotStore {
     this.termIds = new Uint32Array(bytes("termIds"));
     this.sig = new Uint32Array(bytes("sig"));
     this.posEid = new Uint32Array(bytes("posEid"));
+    const index = (name: string) =>
+      new StringIndex({
+        start: new Uint32Array(bytes(`${name}Start`)),
+        check: new Uint32Array(bytes(`${name}Check`)),
+        value: new Uint32Array(bytes(`${name}Value`)),
+      });
+    this.keys = index("key");
+    this.variants = index("variant");
     this.entities = this.cls.length - 1;
     if (
       this.prior.length !== this.cls.length ||
@@ -205,6 +231,13 @@ export class HotStore {
     ) {
       throw new Error("hot store: arrays of different lengths");
     }
+  }
+
+  /** Calls `each` with the class, kind and entity of every blocking-key row of `key`. */
+  forEachKeyHit(key: string, each: (cls: EntityClass, kind: KeyKind, eid: number) => void): void {
+    this.keys.forEach(key, (v) =>
+      each(ENTITY_CLASSES[(v >>> 2) & 7]!, KEY_KINDS[v & 3]!, v >>> KEY_HIT_SHIFT),
+    );
   }
 
   classOf(eid: number): EntityClass {

@@ -5,7 +5,6 @@
 import { existsSync } from "node:fs";
 import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
-import { BloomFilter } from "./bloom.js";
 import { HotStore } from "./hot.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
@@ -99,18 +98,16 @@ export class Kb {
   readonly info: KbInfo;
   private readonly stmts: {
     fts: Database.Statement<[string, number], number>;
-    vocab: Database.Statement<[string], { df: number }>;
     idf: Database.Statement<[string], TermInfo>;
     byId: Database.Statement<[string], { eid: number }>;
     details: Database.Statement<[number], unknown>;
   };
   private readonly entityCache = new GenerationCache<number, EntityRow>(ENTITY_CACHE_SIZE);
   private readonly idfCache = new GenerationCache<string, TermInfo>(IDF_CACHE_SIZE);
-  private readonly vocabCache = new GenerationCache<string, number>(IDF_CACHE_SIZE);
-  /** Bloom filters over keys, deletion variants and tokens (null: answer from SQLite alone). */
-  private readonly keyFilter: BloomFilter | null;
-  private readonly variantFilter: BloomFilter | null;
-  private readonly tokenFilter: BloomFilter | null;
+  /** Alias token -> number of entities with it in a name (the whole vocabulary, loaded on open). */
+  private readonly vocabDf = new Map<string, number>();
+  /** Alias tokens by vocabulary id (the values of the hot store's deletion-variant index). */
+  private readonly vocabTokens: string[] = [];
   /** `... IN (?, ?, ...)` statements by text and arity, prepared on first use. */
   private readonly inStatements = new Map<string, Database.Statement<unknown[], unknown>>();
   /** Per-entity facts for whole candidate pools, in memory (see hot.ts). */
@@ -128,25 +125,18 @@ export class Kb {
     }
     this.db = db;
     this.info = readInfo(db, file);
-    const filters = new Map<string, BloomFilter>();
     try {
-      for (const r of db.prepare("SELECT name, m, k, bits FROM filters").all() as Array<{
-        name: string;
-        m: number;
-        k: number;
-        bits: Buffer;
-      }>) {
-        filters.set(
-          r.name,
-          new BloomFilter(r.m, r.k, new Uint8Array(r.bits.buffer, r.bits.byteOffset, r.bits.byteLength)),
-        );
+      for (const r of db.prepare("SELECT token, df, id FROM vocab").raw(true).iterate() as Iterable<
+        [string, number, number]
+      >) {
+        this.vocabDf.set(r[0], r[1]);
+        this.vocabTokens[r[2]] = r[0];
       }
       this.stmts = {
         // Unranked: rows come in position order, which is falling popularity (see schema.ts).
         fts: db
           .prepare<[string, number], number>("SELECT rowid FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?")
           .pluck(true),
-        vocab: db.prepare("SELECT df FROM vocab WHERE token = ?"),
         idf: db.prepare("SELECT df, id FROM idf WHERE term = ?"),
         details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
         byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
@@ -161,9 +151,6 @@ export class Kb {
         `KB file is damaged or was built by an incompatible hawser (${(e as Error).message}): rebuild it with \`hawser index\``,
       );
     }
-    this.keyFilter = filters.get("keys") ?? null;
-    this.variantFilter = filters.get("variants") ?? null;
-    this.tokenFilter = filters.get("tokens") ?? null;
   }
 
   /** `${head} IN (?, ..., ?)` with `n` placeholders, prepared once per text and arity. */
@@ -182,23 +169,16 @@ export class Kb {
     if (this.db.open) this.db.close();
   }
 
-  /** Every blocking-key row whose key is one of `keys` (any class and kind), in one query per 32 keys. */
-  lookupKeys(wanted: readonly string[]): KeyHit[] {
+  /** Every blocking-key row of `key` (any class and kind), from the in-memory key index. */
+  forEachKeyHit(key: string, each: (cls: EntityClass, kind: KeyKind, eid: number) => void): void {
+    this.hot.forEachKeyHit(key, each);
+  }
+
+  /** Every blocking-key row whose key is one of `keys` (any class and kind). */
+  lookupKeys(keys: readonly string[]): KeyHit[] {
     const out: KeyHit[] = [];
-    const f = this.keyFilter;
-    const keys = f === null ? wanted : wanted.filter((k) => f.has(k));
-    for (let i = 0; i < keys.length; i += MAX_IN) {
-      const slice = keys.slice(i, i + MAX_IN);
-      const stmt = this.inStatement("SELECT key, class, kind, eid FROM keys WHERE key", slice.length, true);
-      for (const r of stmt.all(...slice) as unknown[][]) {
-        out.push({
-          key: r[0] as string,
-          cls: r[1] as EntityClass,
-          kind: r[2] as KeyKind,
-          eid: r[3] as number,
-        });
-      }
-    }
+    for (const key of keys)
+      this.hot.forEachKeyHit(key, (cls, kind, eid) => out.push({ key, cls, kind, eid }));
     return out;
   }
 
@@ -227,24 +207,19 @@ export class Kb {
 
   /** How many entities have this token in a name or alias (0 when unknown). */
   tokenDf(token: string): number {
-    if (this.tokenFilter !== null && !this.tokenFilter.has(token)) return 0;
-    let df = this.vocabCache.get(token);
-    if (df === undefined) {
-      df = this.stmts.vocab.get(token)?.df ?? 0;
-      this.vocabCache.set(token, df);
-    }
-    return df;
+    return this.vocabDf.get(token) ?? 0;
   }
 
-  /** Table tokens for any of the variants, in one query per 32 variants. */
-  tokensForVariants(wanted: readonly string[]): string[] {
+  /** Distinct table tokens that share one of the deletion variants, from the in-memory index. */
+  tokensForVariants(variants: readonly string[]): string[] {
+    const ids = new Set<number>();
+    const add = (id: number) => ids.add(id);
+    for (const v of variants) this.hot.variants.forEach(v, add);
     const out: string[] = [];
-    const f = this.variantFilter;
-    const variants = f === null ? wanted : wanted.filter((v) => f.has(v));
-    for (let i = 0; i < variants.length; i += MAX_IN) {
-      const slice = variants.slice(i, i + MAX_IN);
-      const stmt = this.inStatement("SELECT DISTINCT token FROM deletes WHERE variant", slice.length, true);
-      for (const r of stmt.all(...slice) as unknown[][]) out.push(r[0] as string);
+    for (const id of ids) {
+      const token = this.vocabTokens[id];
+      if (token === undefined) throw new Error(`KB ${this.info.file}: no vocabulary token with id ${id}`);
+      out.push(token);
     }
     return out;
   }

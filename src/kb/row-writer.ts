@@ -1,7 +1,7 @@
 /**
  * Writes the table's rows into the KB as they stream in: the entity row (with its packed name
- * forms), its details, and its blocking keys, while gathering what the later phases need (Bloom
- * filter over keys, token vocabulary, the hot store with the context terms, full-text rows).
+ * forms), its details, and its blocking keys, while gathering what the later phases need (token
+ * vocabulary, the hot store with the context terms and the in-memory key index, full-text rows).
  * Inserts are buffered (see batch-insert.ts): call `flush` before each commit.
  */
 import type Database from "better-sqlite3";
@@ -10,7 +10,6 @@ import { normalizeName } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
 import type { EntityRecord } from "../types.js";
 import { BatchInsert } from "./batch-insert.js";
-import type { BloomFilter } from "./bloom.js";
 import { FtsRows } from "./fts-load.js";
 import { HotStoreBuilder } from "./hot.js";
 import { type KeyKind, type PackedForm, packForms } from "./schema.js";
@@ -53,8 +52,6 @@ export class RowWriter {
   constructor(
     db: Database.Database,
     private readonly labels: LabelMap,
-    /** Bloom filter over the blocking keys, filled as keys are written. */
-    readonly keyFilter: BloomFilter,
   ) {
     this.insEntity = new BatchInsert(
       db,
@@ -83,7 +80,7 @@ export class RowWriter {
       if (seen.has(key)) return;
       seen.add(key);
       this.insKey.add(key, cls, kind, eid);
-      this.keyFilter.add(key);
+      this.hot.addKey(key, cls, kind, eid);
       this.keys++;
     };
     for (let i = 0; i <= r.aliases.length; i++) {

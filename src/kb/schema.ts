@@ -1,5 +1,5 @@
 /**
- * The KB file: one SQLite database. Version 2 of the schema.
+ * The KB file: one SQLite database. Version 3 of the schema.
  *
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
@@ -8,26 +8,29 @@
  *   packs the normalized forms of its names (see packForms), so that scoring reads one row per
  *   candidate. The stemmed context words of the description and attributes live in the hot
  *   store, as term ids.
- * - keys: blocking keys per entity and class: exact, ocr, acronym, initials.
+ * - keys: blocking keys per entity and class: exact, ocr, acronym, initials. Linking reads them
+ *   from the hot store's in-memory key index, built from the same rows; the table is there to
+ *   be queried and inspected.
  * - alias_fts: FTS5 over alias core tokens (contentless). Its rowids are positions in order of
  *   falling popularity (prior), mapped to entities by the hot store, so an unranked match
  *   returns the most popular entities carrying a token first, at a cost that does not grow with
  *   how common the token is. No per-row token counts are kept (columnsize=0): they serve only
  *   ranking functions, which the unranked lookup never calls, and writing them was a quarter of
  *   the full-text build.
- * - vocab / deletes: alias tokens with document frequency, and their one-deletion variants for
- *   the fuzzy path (symmetric deletion: two tokens within edit distance ~2 share a variant).
+ * - vocab: alias tokens with document frequency and an id (loaded whole on open). Their
+ *   one-deletion variants for the fuzzy path (symmetric deletion: two tokens within edit
+ *   distance ~2 share a variant) are in the hot store, as variant -> token id.
  * - idf: document frequency of each context term, and its id in the hot store's term lists.
  * - hot: typed arrays loaded whole on open (see hot.ts): class, prior, context norm, context
- *   term ids and a name-token signature per entity, and full-text position -> entity.
- * - filters: Bloom filters (see bloom.ts) over blocking keys, deletion variants and alias tokens,
- *   loaded into memory on open so probes for absent keys never reach SQLite.
+ *   term ids and a name-token signature per entity, full-text position -> entity, and the
+ *   hashed key and deletion-variant indexes (see string-index.ts), so that the many probes a
+ *   mention makes, most of them for keys that do not exist, never reach SQLite.
  */
 
 /** Identifies a hawser KB among SQLite files. */
 export const KB_FORMAT = "hawser-kb";
 /** Bumped on any incompatible schema change; a KB with a newer version is refused. */
-export const SCHEMA_VERSION = 2;
+export const SCHEMA_VERSION = 3;
 
 export const SCHEMA_SQL = `
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL) WITHOUT ROWID;
@@ -43,11 +46,9 @@ CREATE TABLE entities (
 CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
 CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
 CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', columnsize=0, detail=column, tokenize='unicode61 remove_diacritics 0');
-CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL) WITHOUT ROWID;
-CREATE TABLE deletes (variant TEXT NOT NULL, token TEXT NOT NULL, PRIMARY KEY (variant, token)) WITHOUT ROWID;
+CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL, id INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE idf (term TEXT PRIMARY KEY, df INTEGER NOT NULL, id INTEGER NOT NULL) WITHOUT ROWID;
 CREATE TABLE hot (name TEXT NOT NULL, part INTEGER NOT NULL, data BLOB NOT NULL, PRIMARY KEY (name, part)) WITHOUT ROWID;
-CREATE TABLE filters (name TEXT PRIMARY KEY, m INTEGER NOT NULL, k INTEGER NOT NULL, bits BLOB NOT NULL) WITHOUT ROWID;
 `;
 
 /**
