@@ -6,6 +6,7 @@ import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { CSV_COLUMNS } from "../src/link/write.js";
+import { SCHEMA_VERSION } from "../src/kb/schema.js";
 import { hawser, requireBuiltCli } from "./helpers/cli.js";
 import { GAZETTE_CSV, GAZETTE_ROWS, jsonl, tempDir, writeText } from "./helpers/gazette.js";
 
@@ -171,7 +172,7 @@ describe("hawser info", () => {
     expect(r.status).toBe(0);
     const info = JSON.parse(r.stdout) as Record<string, unknown>;
     expect(info.format).toBe("hawser-kb");
-    expect(info.schemaVersion).toBe(3);
+    expect(info.schemaVersion).toBe(SCHEMA_VERSION);
     expect(info.entities).toBe(GAZETTE_ROWS);
     expect(info.sourceFile).toBe("gazette.csv");
     expect(info.fingerprint).toMatch(/^[0-9a-f]{32}$/);

@@ -4,7 +4,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildKb } from "../src/kb/build.js";
-import { tokenBits } from "../src/kb/hot.js";
+import Database from "better-sqlite3";
+import { HotStore, HotStoreBuilder, tokenBits } from "../src/kb/hot.js";
 import { type Kb, openKb } from "../src/kb/kb.js";
 import { idVector } from "../src/score/context.js";
 import { buildVector, cosine, idf } from "../src/score/tfidf.js";
@@ -88,4 +89,74 @@ describe("the hot store", () => {
       for (const e of kb.entities(eids)) expect(e.aliases.some((a) => a.tokens.includes(tok))).toBe(true);
     }
   });
+  it("answers every blocking key with exactly the rows of the KB's keys table", () => {
+    const rows = kb.db.prepare("SELECT key, class, kind, eid FROM keys").all() as Array<{
+      key: string;
+      class: string;
+      kind: string;
+      eid: number;
+    }>;
+    const sqlHits = new Map<string, string[]>();
+    for (const r of rows)
+      sqlHits.set(r.key, [...(sqlHits.get(r.key) ?? []), `${r.class}/${r.kind}/${r.eid}`]);
+    expect(sqlHits.size).toBeGreaterThan(500);
+    for (const [key, want] of sqlHits) {
+      const got: string[] = [];
+      kb.hot.forEachKeyHit(key, (cls, kind, eid) => got.push(`${cls}/${kind}/${eid}`));
+      expect(got.sort()).toEqual(want.sort());
+    }
+    const none: string[] = [];
+    kb.hot.forEachKeyHit("no such key in the gazette", (cls, kind, eid) =>
+      none.push(`${cls}/${kind}/${eid}`),
+    );
+    expect(none).toEqual([]);
+  });
+});
+
+describe("term ids past 16 bits", () => {
+  const many = (n: number) => Array.from({ length: n }, (_, i) => `term${i}`);
+  /** A hot store written and loaded through an in-memory SQLite file with the KB's hot table. */
+  const roundTrip = (distinctTerms: number) => {
+    const b = new HotStoreBuilder();
+    b.add("organization", 10, many(distinctTerms), ["pell"]);
+    b.add("person", 5, ["term0", `term${distinctTerms - 1}`, `term${distinctTerms - 1}`], ["marsh"]);
+    const db = new Database(":memory:");
+    db.exec(
+      "CREATE TABLE hot (name TEXT NOT NULL, part INTEGER NOT NULL, data BLOB NOT NULL, PRIMARY KEY (name, part))",
+    );
+    const empty = { start: new Uint32Array([0, 0]), check: new Uint32Array(0), value: new Uint32Array(0) };
+    b.write(db, new Uint32Array([0]), empty, {
+      words: empty,
+      start: new Uint32Array([0]),
+      eids: new Uint32Array(0),
+    });
+    const hot = new HotStore(db);
+    db.close();
+    return { hot, b };
+  };
+
+  for (const [distinct, width] of [
+    [1000, Uint16Array],
+    [70_000, Uint32Array],
+  ] as const) {
+    it(`stores ${distinct} distinct terms as ${width.name} ids and scores them alike`, () => {
+      const { hot, b } = roundTrip(distinct);
+      expect(hot.termIds).toBeInstanceOf(width);
+      const last = `term${distinct - 1}`;
+      expect([...hot.termIds.subarray(hot.termStart[2]!, hot.termStart[3]!)]).toEqual([
+        b.termIdOf.get("term0"),
+        b.termIdOf.get(last),
+        b.termIdOf.get(last),
+      ]);
+      // Cosines over the stored ids equal the plain TF-IDF cosine of the term lists.
+      const idfOf = (t: string) => idf(b.dfOf(t), 2);
+      const words = [last, "term1"];
+      const v = buildVector(words, idfOf);
+      const mention = idVector(v, idfOf, (t) => b.termIdOf.get(t) ?? -1);
+      const second = buildVector(["term0", last, last], idfOf);
+      expect(hot.contextCosine(mention, 2)).toBeCloseTo(cosine(v, second), 12);
+      expect(hot.contextCosine(mention, 2)).toBeGreaterThan(0.3);
+      expect(hot.contextCosine(mention, 1)).toBeCloseTo(cosine(v, buildVector(many(distinct), idfOf)), 12);
+    });
+  }
 });

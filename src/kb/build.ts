@@ -191,7 +191,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
 
   mark("read and insert rows");
   // Full-text rows in order of falling popularity (see schema.ts and fts-load.ts).
-  const posEid = db.transaction(() => writer.fts.write(db))();
+  const { posEid, postings } = db.transaction(() => writer.fts.write(db))();
   mark("full-text index");
   // The vocabulary with ids in order of first appearance; its deletion variants go into the
   // hot store's in-memory index (variant -> token id), which the fuzzy path reads.
@@ -212,7 +212,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   })();
   mark("vocabulary and fuzzy index");
   // Context norms need the final IDF, so the hot store computes them once every row is in.
-  hot.write(db, posEid, variants.build());
+  hot.write(db, posEid, variants.build(), postings);
   mark("hot store and context norms");
   return {
     entities: eid,

@@ -5,6 +5,7 @@
  * numbers instead of joining and sorting tables in SQLite.
  */
 import type Database from "better-sqlite3";
+import { type PostingArrays, PostingsBuilder } from "./postings.js";
 
 /** Separates the name keys of one entity in memory (folded keys never contain control characters). */
 const KEY_SEPARATOR = "\u001e";
@@ -36,9 +37,10 @@ export class FtsRows {
 
   /**
    * Writes alias_fts (inside the caller's transaction), then lets go of the keys; returns the
-   * entity id at each full-text position (index 0 unused), for the hot store.
+   * entity id at each full-text position (index 0 unused) and the in-memory word index of the
+   * same rows (postings.ts), for the hot store.
    */
-  write(db: Database.Database): Uint32Array {
+  write(db: Database.Database): { posEid: Uint32Array; postings: PostingArrays } {
     const n = this.keys.length;
     const priors = this.priors;
     const order = new Uint32Array(n);
@@ -49,6 +51,7 @@ export class FtsRows {
       "INSERT INTO alias_fts (rowid, tokens) SELECT key + ?, value FROM json_each(?)",
     );
     const eids: number[] = [0];
+    const postings = new PostingsBuilder();
     let texts: string[] = [];
     let written = 0;
     const flush = () => {
@@ -63,12 +66,13 @@ export class FtsRows {
       for (const key of joined.split(KEY_SEPARATOR)) {
         eids.push(i + 1);
         texts.push(key);
+        postings.addKey(key, i + 1);
         if (texts.length === ROWS_PER_STATEMENT) flush();
       }
     }
     if (texts.length > 0) flush();
     this.keys.length = 0;
     this.priors = new Float64Array(0);
-    return Uint32Array.from(eids);
+    return { posEid: Uint32Array.from(eids), postings: postings.build() };
   }
 }

@@ -5,19 +5,29 @@
  * the KB as BLOBs (table `hot`); opening the KB loads them whole. Choosing among hundreds of
  * same-name candidates, and checking the class of token-search hits, then reads no SQLite rows.
  *
- * Memory: 25 bytes per entity, 4 per context-term occurrence, 4 per name form; about 80 MB for
- * the 1,000,000-entity benchmark table.
+ * The same table holds the hashed indexes of blocking keys and deletion variants
+ * (string-index.ts) and the word index of the full-text rows (postings.ts).
+ *
+ * Memory: 25 bytes per entity, 2 per context-term occurrence (4 past 65,536 distinct terms),
+ * about 10 per blocking key, 4 per word occurrence in a name key: about 120 MB for the
+ * 1,000,000-entity benchmark table (keys 43 MB, word index 24 MB, term ids 20 MB).
  */
 import type Database from "better-sqlite3";
-import { contextCosine, type IdVector, termIdListNorm } from "../score/context.js";
+import { contextCosine, type IdVector, type TermIdArray, termIdListNorm } from "../score/context.js";
 import { idf } from "../score/tfidf.js";
 import { ENTITY_CLASSES, type EntityClass } from "../types.js";
 import type { KeyKind } from "./schema.js";
+import { type PostingArrays, Postings } from "./postings.js";
 import { StringIndex, type StringIndexArrays, StringIndexBuilder } from "./string-index.js";
 import { U32List } from "./u32-list.js";
 
-/** Largest BLOB written in one row: well under SQLite's default 1 GB value limit. */
-const PART_BYTES = 64 * 1024 * 1024;
+/**
+ * Largest BLOB written in one row (SQLite's limit is 1 GB). Small parts keep loading lean: see
+ * readArray.
+ */
+const PART_BYTES = 4 * 1024 * 1024;
+/** Most distinct context terms whose ids are stored in 16 bits. */
+const TERM_IDS_16_MAX = 2 ** 16;
 /** Bits of a name signature: two 32-bit words per entity. */
 const SIGNATURE_BITS = 64;
 
@@ -135,9 +145,15 @@ export class HotStoreBuilder {
 
   /**
    * Write the store into `db` (table `hot`): `posEid[pos]` maps full-text positions to entity
-   * ids, `variants` maps deletion variants to vocabulary token ids (see Kb.tokensForVariants).
+   * ids, `variants` maps deletion variants to vocabulary token ids (see Kb.tokensForVariants),
+   * `postings` is the in-memory word index of the full-text rows (postings.ts).
    */
-  write(db: Database.Database, posEid: Uint32Array, variants: StringIndexArrays): void {
+  write(
+    db: Database.Database,
+    posEid: Uint32Array,
+    variants: StringIndexArrays,
+    postings: PostingArrays,
+  ): void {
     const keys = this.keys.build();
     const arrays: Record<string, ArrayBufferView> = {
       keyStart: keys.start,
@@ -146,11 +162,19 @@ export class HotStoreBuilder {
       variantStart: variants.start,
       variantCheck: variants.check,
       variantValue: variants.value,
+      wordStart: postings.words.start,
+      wordCheck: postings.words.check,
+      wordValue: postings.words.value,
+      postStart: postings.start,
+      postEid: postings.eids,
       cls: Uint8Array.from(this.cls.toArray()),
       prior: Float32Array.from(this.prior),
       norm: this.norms(),
       termStart: this.termStart.toArray(),
-      termIds: this.termIds.toArray(),
+      // 16-bit ids when they fit (the loader tells the two apart by name).
+      ...(this.termDf.length <= TERM_IDS_16_MAX
+        ? { termIds16: Uint16Array.from(this.termIds.toArray()) }
+        : { termIds: this.termIds.toArray() }),
       sig: this.sig.toArray(),
       posEid,
     };
@@ -175,53 +199,39 @@ export class HotStore {
   /** Context TF-IDF norm per entity (see src/score/context.ts). */
   readonly norm: Float64Array;
   readonly termStart: Uint32Array;
-  readonly termIds: Uint32Array;
+  readonly termIds: TermIdArray;
   private readonly sig: Uint32Array;
-  private readonly posEid: Uint32Array;
+  /** Entity per full-text position, read on first use (only the FTS5 path needs it). */
+  private posEid: Uint32Array | null = null;
   /** Blocking key -> packed hits (see forEachKeyHit). */
   private readonly keys: StringIndex;
   /** Deletion variant -> vocabulary token ids (see Kb.tokensForVariants). */
   readonly variants: StringIndex;
+  /** Word -> entities carrying it in a name key, most popular first (postings.ts). */
+  readonly postings: Postings;
 
-  constructor(db: Database.Database) {
-    const parts = new Map<string, Buffer[]>();
-    for (const r of db.prepare("SELECT name, data FROM hot ORDER BY name, part").iterate() as Iterable<{
-      name: string;
-      data: Buffer;
-    }>) {
-      const list = parts.get(r.name);
-      if (list) list.push(r.data);
-      else parts.set(r.name, [r.data]);
-    }
-    // Copied into fresh (aligned) buffers: SQLite's BLOB buffers need not be aligned for the views.
-    const bytes = (name: string): ArrayBuffer => {
-      const list = parts.get(name);
-      if (list === undefined) throw new Error(`hot store: no "${name}" array`);
-      const total = list.reduce((s, b) => s + b.length, 0);
-      const out = new Uint8Array(total);
-      let at = 0;
-      for (const b of list) {
-        out.set(b, at);
-        at += b.length;
-      }
-      parts.delete(name);
-      return out.buffer;
-    };
+  constructor(private readonly db: Database.Database) {
+    const bytes = (name: string) => readArray(db, name);
     this.cls = new Uint8Array(bytes("cls"));
     this.prior = new Float32Array(bytes("prior"));
     this.norm = new Float64Array(bytes("norm"));
     this.termStart = new Uint32Array(bytes("termStart"));
-    this.termIds = new Uint32Array(bytes("termIds"));
+    this.termIds = hasArray(db, "termIds16")
+      ? new Uint16Array(bytes("termIds16"))
+      : new Uint32Array(bytes("termIds"));
     this.sig = new Uint32Array(bytes("sig"));
-    this.posEid = new Uint32Array(bytes("posEid"));
-    const index = (name: string) =>
-      new StringIndex({
-        start: new Uint32Array(bytes(`${name}Start`)),
-        check: new Uint32Array(bytes(`${name}Check`)),
-        value: new Uint32Array(bytes(`${name}Value`)),
-      });
-    this.keys = index("key");
-    this.variants = index("variant");
+    const index = (name: string): StringIndexArrays => ({
+      start: new Uint32Array(bytes(`${name}Start`)),
+      check: new Uint32Array(bytes(`${name}Check`)),
+      value: new Uint32Array(bytes(`${name}Value`)),
+    });
+    this.keys = new StringIndex(index("key"));
+    this.variants = new StringIndex(index("variant"));
+    this.postings = new Postings({
+      words: index("word"),
+      start: new Uint32Array(bytes("postStart")),
+      eids: new Uint32Array(bytes("postEid")),
+    });
     this.entities = this.cls.length - 1;
     if (
       this.prior.length !== this.cls.length ||
@@ -267,6 +277,35 @@ export class HotStore {
 
   /** The entity at a full-text position. */
   eidAt(pos: number): number {
+    this.posEid ??= new Uint32Array(readArray(this.db, "posEid"));
     return this.posEid[pos]!;
   }
+}
+
+/**
+ * One array of the hot table, its parts copied one at a time into a fresh buffer (aligned for
+ * any typed-array view, which a BLOB's own buffer need not be). Parts are small (PART_BYTES) so
+ * that the transient copies SQLite and the driver make of each BLOB are small too: with parts of
+ * 64 MB, those freed copies stayed in the process's resident set.
+ */
+function readArray(db: Database.Database, name: string): ArrayBuffer {
+  const total = db.prepare("SELECT sum(length(data)) FROM hot WHERE name = ?").pluck(true).get(name) as
+    | number
+    | null;
+  if (total === null) throw new Error(`hot store: no "${name}" array`);
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const b of db
+    .prepare("SELECT data FROM hot WHERE name = ? ORDER BY part")
+    .pluck(true)
+    .iterate(name) as Iterable<Buffer>) {
+    if (at + b.length > total) throw new Error(`hot store: "${name}" parts do not add up`);
+    out.set(b, at);
+    at += b.length;
+  }
+  return out.buffer;
+}
+
+function hasArray(db: Database.Database, name: string): boolean {
+  return db.prepare("SELECT 1 FROM hot WHERE name = ? LIMIT 1").get(name) !== undefined;
 }

@@ -5,6 +5,7 @@
 import { existsSync } from "node:fs";
 import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
+import { ftsWords } from "./postings.js";
 import { HotStore } from "./hot.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
@@ -183,23 +184,44 @@ export class Kb {
   }
 
   /**
-   * FTS5 search over alias tokens, one token at a time in the order given (callers pass the
-   * rarest first), each giving its most popular entities, until `limit` distinct entities are
-   * found. Tokens are folded words; each is quoted as an FTS5 string with embedded quotes
-   * doubled (and split at any inner separator), so mention text never reaches the FTS5 query
-   * parser as syntax.
+   * Token search over name keys, one word at a time in the order given (callers pass the rarest
+   * first), each giving its most popular carriers, until `limit` distinct entities are found.
+   * Answered from the in-memory word index (postings.ts), which holds the FTS5 table's lists.
    */
   searchAliases(tokens: readonly string[], limit: number): number[] {
-    const words = tokens.flatMap((t) => t.split(/[^\p{L}\p{N}]+/u)).filter((w) => w.length > 0);
     const seen = new Set<number>();
     const out: number[] = [];
-    for (const w of words) {
-      if (out.length >= limit) break;
-      for (const pos of this.stmts.fts.all(ftsString(w), limit - out.length)) {
-        const eid = this.hot.eidAt(pos);
-        if (seen.has(eid)) continue;
-        seen.add(eid);
-        out.push(eid);
+    const take = (eid: number) => {
+      if (seen.has(eid)) return;
+      seen.add(eid);
+      out.push(eid);
+    };
+    for (const t of tokens) {
+      for (const w of ftsWords(t)) {
+        if (out.length >= limit) return out;
+        this.hot.postings.forEachCarrier(w, limit - out.length, take);
+      }
+    }
+    return out;
+  }
+
+  /**
+   * The same search as searchAliases, run as FTS5 queries on the KB's alias_fts table: the
+   * reference the in-memory index is checked against. Each word is quoted as an FTS5 string
+   * with embedded quotes doubled, so mention text never reaches the FTS5 query parser as syntax.
+   */
+  searchAliasesFts(tokens: readonly string[], limit: number): number[] {
+    const seen = new Set<number>();
+    const out: number[] = [];
+    for (const t of tokens) {
+      for (const w of ftsWords(t)) {
+        if (out.length >= limit) return out;
+        for (const pos of this.stmts.fts.all(ftsString(w), limit - out.length)) {
+          const eid = this.hot.eidAt(pos);
+          if (seen.has(eid)) continue;
+          seen.add(eid);
+          out.push(eid);
+        }
       }
     }
     return out;

@@ -24,13 +24,14 @@
  * - hot: typed arrays loaded whole on open (see hot.ts): class, prior, context norm, context
  *   term ids and a name-token signature per entity, full-text position -> entity, and the
  *   hashed key and deletion-variant indexes (see string-index.ts), so that the many probes a
- *   mention makes, most of them for keys that do not exist, never reach SQLite.
+ *   mention makes, most of them for keys that do not exist, never reach SQLite, and the word
+ *   index of alias_fts's rows (see postings.ts), which answers token search in memory.
  */
 
 /** Identifies a hawser KB among SQLite files. */
 export const KB_FORMAT = "hawser-kb";
 /** Bumped on any incompatible schema change; a KB with a newer version is refused. */
-export const SCHEMA_VERSION = 3;
+export const SCHEMA_VERSION = 4;
 
 export const SCHEMA_SQL = `
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL) WITHOUT ROWID;

@@ -13,6 +13,12 @@ import type { TermVector } from "./tfidf.js";
  * out, since no entity carries them; they still count in `norm`), each with its term and its
  * weight times its IDF, the factor an entity's term frequency multiplies.
  */
+/**
+ * Entity term id lists as the KB stores them: 16-bit ids when the table has at most 65,536
+ * distinct context terms (half the memory), else 32-bit.
+ */
+export type TermIdArray = Uint16Array | Uint32Array;
+
 export interface IdVector {
   ids: Uint32Array;
   terms: string[];
@@ -45,7 +51,7 @@ export function idVector(
  * KB stores it; `idfOfId` gives the IDF of a term id.
  */
 export function termIdListNorm(
-  ids: Uint32Array,
+  ids: TermIdArray,
   start: number,
   end: number,
   idfOfId: (id: number) => number,
@@ -69,7 +75,7 @@ export function termIdListNorm(
  */
 export function contextCosine(
   mention: IdVector,
-  ids: Uint32Array,
+  ids: TermIdArray,
   start: number,
   end: number,
   entityNorm: number,
