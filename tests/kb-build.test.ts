@@ -44,13 +44,17 @@ describe("buildKb on a good table", () => {
       expect(kb.info.byClass).toEqual(s.byClass);
       expect(kb.info.sourceFile).toBe("gazette.csv");
       expect(kb.info.maxPrior).toBe(12000);
-      // Attributes (the extra `port` column) and the description come back in the entity's
-      // details, the aliases with the entity.
+      // Attributes (the extra `port` column) come back with the entity row and in its details,
+      // with the description; the aliases with the entity.
       const eid = kb.eidOf("P05");
       expect(eid).toBeDefined();
       const e = kb.entity(eid!);
       expect(e.name).toBe("Ezra Quillon Marsh");
-      expect(kb.details(eid!).attributes).toEqual({ port: "Fort Carrow" });
+      expect(e.attributes).toEqual({ port: "Fort Carrow" });
+      expect(kb.details(eid!)).toEqual({
+        description: "wharfinger at the coal staithes",
+        attributes: { port: "Fort Carrow" },
+      });
       expect(e.aliases.map((a) => a.text)).toEqual(["Ezra Quillon Marsh", "Quillon Marsh"]);
     } finally {
       kb.close();

@@ -43,6 +43,8 @@ export interface EntityRow {
   /** TF-IDF norm of the entity's context terms, computed at index time (terms: see hot.ts). */
   contextNorm: number;
   aliases: AliasRow[];
+  /** The table row's other columns (see the knowledge table format), as given. */
+  attributes: Record<string, string>;
 }
 
 /** One blocking-key hit: the key, its class and kind, and the entity. */
@@ -56,8 +58,14 @@ export interface KeyHit {
 /** Most values bound in one IN (...) lookup; longer lists are looked up in slices. */
 const MAX_IN = 32;
 
-/** Entities kept decoded in memory: the same popular entities are candidates again and again. */
-const ENTITY_CACHE_SIZE = 4_000;
+/**
+ * Entities kept decoded in memory, so that the rows of one mention's candidates are read once
+ * however often scoring, the output and document evidence ask. Kept small on purpose: at a
+ * million entities a cache of 4,000 rows made linking no faster (popular entities are not
+ * candidates often enough) and held about 75 MB more resident memory, from the decoded rows it
+ * kept alive and turned over (benchmarks/README.md).
+ */
+const ENTITY_CACHE_SIZE = 64;
 /** Context-term and alias-token facts kept in memory. */
 const IDF_CACHE_SIZE = 50_000;
 
@@ -139,7 +147,9 @@ export class Kb {
           .prepare<[string, number], number>("SELECT rowid FROM alias_fts WHERE alias_fts MATCH ? LIMIT ?")
           .pluck(true),
         idf: db.prepare("SELECT df, id FROM idf WHERE term = ?"),
-        details: db.prepare("SELECT description, attributes FROM entity_details WHERE eid = ?"),
+        details: db.prepare(
+          "SELECT d.description, e.attributes FROM entity_details d JOIN entities e ON e.eid = d.eid WHERE d.eid = ?",
+        ),
         byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
       };
       this.hot = new HotStore(db);
@@ -278,7 +288,7 @@ export class Kb {
     for (let i = 0; i < missing.length; i += MAX_IN) {
       const slice = missing.slice(i, i + MAX_IN);
       const stmt = this.inStatement(
-        "SELECT eid, id, name, type, class, prior, forms FROM entities WHERE eid",
+        "SELECT eid, id, name, type, class, prior, forms, attributes FROM entities WHERE eid",
         slice.length,
         false,
       );
@@ -295,7 +305,7 @@ export class Kb {
     });
   }
 
-  /** The description and attributes of an entity (not needed for scoring, so stored apart). */
+  /** The description and attributes of an entity (the description is not needed for linking, so stored apart). */
   details(eid: number): { description: string; attributes: Record<string, string> } {
     const r = this.stmts.details.get(eid) as { description: string; attributes: string } | undefined;
     if (r === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
@@ -310,7 +320,7 @@ export class Kb {
   /** Every entity row of a class, decoded, streamed in table order without touching the cache. */
   *entityRowsOfClass(cls: EntityClass): Generator<EntityRow> {
     const stmt = this.db.prepare(
-      "SELECT eid, id, name, type, class, prior, forms FROM entities WHERE class = ? ORDER BY eid",
+      "SELECT eid, id, name, type, class, prior, forms, attributes FROM entities WHERE class = ? ORDER BY eid",
     );
     for (const r of stmt.iterate(cls)) yield decodeEntity(r as Record<string, unknown>, this.hot);
   }
@@ -327,6 +337,7 @@ function decodeEntity(r: Record<string, unknown>, hot: HotStore): EntityRow {
     prior: r.prior as number,
     contextNorm: hot.norm[eid]!,
     aliases: unpackForms(r.forms as string),
+    attributes: JSON.parse(r.attributes as string) as Record<string, string>,
   };
 }
 

@@ -55,10 +55,10 @@ export class RowWriter {
   ) {
     this.insEntity = new BatchInsert(
       db,
-      "INSERT INTO entities (eid, id, name, type, class, prior, forms)",
-      7,
+      "INSERT INTO entities (eid, id, name, type, class, prior, forms, attributes)",
+      8,
     );
-    this.insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description, attributes)", 3);
+    this.insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description)", 2);
     this.insKey = new BatchInsert(db, "INSERT INTO keys (key, class, kind, eid)", 4);
   }
 
@@ -99,8 +99,17 @@ export class RowWriter {
     }
     this.fts.add(r.prior, nameKeys);
     this.hot.add(cls, r.prior, terms, this.tokens);
-    this.insEntity.add(eid, r.id, r.name, r.type, cls, r.prior, packForms(packed));
-    this.insDetails.add(eid, r.description, JSON.stringify(r.attributes));
+    this.insEntity.add(
+      eid,
+      r.id,
+      r.name,
+      r.type,
+      cls,
+      r.prior,
+      packForms(packed),
+      JSON.stringify(r.attributes),
+    );
+    this.insDetails.add(eid, r.description);
     for (const t of this.tokens) {
       const count = this.vocab.get(t);
       if (count === undefined) this.vocab.set(t, { df: 1 });

@@ -1,10 +1,11 @@
 /**
- * The KB file: one SQLite database. Version 3 of the schema.
+ * The KB file: one SQLite database. Version 4 of the schema.
  *
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
- * - entities: one row per table row, holding what scoring reads (the description and the
- *   attributes live in entity_details, so that the rows read per candidate stay small); `forms`
+ * - entities: one row per table row, holding what scoring and the output read: the attributes
+ *   (other table columns) are here, as JSON, since a linked mention's row carries them (the
+ *   description lives in entity_details, so that the rows read per candidate stay small); `forms`
  *   packs the normalized forms of its names (see packForms), so that scoring reads one row per
  *   candidate. The stemmed context words of the description and attributes live in the hot
  *   store, as term ids.
@@ -42,9 +43,10 @@ CREATE TABLE entities (
   type TEXT NOT NULL,
   class TEXT NOT NULL,
   prior REAL NOT NULL,
-  forms TEXT NOT NULL
+  forms TEXT NOT NULL,
+  attributes TEXT NOT NULL
 );
-CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL, attributes TEXT NOT NULL);
+CREATE TABLE entity_details (eid INTEGER PRIMARY KEY, description TEXT NOT NULL);
 CREATE TABLE keys (key TEXT NOT NULL, class TEXT NOT NULL, kind TEXT NOT NULL, eid INTEGER NOT NULL);
 CREATE VIRTUAL TABLE alias_fts USING fts5(tokens, content='', columnsize=0, detail=column, tokenize='unicode61 remove_diacritics 0');
 CREATE TABLE vocab (token TEXT PRIMARY KEY, df INTEGER NOT NULL, id INTEGER NOT NULL) WITHOUT ROWID;
