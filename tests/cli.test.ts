@@ -6,6 +6,7 @@ import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { CSV_COLUMNS } from "../src/link/write.js";
+import { openKb } from "../src/kb/kb.js";
 import { SCHEMA_VERSION } from "../src/kb/schema.js";
 import { hawser, requireBuiltCli } from "./helpers/cli.js";
 import { GAZETTE_CSV, GAZETTE_ROWS, jsonl, tempDir, writeText } from "./helpers/gazette.js";
@@ -78,6 +79,24 @@ describe("hawser link", () => {
     expect(rows[3]!.entity).toBeNull();
     expect(rows[3]!.reasons[0]!.code).toBe("not-linkable");
     expect(r.stderr).toContain(`of ${MENTIONS.length} mentions`);
+  });
+
+  it("links against a KB another process holds open, and the KB can be rebuilt meanwhile", () => {
+    // The library keeps its read lock for as long as a KB is open (see Kb's constructor): other
+    // readers and a rebuild (a new file renamed into place) must still go ahead.
+    const held = openKb(kb);
+    try {
+      expect(held.entity(1).id).toBe("P01");
+      const r = hawser(["link", "--kb", kb, "mentions.jsonl"], t.dir);
+      expect(r.status).toBe(0);
+      expect(r.stdout.trim().split("\n")).toHaveLength(MENTIONS.length);
+      const rebuilt = hawser(["index", "gazette.csv", "--out", kb], t.dir);
+      expect(rebuilt.status, rebuilt.stderr).toBe(0);
+      expect(held.entity(2).id).toBe("P02");
+      expect(hawser(["link", "--kb", kb, "mentions.jsonl"], t.dir).status).toBe(0);
+    } finally {
+      held.close();
+    }
   });
 
   it("writes CSV with --to csv: a header and one row per mention (parsed back with csv-parse)", () => {

@@ -118,18 +118,25 @@ describe("term ids past 16 bits", () => {
   /** A hot store written and loaded through an in-memory SQLite file with the KB's hot table. */
   const roundTrip = (distinctTerms: number) => {
     const b = new HotStoreBuilder();
-    b.add("organization", 10, many(distinctTerms), ["pell"]);
-    b.add("person", 5, ["term0", `term${distinctTerms - 1}`, `term${distinctTerms - 1}`], ["marsh"]);
+    const name = (id: number) => [{ tokens: [id], tail: "", canonical: true }];
+    b.add("organization", 10, many(distinctTerms), ["pell"], name(0));
+    b.add("person", 5, ["term0", `term${distinctTerms - 1}`, `term${distinctTerms - 1}`], ["marsh"], name(1));
     const db = new Database(":memory:");
     db.exec(
       "CREATE TABLE hot (name TEXT NOT NULL, part INTEGER NOT NULL, data BLOB NOT NULL, PRIMARY KEY (name, part))",
     );
     const empty = { start: new Uint32Array([0, 0]), check: new Uint32Array(0), value: new Uint32Array(0) };
-    b.write(db, new Uint32Array([0]), empty, {
-      words: empty,
-      start: new Uint32Array([0]),
-      eids: new Uint32Array(0),
-    });
+    b.write(
+      db,
+      new Uint32Array([0]),
+      empty,
+      {
+        words: empty,
+        start: new Uint32Array([0]),
+        eids: new Uint32Array(0),
+      },
+      2,
+    );
     const hot = new HotStore(db);
     db.close();
     return { hot, b };

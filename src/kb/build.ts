@@ -199,12 +199,10 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   const insVocab = new BatchInsert(db, "INSERT INTO vocab (token, df, id)", 3);
   const insIdf = new BatchInsert(db, "INSERT INTO idf (term, df, id)", 3);
   db.transaction(() => {
-    let id = 0;
-    for (const [token, { df }] of vocab) {
+    for (const [token, { df, id }] of vocab) {
       insVocab.add(token, df, id);
       if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
         for (const v of deletionVariants(token)) variants.add(v, id);
-      id++;
     }
     for (const [term, id] of hot.termIdOf) insIdf.add(term, hot.dfOf(term), id);
     insVocab.flush();
@@ -212,7 +210,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   })();
   mark("vocabulary and fuzzy index");
   // Context norms need the final IDF, so the hot store computes them once every row is in.
-  hot.write(db, posEid, variants.build(), postings);
+  hot.write(db, posEid, variants.build(), postings, vocab.size);
   mark("hot store and context norms");
   return {
     entities: eid,

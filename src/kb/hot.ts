@@ -17,6 +17,7 @@ import { contextCosine, type IdVector, type TermIdArray, termIdListNorm } from "
 import { idf } from "../score/tfidf.js";
 import { ENTITY_CLASSES, type EntityClass } from "../types.js";
 import type { KeyKind } from "./schema.js";
+import { type NameArrays, NameStoreBuilder, type StoredName } from "./names.js";
 import { type PostingArrays, Postings } from "./postings.js";
 import { StringIndex, type StringIndexArrays, StringIndexBuilder } from "./string-index.js";
 import { U32List } from "./u32-list.js";
@@ -71,6 +72,8 @@ export class HotStoreBuilder {
   private readonly termDf = new U32List();
   /** Blocking key -> packed hit (see KEY_HIT_SHIFT). */
   private readonly keys = new StringIndexBuilder();
+  /** Every entity's name forms (names.ts). */
+  private readonly names = new NameStoreBuilder();
 
   constructor() {
     // Entity ids start at 1: slot 0 is a placeholder.
@@ -82,8 +85,18 @@ export class HotStoreBuilder {
     this.sig.push(0);
   }
 
-  /** The next entity: its class, prior, context terms (any order, repeats count) and name tokens. */
-  add(cls: EntityClass, prior: number, terms: readonly string[], nameTokens: Iterable<string>): void {
+  /**
+   * The next entity: its class, prior, context terms (any order, repeats count), name tokens and
+   * names (see names.ts).
+   */
+  add(
+    cls: EntityClass,
+    prior: number,
+    terms: readonly string[],
+    nameTokens: Iterable<string>,
+    names: readonly StoredName[],
+  ): void {
+    this.names.add(names);
     this.cls.push(CLASS_CODE.get(cls)!);
     this.prior.push(prior);
     const ids: number[] = [];
@@ -146,15 +159,18 @@ export class HotStoreBuilder {
   /**
    * Write the store into `db` (table `hot`): `posEid[pos]` maps full-text positions to entity
    * ids, `variants` maps deletion variants to vocabulary token ids (see Kb.tokensForVariants),
-   * `postings` is the in-memory word index of the full-text rows (postings.ts).
+   * `postings` is the in-memory word index of the full-text rows (postings.ts); name token ids
+   * are ids of a vocabulary of `vocabularySize` tokens.
    */
   write(
     db: Database.Database,
     posEid: Uint32Array,
     variants: StringIndexArrays,
     postings: PostingArrays,
+    vocabularySize: number,
   ): void {
     const keys = this.keys.build();
+    const names = this.names.build(vocabularySize);
     const arrays: Record<string, ArrayBufferView> = {
       keyStart: keys.start,
       keyCheck: keys.check,
@@ -167,8 +183,16 @@ export class HotStoreBuilder {
       wordValue: postings.words.value,
       postStart: postings.start,
       postEid: postings.eids,
+      nameStart: names.nameStart,
+      nameTokenStart: names.tokenStart,
+      // 16-bit ids when they fit (the loader tells the two apart by name), as for term ids.
+      ...(names.tokens instanceof Uint16Array
+        ? { nameTokens16: names.tokens }
+        : { nameTokens: names.tokens }),
+      nameInfo: names.info,
+      nameTails: new TextEncoder().encode(JSON.stringify(names.tails)),
       cls: Uint8Array.from(this.cls.toArray()),
-      prior: Float32Array.from(this.prior),
+      prior: Float64Array.from(this.prior),
       norm: this.norms(),
       termStart: this.termStart.toArray(),
       // 16-bit ids when they fit (the loader tells the two apart by name).
@@ -195,7 +219,7 @@ export class HotStoreBuilder {
 export class HotStore {
   readonly entities: number;
   private readonly cls: Uint8Array;
-  readonly prior: Float32Array;
+  readonly prior: Float64Array;
   /** Context TF-IDF norm per entity (see src/score/context.ts). */
   readonly norm: Float64Array;
   readonly termStart: Uint32Array;
@@ -209,11 +233,13 @@ export class HotStore {
   readonly variants: StringIndex;
   /** Word -> entities carrying it in a name key, most popular first (postings.ts). */
   readonly postings: Postings;
+  /** Every entity's name forms (names.ts; the Kb pairs them with its vocabulary). */
+  readonly names: NameArrays;
 
   constructor(private readonly db: Database.Database) {
     const bytes = (name: string) => readArray(db, name);
     this.cls = new Uint8Array(bytes("cls"));
-    this.prior = new Float32Array(bytes("prior"));
+    this.prior = new Float64Array(bytes("prior"));
     this.norm = new Float64Array(bytes("norm"));
     this.termStart = new Uint32Array(bytes("termStart"));
     this.termIds = hasArray(db, "termIds16")
@@ -232,12 +258,22 @@ export class HotStore {
       start: new Uint32Array(bytes("postStart")),
       eids: new Uint32Array(bytes("postEid")),
     });
+    this.names = {
+      nameStart: new Uint32Array(bytes("nameStart")),
+      tokenStart: new Uint32Array(bytes("nameTokenStart")),
+      tokens: hasArray(db, "nameTokens16")
+        ? new Uint16Array(bytes("nameTokens16"))
+        : new Uint32Array(bytes("nameTokens")),
+      info: new Uint32Array(bytes("nameInfo")),
+      tails: JSON.parse(new TextDecoder().decode(bytes("nameTails"))) as string[],
+    };
     this.entities = this.cls.length - 1;
     if (
       this.prior.length !== this.cls.length ||
       this.norm.length !== this.cls.length ||
       this.termStart.length !== this.cls.length + 1 ||
-      this.sig.length !== 2 * this.cls.length
+      this.sig.length !== 2 * this.cls.length ||
+      this.names.nameStart.length !== this.cls.length + 1
     ) {
       throw new Error("hot store: arrays of different lengths");
     }

@@ -12,6 +12,7 @@ import type { EntityRecord } from "../types.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FtsRows } from "./fts-load.js";
 import { HotStoreBuilder } from "./hot.js";
+import { type StoredName, storedName } from "./names.js";
 import { type KeyKind, type PackedForm, packForms } from "./schema.js";
 
 export class RowWriter {
@@ -26,10 +27,11 @@ export class RowWriter {
   /** Table types the label map does not know, with counts. */
   readonly unknownTypes: Record<string, number> = {};
   /**
-   * Alias token -> number of entities with it in a name, in a mutable box, so that counting a
-   * known token is one map lookup instead of a get and a set.
+   * Alias token -> number of entities with it in a name and its id (ids count from 0 in order of
+   * first appearance, which is also the map's order), in a mutable box, so that counting a known
+   * token is one map lookup instead of a get and a set.
    */
-  readonly vocab = new Map<string, { df: number }>();
+  readonly vocab = new Map<string, { df: number; id: number }>();
   /** Class, prior, context terms and name-token signature of every entity (see hot.ts). */
   readonly hot = new HotStoreBuilder();
   readonly fts = new FtsRows();
@@ -74,6 +76,7 @@ export class RowWriter {
     this.tokens.clear();
     const packed: PackedForm[] = [];
     const nameKeys: string[] = [];
+    const names: StoredName[] = [];
     const add = (key: string | null, kind: KeyKind) => {
       if (key === null || key === "") return;
       const seen = this.seen[kind];
@@ -90,6 +93,7 @@ export class RowWriter {
       this.aliases++;
       nameKeys.push(n.key);
       packed.push({ text, key: n.key, full: n.full, ocr: n.ocrKey, canonical: i === 0 });
+      names.push(storedName(n.key, n.full, i === 0, (t) => this.tokenId(t)));
       for (const t of n.tokens) this.tokens.add(t);
       add(n.key, "exact");
       add(n.ocrKey, "ocr");
@@ -98,7 +102,7 @@ export class RowWriter {
       add(n.initialsKey, "initials");
     }
     this.fts.add(r.prior, nameKeys);
-    this.hot.add(cls, r.prior, terms, this.tokens);
+    this.hot.add(cls, r.prior, terms, this.tokens, names);
     this.insEntity.add(
       eid,
       r.id,
@@ -110,11 +114,17 @@ export class RowWriter {
       JSON.stringify(r.attributes),
     );
     this.insDetails.add(eid, r.description);
-    for (const t of this.tokens) {
-      const count = this.vocab.get(t);
-      if (count === undefined) this.vocab.set(t, { df: 1 });
-      else count.df++;
+    for (const t of this.tokens) this.vocab.get(t)!.df++;
+  }
+
+  /** The vocabulary id of an alias token, added (with no entities counted yet) if new. */
+  private tokenId(t: string): number {
+    let box = this.vocab.get(t);
+    if (box === undefined) {
+      box = { df: 0, id: this.vocab.size };
+      this.vocab.set(t, box);
     }
+    return box.id;
   }
 
   /** Writes the buffered rows; call before the enclosing transaction commits. */
