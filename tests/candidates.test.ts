@@ -101,3 +101,44 @@ describe("correctedReadings", () => {
     expect(correctedReadings([...many.keys()], many).length).toBe(12);
   });
 });
+
+describe("fuzzy correction with two deletions on the table side", () => {
+  /** Towns whose names OCR shortened by two letters, or by one and misread another. */
+  const TOWNS = [
+    "id,name,type,prior",
+    "L01,Halstanmere,town,10",
+    "L02,Wickfenholm,town,10",
+    "L03,Stenmouth,town,500",
+    "",
+  ].join("\n");
+  const loc = (text: string): Mention => ({ id: text, text, type: "LOC" });
+
+  it("finds table words two letters longer than the misreading, unless the budget says one deletion", async () => {
+    const table = writeText(t.file("towns.csv"), TOWNS);
+    await buildKb({ table, out: t.file("towns2.kb") });
+    // A budget too small for two-deletion variants: the build falls back to one deletion.
+    await buildKb({ table, out: t.file("towns1.kb"), maxFuzzyVariants: 20 });
+    const two = openKb(t.file("towns2.kb"));
+    const one = openKb(t.file("towns1.kb"));
+    try {
+      expect(two.info.fuzzyDeletions).toBe(2);
+      expect(one.info.fuzzyDeletions).toBe(1);
+      const deep = createLinker(two);
+      const shallow = createLinker(one);
+      // "hastnmere" is "halstanmere" less two letters; "wiekfenhom" misreads one and drops one.
+      for (const [text, id] of [
+        ["HASTNMERE", "L01"],
+        ["Wiekfenhom", "L02"],
+      ] as const) {
+        expect(deep.candidateIds(loc(text))).toContain(id);
+        expect(shallow.candidateIds(loc(text))).not.toContain(id);
+        expect(deep.link(loc(text)).entity).toBe(id);
+      }
+      // One edit away is found either way.
+      expect(shallow.candidateIds(loc("Stenmonth"))).toContain("L03");
+    } finally {
+      two.close();
+      one.close();
+    }
+  });
+});

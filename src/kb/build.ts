@@ -11,7 +11,7 @@ import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
-import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "./deletions.js";
+import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
 import { RowWriter } from "./row-writer.js";
 import { StringIndexBuilder } from "./string-index.js";
@@ -30,6 +30,11 @@ export interface BuildKbOptions {
   onProgress?: (rows: number) => void;
   /** Rows between progress calls; default 10,000. */
   progressEvery?: number;
+  /**
+   * Most deletion variants of table tokens indexed for fuzzy lookup (see src/kb/deletions.ts):
+   * two deletions per long token while they fit, else one. Default 8,000,000.
+   */
+  maxFuzzyVariants?: number;
 }
 
 export interface BuildSummary {
@@ -100,6 +105,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       keys: summary.keys,
       vocabulary: summary.vocabulary,
       context_terms: summary.contextTerms,
+      fuzzy_deletions: summary.fuzzyDeletions,
       context_docs: summary.entities,
       max_prior: summary.maxPrior,
       by_class: JSON.stringify(summary.byClass),
@@ -143,6 +149,8 @@ interface LoadSummary {
   keys: number;
   vocabulary: number;
   contextTerms: number;
+  /** Deletions per long table token in the fuzzy index (see src/kb/deletions.ts). */
+  fuzzyDeletions: 1 | 2;
   maxPrior: number;
   byClass: Record<string, number>;
   unknownTypes: Record<string, number>;
@@ -196,13 +204,14 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
   // The vocabulary with ids in order of first appearance; its deletion variants go into the
   // hot store's in-memory index (variant -> token id), which the fuzzy path reads.
   const variants = new StringIndexBuilder();
+  const deletions = tableDeletions(vocab.keys(), options.maxFuzzyVariants ?? MAX_TABLE_VARIANTS);
   const insVocab = new BatchInsert(db, "INSERT INTO vocab (token, df, id)", 3);
   const insIdf = new BatchInsert(db, "INSERT INTO idf (term, df, id)", 3);
   db.transaction(() => {
     for (const [token, { df, id }] of vocab) {
       insVocab.add(token, df, id);
       if (token.length >= FUZZY_MIN_TOKEN_LENGTH)
-        for (const v of deletionVariants(token)) variants.add(v, id);
+        for (const v of tableVariants(token, deletions)) variants.add(v, id);
     }
     for (const [term, id] of hot.termIdOf) insIdf.add(term, hot.dfOf(term), id);
     insVocab.flush();
@@ -218,6 +227,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     keys: writer.keys,
     vocabulary: vocab.size,
     contextTerms: hot.termIdOf.size,
+    fuzzyDeletions: deletions,
     maxPrior: writer.maxPrior,
     byClass: writer.byClass,
     unknownTypes: writer.unknownTypes,

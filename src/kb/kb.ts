@@ -25,6 +25,8 @@ export interface KbInfo {
   keys: number;
   vocabulary: number;
   contextTerms: number;
+  /** Deletions per long table token in the fuzzy index: 2, or 1 for very large vocabularies. */
+  fuzzyDeletions: number;
   contextDocs: number;
   maxPrior: number;
   byClass: Record<string, number>;
@@ -468,6 +470,7 @@ function readInfo(db: Database.Database, file: string): KbInfo {
     keys: num("keys"),
     vocabulary: num("vocabulary"),
     contextTerms: num("context_terms"),
+    fuzzyDeletions: num("fuzzy_deletions"),
     contextDocs: num("context_docs"),
     maxPrior: num("max_prior"),
     byClass: JSON.parse(m.get("by_class") ?? "{}") as Record<string, number>,
