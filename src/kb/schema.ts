@@ -25,8 +25,9 @@
  * - hot: typed arrays loaded whole on open (see hot.ts): class, prior, context norm, context
  *   term ids and a name-token signature per entity, full-text position -> entity, and the
  *   hashed key and deletion-variant indexes (see string-index.ts), so that the many probes a
- *   mention makes, most of them for keys that do not exist, never reach SQLite, and the word
- *   index of alias_fts's rows (see postings.ts), which answers token search in memory.
+ *   mention makes, most of them for keys that do not exist, never reach SQLite, the word
+ *   index of alias_fts's rows (see postings.ts), which answers token search in memory, and
+ *   every entity's normalized name forms (see names.ts), which scoring reads.
  */
 
 /** Identifies a hawser KB among SQLite files. */
