@@ -101,10 +101,13 @@ function collectGarbage(): void {
 
 function rssLine(phase: Phase, sampler: RssSampler, extra: Record<string, unknown> = {}): Measure {
   const { peakMb, samples } = sampler.stop();
-  const line: Measure = { measure: "peak-rss-mb", phase, value: peakMb, samples, ...extra };
+  // The kernel's high-water mark of this phase's process catches what 50 ms samples can miss
+  // (a short peak while the KB loads); the target is judged on the larger of the two.
+  const kernelPeakMb = Math.round((process.resourceUsage().maxRSS / 1024) * 10) / 10;
+  const line: Measure = { measure: "peak-rss-mb", phase, value: peakMb, kernelPeakMb, samples, ...extra };
   if (phase === "link") {
     line.target = TARGETS.linkPeakRssMb;
-    line.meetsTarget = peakMb <= TARGETS.linkPeakRssMb;
+    line.meetsTarget = Math.max(peakMb, kernelPeakMb) <= TARGETS.linkPeakRssMb;
   }
   return line;
 }

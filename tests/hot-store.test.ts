@@ -119,8 +119,24 @@ describe("term ids past 16 bits", () => {
   const roundTrip = (distinctTerms: number) => {
     const b = new HotStoreBuilder();
     const name = (id: number) => [{ tokens: [id], tail: "", canonical: true }];
-    b.add("organization", 10, many(distinctTerms), ["pell"], name(0));
-    b.add("person", 5, ["term0", `term${distinctTerms - 1}`, `term${distinctTerms - 1}`], ["marsh"], name(1));
+    b.add({
+      cls: "organization",
+      prior: 10,
+      terms: many(distinctTerms),
+      nameTokens: ["pell"],
+      names: name(0),
+      id: "O1",
+      name: "Pell",
+    });
+    b.add({
+      cls: "person",
+      prior: 5,
+      terms: ["term0", `term${distinctTerms - 1}`, `term${distinctTerms - 1}`],
+      nameTokens: ["marsh"],
+      names: name(1),
+      id: "P1",
+      name: "Marsh",
+    });
     const db = new Database(":memory:");
     db.exec(
       "CREATE TABLE hot (name TEXT NOT NULL, part INTEGER NOT NULL, data BLOB NOT NULL, PRIMARY KEY (name, part))",

@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { generate, TABLE_FILE } from "../benchmarks/generate.js";
 import { buildKb } from "../src/kb/build.js";
 import { type EntityRow, type Kb, openKb } from "../src/kb/kb.js";
+import { Display, DisplayBuilder } from "../src/kb/display.js";
 import { storedName } from "../src/kb/names.js";
 import { ENTITY_CLASSES } from "../src/types.js";
 import { tempDir, writeText } from "./helpers/gazette.js";
@@ -93,7 +94,10 @@ describe("entity rows from memory", () => {
     expect(Object.hasOwn(e, "stored") && (e as unknown as { stored: unknown }).stored).toBe(null);
     expect(e.aliases.map((a) => a.full)).toEqual(["tobias pell jr", "t pell jr", "pell jr"]);
     expect((e as unknown as { stored: unknown }).stored).toBe(null);
+    // The table id and name come from memory too (display.ts).
+    expect(e.id).toBe("N02");
     expect(e.name).toBe("Tobias Pell Jr.");
+    expect((e as unknown as { stored: unknown }).stored).toBe(null);
     expect(e.aliases.map((a) => a.text)).toEqual(["Tobias Pell Jr.", "T. Pell Jr.", "Pell Jnr."]);
     expect((e as unknown as { stored: unknown }).stored).not.toBe(null);
   });
@@ -122,5 +126,24 @@ describe("storedName", () => {
       canonical: false,
     });
     expect(() => storedName("pell", "ltd pell", true, idOf)).toThrow(/does not extend/);
+  });
+});
+
+describe("the display store", () => {
+  it("gives back every id and name, in any script, past its first buffer's size", () => {
+    const b = new DisplayBuilder();
+    const rows = Array.from({ length: 30_000 }, (_, i) => [
+      `gz${i}`,
+      i % 3 === 0 ? `Ωμέγα Ναυτιλιακή ${i}` : `Harrowmouth Steam Packet & Lighterage Co. No. ${i}`,
+    ]);
+    for (const [id, name] of rows) b.add(id!, name!);
+    const built = b.build();
+    expect(built.text.length).toBeGreaterThan(1 << 20);
+    const d = new Display(built);
+    expect(d.entities).toBe(rows.length);
+    rows.forEach(([id, name], i) => {
+      expect(d.id(i + 1)).toBe(id);
+      expect(d.name(i + 1)).toBe(name);
+    });
   });
 });

@@ -17,6 +17,7 @@ import { contextCosine, type IdVector, type TermIdArray, termIdListNorm } from "
 import { idf } from "../score/tfidf.js";
 import { ENTITY_CLASSES, type EntityClass } from "../types.js";
 import type { KeyKind } from "./schema.js";
+import { Display, DisplayBuilder } from "./display.js";
 import { type NameArrays, NameStoreBuilder, type StoredName } from "./names.js";
 import { type PostingArrays, Postings } from "./postings.js";
 import { StringIndex, type StringIndexArrays, StringIndexBuilder } from "./string-index.js";
@@ -59,6 +60,20 @@ const KIND_CODE = new Map<KeyKind, number>(KEY_KINDS.map((k, i) => [k, i]));
 const KEY_HIT_SHIFT = 5;
 export const MAX_KEYED_ENTITIES = 2 ** (32 - KEY_HIT_SHIFT) - 1;
 
+/** One entity as the hot store takes it (see HotStoreBuilder.add). */
+export interface HotEntity {
+  cls: EntityClass;
+  prior: number;
+  /** Context terms, any order, repeats count. */
+  terms: readonly string[];
+  /** Distinct tokens of the entity's names (for the signature). */
+  nameTokens: Iterable<string>;
+  names: readonly StoredName[];
+  /** Table id and name, as the output shows them. */
+  id: string;
+  name: string;
+}
+
 /** Collects the hot store row by row during the build (entity ids 1, 2, 3, ... in order). */
 export class HotStoreBuilder {
   private readonly cls = new U32List();
@@ -74,6 +89,8 @@ export class HotStoreBuilder {
   private readonly keys = new StringIndexBuilder();
   /** Every entity's name forms (names.ts). */
   private readonly names = new NameStoreBuilder();
+  /** Every entity's table id and name (display.ts). */
+  private readonly display = new DisplayBuilder();
 
   constructor() {
     // Entity ids start at 1: slot 0 is a placeholder.
@@ -86,17 +103,13 @@ export class HotStoreBuilder {
   }
 
   /**
-   * The next entity: its class, prior, context terms (any order, repeats count), name tokens and
-   * names (see names.ts).
+   * The next entity: its class, prior, context terms (any order, repeats count), name tokens,
+   * names (see names.ts), and the table id and name its output shows (display.ts).
    */
-  add(
-    cls: EntityClass,
-    prior: number,
-    terms: readonly string[],
-    nameTokens: Iterable<string>,
-    names: readonly StoredName[],
-  ): void {
-    this.names.add(names);
+  add(e: HotEntity): void {
+    const { cls, prior, terms, nameTokens } = e;
+    this.names.add(e.names);
+    this.display.add(e.id, e.name);
     this.cls.push(CLASS_CODE.get(cls)!);
     this.prior.push(prior);
     const ids: number[] = [];
@@ -171,6 +184,7 @@ export class HotStoreBuilder {
   ): void {
     const keys = this.keys.build();
     const names = this.names.build(vocabularySize);
+    const display = this.display.build();
     const arrays: Record<string, ArrayBufferView> = {
       keyStart: keys.start,
       keyCheck: keys.check,
@@ -191,6 +205,8 @@ export class HotStoreBuilder {
         : { nameTokens: names.tokens }),
       nameInfo: names.info,
       nameTails: new TextEncoder().encode(JSON.stringify(names.tails)),
+      displayText: display.text,
+      displayStart: display.start,
       cls: Uint8Array.from(this.cls.toArray()),
       prior: Float64Array.from(this.prior),
       norm: this.norms(),
@@ -235,6 +251,8 @@ export class HotStore {
   readonly postings: Postings;
   /** Every entity's name forms (names.ts; the Kb pairs them with its vocabulary). */
   readonly names: NameArrays;
+  /** Every entity's table id and name (display.ts). */
+  readonly display: Display;
 
   constructor(private readonly db: Database.Database) {
     const bytes = (name: string) => readArray(db, name);
@@ -267,13 +285,18 @@ export class HotStore {
       info: new Uint32Array(bytes("nameInfo")),
       tails: JSON.parse(new TextDecoder().decode(bytes("nameTails"))) as string[],
     };
+    this.display = new Display({
+      text: new Uint8Array(bytes("displayText")),
+      start: new Uint32Array(bytes("displayStart")),
+    });
     this.entities = this.cls.length - 1;
     if (
       this.prior.length !== this.cls.length ||
       this.norm.length !== this.cls.length ||
       this.termStart.length !== this.cls.length + 1 ||
       this.sig.length !== 2 * this.cls.length ||
-      this.names.nameStart.length !== this.cls.length + 1
+      this.names.nameStart.length !== this.cls.length + 1 ||
+      this.display.entities !== this.entities
     ) {
       throw new Error("hot store: arrays of different lengths");
     }

@@ -362,10 +362,10 @@ class KbEntity implements EntityRow {
     return this.stored;
   }
   get id(): string {
-    return this.row().id;
+    return this.kb.hot.display.id(this.eid);
   }
   get name(): string {
-    return this.row().name;
+    return this.kb.hot.display.name(this.eid);
   }
   get type(): string {
     return this.row().type;

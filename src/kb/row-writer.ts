@@ -102,7 +102,7 @@ export class RowWriter {
       add(n.initialsKey, "initials");
     }
     this.fts.add(r.prior, nameKeys);
-    this.hot.add(cls, r.prior, terms, this.tokens, names);
+    this.hot.add({ cls, prior: r.prior, terms, nameTokens: this.tokens, names, id: r.id, name: r.name });
     this.insEntity.add(
       eid,
       r.id,

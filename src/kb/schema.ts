@@ -1,5 +1,5 @@
 /**
- * The KB file: one SQLite database. Version 5 of the schema.
+ * The KB file: one SQLite database. Version 6 of the schema.
  *
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
@@ -27,13 +27,14 @@
  *   hashed key and deletion-variant indexes (see string-index.ts), so that the many probes a
  *   mention makes, most of them for keys that do not exist, never reach SQLite, the word
  *   index of alias_fts's rows (see postings.ts), which answers token search in memory, and
- *   every entity's normalized name forms (see names.ts), which scoring reads.
+ *   every entity's normalized name forms (see names.ts), which scoring reads, and its table id
+ *   and name (see display.ts), which the output shows.
  */
 
 /** Identifies a hawser KB among SQLite files. */
 export const KB_FORMAT = "hawser-kb";
 /** Bumped on any incompatible schema change; a KB with a newer version is refused. */
-export const SCHEMA_VERSION = 5;
+export const SCHEMA_VERSION = 6;
 
 export const SCHEMA_SQL = `
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL) WITHOUT ROWID;
