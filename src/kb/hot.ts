@@ -2,15 +2,18 @@
  * The hot store: the facts about an entity that candidate generation needs for many entities
  * per mention (class, prior, context norm, context term ids, a signature of its name tokens),
  * and the map from full-text positions to entities, as typed arrays. The build writes them into
- * the KB as BLOBs (table `hot`); opening the KB loads them whole. Choosing among hundreds of
- * same-name candidates, and checking the class of token-search hits, then reads no SQLite rows.
+ * the KB as BLOBs (table `hot`); opening the KB loads them whole (the position map only when the
+ * FTS5 table itself is queried). Choosing among hundreds of same-name candidates, and checking
+ * the class of token-search hits, then reads no SQLite rows.
  *
  * The same table holds the hashed indexes of blocking keys and deletion variants
- * (string-index.ts) and the word index of the full-text rows (postings.ts).
+ * (string-index.ts), the word index of the full-text rows (postings.ts), every entity's name
+ * forms (names.ts) and its table id and name (display.ts).
  *
- * Memory: 25 bytes per entity, 2 per context-term occurrence (4 past 65,536 distinct terms),
- * about 10 per blocking key, 4 per word occurrence in a name key: about 120 MB for the
- * 1,000,000-entity benchmark table (keys 43 MB, word index 24 MB, term ids 20 MB).
+ * Memory at the 1,000,000-entity benchmark table, about 210 MB in all: per-entity arrays (class,
+ * prior, norm, term bounds, signature) 29 MB; context term ids 20 MB (2 bytes per occurrence, 4
+ * past 65,536 distinct terms); blocking keys 39 MB; deletion variants 25 MB; the word index
+ * 24 MB; name forms 39 MB (names.ts); table ids and names 34 MB (display.ts).
  */
 import type Database from "better-sqlite3";
 import { contextCosine, type IdVector, type TermIdArray, termIdListNorm } from "../score/context.js";

@@ -7,7 +7,7 @@
  * `entities` row, read only for the few candidates a mention's output shows.
  *
  * Memory: 4 bytes per entity, 8 per name and 2 per key token (4 past 65,536 vocabulary tokens);
- * about 40 MB for the 1,000,000-entity benchmark table.
+ * about 39 MB for the 1,000,000-entity benchmark table.
  */
 import { ocrFold } from "../normalize/ocr.js";
 import { U32List } from "./u32-list.js";
