@@ -54,6 +54,12 @@ const queryWords = (kb: Kb): string[] => [
   "zzqx",
   '"',
   "a*",
+  // FTS5 query syntax: split into plain words (or none) before any query is made.
+  'NEAR(stenmouth, "quay")',
+  "^harrow",
+  "col:stenmouth",
+  "(pell OR marsh) AND NOT quay",
+  "-*'\"",
 ];
 
 describe("the in-memory word index", () => {
