@@ -104,6 +104,13 @@ describe("the hot store", () => {
       const got: string[] = [];
       kb.hot.forEachKeyHit(key, (cls, kind, eid) => got.push(`${cls}/${kind}/${eid}`));
       expect(got.sort()).toEqual(want.sort());
+      // The library's batched form answers the same.
+      expect(
+        kb
+          .lookupKeys([key])
+          .map((h) => `${h.cls}/${h.kind}/${h.eid}`)
+          .sort(),
+      ).toEqual(want.sort());
     }
     const none: string[] = [];
     kb.hot.forEachKeyHit("no such key in the gazette", (cls, kind, eid) =>
