@@ -4,18 +4,12 @@
  * (decoded directly, as the brute-force scan reads it), on the sample archive, a generated
  * benchmark table, and names with legal forms, suffixes and other scripts.
  */
-import { join } from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { generate, TABLE_FILE } from "../benchmarks/generate.js";
-import { buildKb } from "../src/kb/build.js";
-import { type EntityRow, type Kb, openKb } from "../src/kb/kb.js";
+import { describe, expect, it } from "vitest";
+import { type EntityRow, openKb } from "../src/kb/kb.js";
 import { Display, DisplayBuilder } from "../src/kb/display.js";
 import { storedName } from "../src/kb/names.js";
 import { ENTITY_CLASSES } from "../src/types.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
-
-const t = tempDir();
-const kbs: Kb[] = [];
+import { threeKbs } from "./helpers/three-kbs.js";
 
 const NAMES_CSV = [
   "id,name,type,aliases,prior",
@@ -27,23 +21,8 @@ const NAMES_CSV = [
   "",
 ].join("\n");
 
-beforeAll(async () => {
-  const gen = t.file("gen");
-  generate({ entities: 2000, mentions: 10, seed: 9, out: gen });
-  const tables: Array<[string, string]> = [
-    ["kb-samples/gazette-entities.csv", t.file("gazette.kb")],
-    [join(gen, TABLE_FILE), t.file("gen.kb")],
-    [writeText(t.file("names.csv"), NAMES_CSV), t.file("names.kb")],
-  ];
-  for (const [table, out] of tables) {
-    await buildKb({ table, out });
-    kbs.push(openKb(out));
-  }
-});
-afterAll(() => {
-  for (const kb of kbs) kb.close();
-  t.cleanup();
-});
+const three = threeKbs({ csv: NAMES_CSV, generatedEntities: 2000, generatedMentions: 10, seed: 9 });
+const kbs = three.kbs;
 
 /** Every field of a row as plain data (rows from memory answer some fields through getters). */
 const plain = (e: EntityRow) => ({
@@ -86,7 +65,7 @@ describe("entity rows from memory", () => {
 
   it("read no row until a stored field is asked for", () => {
     // A fresh handle: the first test read every field of the rows the other one caches.
-    const kb = openKb(t.file("names.kb"));
+    const kb = openKb(three.file("own.kb"));
     kbs.push(kb);
     const e = kb.entity(kb.eidOf("N02")!);
     // The scoring facts are own fields; id, name, type and attributes are not yet read.

@@ -6,16 +6,12 @@
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { generate, MENTIONS_FILE, TABLE_FILE } from "../benchmarks/generate.js";
-import { buildKb } from "../src/kb/build.js";
-import { type Kb, openKb } from "../src/kb/kb.js";
+import { describe, expect, it } from "vitest";
+import { MENTIONS_FILE } from "../benchmarks/generate.js";
+import type { Kb } from "../src/kb/kb.js";
 import { ftsWords, PostingsBuilder, Postings } from "../src/kb/postings.js";
 import { foldText } from "../src/normalize/fold.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
-
-const t = tempDir();
-const kbs: Kb[] = [];
+import { threeKbs } from "./helpers/three-kbs.js";
 
 /** Names in other scripts, with apostrophes, hyphens, digits and FTS5 operator words. */
 const SCRIPTS_CSV = [
@@ -30,23 +26,8 @@ const SCRIPTS_CSV = [
   "",
 ].join("\n");
 
-beforeAll(async () => {
-  const gen = t.file("gen");
-  generate({ entities: 3000, mentions: 300, seed: 5, out: gen });
-  const tables: Array<[string, string]> = [
-    ["kb-samples/gazette-entities.csv", t.file("gazette.kb")],
-    [join(gen, TABLE_FILE), t.file("gen.kb")],
-    [writeText(t.file("scripts.csv"), SCRIPTS_CSV), t.file("scripts.kb")],
-  ];
-  for (const [table, out] of tables) {
-    await buildKb({ table, out });
-    kbs.push(openKb(out));
-  }
-});
-afterAll(() => {
-  for (const kb of kbs) kb.close();
-  t.cleanup();
-});
+const three = threeKbs({ csv: SCRIPTS_CSV, generatedEntities: 3000, generatedMentions: 300, seed: 5 });
+const kbs = three.kbs;
 
 /** Every vocabulary token of the KB, plus words that are in no name. */
 const queryWords = (kb: Kb): string[] => [
@@ -81,7 +62,7 @@ describe("the in-memory word index", () => {
 
   it("returns what FTS5 returns for the words of generated mentions, several at a time", () => {
     const gen = kbs[1]!;
-    const lines = readFileSync(join(t.file("gen"), MENTIONS_FILE), "utf8")
+    const lines = readFileSync(join(three.file("gen"), MENTIONS_FILE), "utf8")
       .trim()
       .split("\n");
     let nonEmpty = 0;
