@@ -5,10 +5,11 @@
  * - ocr: the OCR-folded keys are equal;
  * - acronym: the mention reads as an acronym ("S.G.E.", "SGE") of an alias, or an alias is one;
  * - initials: "J. H. Aldous" meets every alias of the form "j... aldous";
- * - fts: FTS5 token search over alias tokens (escaped terms only), rarest token first, each
- *   token's most popular carriers first;
- * - fuzzy: tokens unknown to the table are corrected through one-deletion variants of the table's
- *   vocabulary (edit distance <= 2, a swap of adjacent letters counting one) and searched again.
+ * - fts: token search over alias tokens (the FTS5 table's rows, from the in-memory word index of
+ *   src/kb/postings.ts), rarest token first, each token's most popular carriers first;
+ * - fuzzy: tokens unknown to the table are corrected through deletion variants (one deletion
+ *   on the mention's side, up to two on the table's: src/kb/deletions.ts; edit distance <= 2,
+ *   a swap of adjacent letters counting one) and searched again.
  * The candidate list is capped; precise paths come first.
  */
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";

@@ -21,8 +21,8 @@
  *   ranking functions, which the unranked lookup never calls, and writing them was a quarter of
  *   the full-text build.
  * - vocab: alias tokens with document frequency and an id (loaded whole on open). Their
- *   one-deletion variants for the fuzzy path (symmetric deletion: two tokens within edit
- *   distance ~2 share a variant) are in the hot store, as variant -> token id.
+ *   deletion variants for the fuzzy path (symmetric deletion: one or two deletions on the
+ *   table's side, see deletions.ts) are in the hot store, as variant -> token id.
  * - idf: document frequency of each context term, and its id in the hot store's term lists.
  * - hot: typed arrays loaded whole on open (see hot.ts): class, prior, context norm, context
  *   term ids and a name-token signature per entity, full-text position -> entity, and the
