@@ -9,16 +9,16 @@
 import type { TermVector } from "./tfidf.js";
 
 /**
- * A mention's context vector by KB term id: ids ascending (terms unknown to the KB are left
- * out, since no entity carries them; they still count in `norm`), each with its term and its
- * weight times its IDF, the factor an entity's term frequency multiplies.
- */
-/**
  * Entity term id lists as the KB stores them: 16-bit ids when the table has at most 65,536
  * distinct context terms (half the memory), else 32-bit.
  */
 export type TermIdArray = Uint16Array | Uint32Array;
 
+/**
+ * A mention's context vector by KB term id: ids ascending (terms unknown to the KB are left
+ * out, since no entity carries them; they still count in `norm`), each with its term and its
+ * weight times its IDF, the factor an entity's term frequency multiplies.
+ */
 export interface IdVector {
   ids: Uint32Array;
   terms: string[];
