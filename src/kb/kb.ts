@@ -195,20 +195,7 @@ export class Kb {
    * Answered from the in-memory word index (postings.ts), which holds the FTS5 table's lists.
    */
   searchAliases(tokens: readonly string[], limit: number): number[] {
-    const seen = new Set<number>();
-    const out: number[] = [];
-    const take = (eid: number) => {
-      if (seen.has(eid)) return;
-      seen.add(eid);
-      out.push(eid);
-    };
-    for (const t of tokens) {
-      for (const w of ftsWords(t)) {
-        if (out.length >= limit) return out;
-        this.hot.postings.forEachCarrier(w, limit - out.length, take);
-      }
-    }
-    return out;
+    return searchWords(tokens, limit, (w, n, take) => this.hot.postings.forEachCarrier(w, n, take));
   }
 
   /**
@@ -217,20 +204,9 @@ export class Kb {
    * with embedded quotes doubled, so mention text never reaches the FTS5 query parser as syntax.
    */
   searchAliasesFts(tokens: readonly string[], limit: number): number[] {
-    const seen = new Set<number>();
-    const out: number[] = [];
-    for (const t of tokens) {
-      for (const w of ftsWords(t)) {
-        if (out.length >= limit) return out;
-        for (const pos of this.stmts.fts.all(ftsString(w), limit - out.length)) {
-          const eid = this.hot.eidAt(pos);
-          if (seen.has(eid)) continue;
-          seen.add(eid);
-          out.push(eid);
-        }
-      }
-    }
-    return out;
+    return searchWords(tokens, limit, (w, n, take) => {
+      for (const pos of this.stmts.fts.all(ftsString(w), n)) take(this.hot.eidAt(pos));
+    });
   }
 
   /** How many entities have this token in a name or alias (0 when unknown). */
@@ -413,6 +389,32 @@ function decodeEntity(r: Record<string, unknown>, hot: HotStore): EntityRow {
     aliases: unpackForms(r.forms as string),
     attributes: JSON.parse(r.attributes as string) as Record<string, string>,
   };
+}
+
+/**
+ * The search loop of searchAliases and searchAliasesFts: the words of each token in turn, each
+ * asked (through `carriers`) for the entities of its first `n` full-text rows, until `limit`
+ * distinct entities are found, in the order first met.
+ */
+function searchWords(
+  tokens: readonly string[],
+  limit: number,
+  carriers: (word: string, n: number, take: (eid: number) => void) => void,
+): number[] {
+  const seen = new Set<number>();
+  const out: number[] = [];
+  const take = (eid: number) => {
+    if (seen.has(eid)) return;
+    seen.add(eid);
+    out.push(eid);
+  };
+  for (const t of tokens) {
+    for (const w of ftsWords(t)) {
+      if (out.length >= limit) return out;
+      carriers(w, limit - out.length, take);
+    }
+  }
+  return out;
 }
 
 /** An FTS5 string literal: wrapped in double quotes, inner double quotes doubled. */
