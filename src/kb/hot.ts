@@ -24,15 +24,13 @@ import { Display, DisplayBuilder } from "./display.js";
 import { type NameArrays, NameStoreBuilder, type StoredName } from "./names.js";
 import { type PostingArrays, Postings } from "./postings.js";
 import { StringIndex, type StringIndexArrays, StringIndexBuilder } from "./string-index.js";
-import { U32List } from "./u32-list.js";
+import { narrowIds, U32List } from "./u32-list.js";
 
 /**
  * Largest BLOB written in one row (SQLite's limit is 1 GB). Small parts keep loading lean: see
- * readArray.
+ * HotTable.read.
  */
 const PART_BYTES = 4 * 1024 * 1024;
-/** Most distinct context terms whose ids are stored in 16 bits. */
-const TERM_IDS_16_MAX = 2 ** 16;
 /** Bits of a name signature: two 32-bit words per entity. */
 const SIGNATURE_BITS = 64;
 
@@ -202,10 +200,7 @@ export class HotStoreBuilder {
       postEid: postings.eids,
       nameStart: names.nameStart,
       nameTokenStart: names.tokenStart,
-      // 16-bit ids when they fit (the loader tells the two apart by name), as for term ids.
-      ...(names.tokens instanceof Uint16Array
-        ? { nameTokens16: names.tokens }
-        : { nameTokens: names.tokens }),
+      ...idArray("nameTokens", names.tokens),
       nameInfo: names.info,
       nameTails: new TextEncoder().encode(JSON.stringify(names.tails)),
       displayText: display.text,
@@ -214,10 +209,7 @@ export class HotStoreBuilder {
       prior: Float64Array.from(this.prior),
       norm: this.norms(),
       termStart: this.termStart.toArray(),
-      // 16-bit ids when they fit (the loader tells the two apart by name).
-      ...(this.termDf.length <= TERM_IDS_16_MAX
-        ? { termIds16: Uint16Array.from(this.termIds.toArray()) }
-        : { termIds: this.termIds.toArray() }),
+      ...idArray("termIds", narrowIds(this.termIds.toArray(), this.termDf.length)),
       sig: this.sig.toArray(),
       posEid,
     };
@@ -257,15 +249,18 @@ export class HotStore {
   /** Every entity's table id and name (display.ts). */
   readonly display: Display;
 
-  constructor(private readonly db: Database.Database) {
-    const bytes = (name: string) => readArray(db, name);
+  /** The KB's hot table, kept for the arrays read on first use. */
+  private readonly table: HotTable;
+
+  constructor(db: Database.Database) {
+    const table = new HotTable(db);
+    this.table = table;
+    const bytes = (name: string) => table.read(name);
     this.cls = new Uint8Array(bytes("cls"));
     this.prior = new Float64Array(bytes("prior"));
     this.norm = new Float64Array(bytes("norm"));
     this.termStart = new Uint32Array(bytes("termStart"));
-    this.termIds = hasArray(db, "termIds16")
-      ? new Uint16Array(bytes("termIds16"))
-      : new Uint32Array(bytes("termIds"));
+    this.termIds = table.ids("termIds");
     this.sig = new Uint32Array(bytes("sig"));
     const index = (name: string): StringIndexArrays => ({
       start: new Uint32Array(bytes(`${name}Start`)),
@@ -282,9 +277,7 @@ export class HotStore {
     this.names = {
       nameStart: new Uint32Array(bytes("nameStart")),
       tokenStart: new Uint32Array(bytes("nameTokenStart")),
-      tokens: hasArray(db, "nameTokens16")
-        ? new Uint16Array(bytes("nameTokens16"))
-        : new Uint32Array(bytes("nameTokens")),
+      tokens: table.ids("nameTokens"),
       info: new Uint32Array(bytes("nameInfo")),
       tails: JSON.parse(new TextDecoder().decode(bytes("nameTails"))) as string[],
     };
@@ -339,35 +332,56 @@ export class HotStore {
 
   /** The entity at a full-text position. */
   eidAt(pos: number): number {
-    this.posEid ??= new Uint32Array(readArray(this.db, "posEid"));
+    this.posEid ??= new Uint32Array(this.table.read("posEid"));
     return this.posEid[pos]!;
   }
 }
 
 /**
- * One array of the hot table, its parts copied one at a time into a fresh buffer (aligned for
- * any typed-array view, which a BLOB's own buffer need not be). Parts are small (PART_BYTES) so
- * that the transient copies SQLite and the driver make of each BLOB are small too: with parts of
- * 64 MB, those freed copies stayed in the process's resident set.
+ * An id array under its name, or under its name plus "16" when its ids are 16-bit (see
+ * narrowIds); HotTable.ids reads either back.
  */
-function readArray(db: Database.Database, name: string): ArrayBuffer {
-  const total = db.prepare("SELECT sum(length(data)) FROM hot WHERE name = ?").pluck(true).get(name) as
-    | number
-    | null;
-  if (total === null) throw new Error(`hot store: no "${name}" array`);
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const b of db
-    .prepare("SELECT data FROM hot WHERE name = ? ORDER BY part")
-    .pluck(true)
-    .iterate(name) as Iterable<Buffer>) {
-    if (at + b.length > total) throw new Error(`hot store: "${name}" parts do not add up`);
-    out.set(b, at);
-    at += b.length;
-  }
-  return out.buffer;
+function idArray(name: string, ids: Uint16Array | Uint32Array): Record<string, ArrayBufferView> {
+  return ids instanceof Uint16Array ? { [`${name}16`]: ids } : { [name]: ids };
 }
 
-function hasArray(db: Database.Database, name: string): boolean {
-  return db.prepare("SELECT 1 FROM hot WHERE name = ? LIMIT 1").get(name) !== undefined;
+/** Reads arrays back from the KB's hot table, with its statements prepared once. */
+class HotTable {
+  private readonly total: Database.Statement<[string], number | null>;
+  private readonly parts: Database.Statement<[string], Buffer>;
+
+  constructor(db: Database.Database) {
+    this.total = db
+      .prepare<[string], number | null>("SELECT sum(length(data)) FROM hot WHERE name = ?")
+      .pluck(true);
+    this.parts = db
+      .prepare<[string], Buffer>("SELECT data FROM hot WHERE name = ? ORDER BY part")
+      .pluck(true);
+  }
+
+  /**
+   * One array, its parts copied one at a time into a fresh buffer (aligned for any typed-array
+   * view, which a BLOB's own buffer need not be). Parts are small (PART_BYTES) so that the
+   * transient copies SQLite and the driver make of each BLOB are small too: with parts of 64 MB,
+   * those freed copies stayed in the process's resident set.
+   */
+  read(name: string): ArrayBuffer {
+    const total = this.total.get(name) ?? null;
+    if (total === null) throw new Error(`hot store: no "${name}" array`);
+    const out = new Uint8Array(total);
+    let at = 0;
+    for (const b of this.parts.iterate(name)) {
+      if (at + b.length > total) throw new Error(`hot store: "${name}" parts do not add up`);
+      out.set(b, at);
+      at += b.length;
+    }
+    return out.buffer;
+  }
+
+  /** An id array written by idArray, in the width it was stored. */
+  ids(name: string): Uint16Array | Uint32Array {
+    return this.total.get(`${name}16`) != null
+      ? new Uint16Array(this.read(`${name}16`))
+      : new Uint32Array(this.read(name));
+  }
 }

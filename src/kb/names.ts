@@ -10,7 +10,7 @@
  * about 39 MB for the 1,000,000-entity benchmark table.
  */
 import { ocrFold } from "../normalize/ocr.js";
-import { U32List } from "./u32-list.js";
+import { narrowIds, U32List } from "./u32-list.js";
 
 /** One name as the build hands it over: key token ids, the tail of its full form, canonical or alias. */
 export interface StoredName {
@@ -37,9 +37,6 @@ export function storedName(
   }
   return { tokens: key.split(" ").map(idOf), tail, canonical };
 }
-
-/** Most vocabulary tokens whose ids are stored in 16 bits. */
-const TOKEN_IDS_16_MAX = 2 ** 16;
 
 /** The arrays of a built name store, as written into the KB's hot table. */
 export interface NameArrays {
@@ -83,11 +80,10 @@ export class NameStoreBuilder {
   }
 
   build(vocabularySize: number): NameArrays {
-    const ids = this.tokens.toArray();
     return {
       nameStart: this.nameStart.toArray(),
       tokenStart: this.tokenStart.toArray(),
-      tokens: vocabularySize <= TOKEN_IDS_16_MAX ? Uint16Array.from(ids) : ids,
+      tokens: narrowIds(this.tokens.toArray(), vocabularySize),
       info: this.info.toArray(),
       tails: [...this.tailOf.keys()],
     };

@@ -18,3 +18,11 @@ export class U32List {
     return this.data.slice(0, this.length);
   }
 }
+
+/** Most distinct ids an id array stores in 16 bits. */
+const IDS_16_MAX = 2 ** 16;
+
+/** `ids` in 16 bits when there are at most 65,536 distinct ids (half the memory), else as they are. */
+export function narrowIds(ids: Uint32Array, distinct: number): Uint16Array | Uint32Array {
+  return distinct <= IDS_16_MAX ? Uint16Array.from(ids) : ids;
+}
