@@ -157,7 +157,7 @@ export class Kb {
           "SELECT d.description, e.attributes FROM entity_details d JOIN entities e ON e.eid = d.eid WHERE d.eid = ?",
         ),
         byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
-        stored: db.prepare("SELECT id, name, type, forms, attributes FROM entities WHERE eid = ?"),
+        stored: db.prepare("SELECT type, forms, attributes FROM entities WHERE eid = ?"),
       };
       this.hot = new HotStore(db);
       if (this.hot.entities !== this.info.entities)
@@ -250,9 +250,9 @@ export class Kb {
 
   /**
    * Entities by internal id, in the order asked. What scoring reads (class, prior, context norm,
-   * the names' normalized forms) comes from memory; the table id, name, type, attributes and the
-   * names' original texts are read from the entity's row when first asked for, so only the few
-   * candidates a mention's output shows cost a row read.
+   * the names' normalized forms) and the table id and name come from memory; the type,
+   * attributes and the names' original texts are read from the entity's row when first asked
+   * for, which a mention's output does for its best candidate only.
    */
   entities(eids: readonly number[]): EntityRow[] {
     return eids.map((eid) => {
@@ -269,13 +269,9 @@ export class Kb {
 
   /** The stored part of an entity's row (see KbEntity). */
   storedRow(eid: number): StoredRow {
-    const r = this.stmts.stored.get(eid) as
-      | { id: string; name: string; type: string; forms: string; attributes: string }
-      | undefined;
+    const r = this.stmts.stored.get(eid) as { type: string; forms: string; attributes: string } | undefined;
     if (r === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
     return {
-      id: r.id,
-      name: r.name,
       type: r.type,
       attributes: JSON.parse(r.attributes) as Record<string, string>,
       texts: unpackForms(r.forms).map((f) => f.text),
@@ -308,10 +304,8 @@ export class Kb {
   }
 }
 
-/** What an entity's row holds beyond the in-memory facts: read on first use. */
+/** What an entity's row holds beyond the in-memory facts (table id and name: display.ts): read on first use. */
 interface StoredRow {
-  id: string;
-  name: string;
   type: string;
   attributes: Record<string, string>;
   /** The original text of each name with a key, in name order (see packForms). */
