@@ -12,7 +12,7 @@
  * about 9 per distinct word (about 30 MB for the 1,000,000-entity benchmark table).
  */
 import { StringIndex, type StringIndexArrays, StringIndexBuilder } from "./string-index.js";
-import { U32List } from "./u32-list.js";
+import { groupByBucket, U32List } from "./u32-list.js";
 
 /** What separates the words FTS5 (unicode61) indexes: anything but a letter or a digit. */
 const WORD_SEPARATORS = /[^\p{L}\p{N}]+/u;
@@ -62,15 +62,12 @@ export class PostingsBuilder {
     const words = new StringIndexBuilder();
     for (const [w, l] of this.listOf) words.add(w, l);
     this.listOf.clear();
-    const n = this.eid.length;
     const list = this.list.data;
-    const start = new Uint32Array(lists + 1);
-    for (let i = 0; i < n; i++) start[list[i]! + 1]!++;
-    for (let l = 0; l < lists; l++) start[l + 1]! += start[l]!;
-    const fill = start.slice(0, lists);
-    const eids = new Uint32Array(n);
-    for (let i = 0; i < n; i++) eids[fill[list[i]!]!++] = this.eid.data[i]!;
-    return { words: words.build(), start, eids };
+    const {
+      start,
+      grouped: [eids],
+    } = groupByBucket(this.eid.length, lists, (i) => list[i]!, [this.eid.data]);
+    return { words: words.build(), start, eids: eids! };
   }
 }
 

@@ -14,7 +14,7 @@
  * 39 MB for the 4.4 million blocking-key rows of the 1,000,000-entity benchmark table).
  */
 
-import { U32List } from "./u32-list.js";
+import { groupByBucket, U32List } from "./u32-list.js";
 
 const FNV_OFFSET = 0x811c9dc5;
 const FNV_PRIME = 0x01000193;
@@ -78,19 +78,12 @@ export class StringIndexBuilder {
     let buckets = 1;
     while (buckets * BUCKET_LOAD < n) buckets *= 2;
     const mask = buckets - 1;
-    const start = new Uint32Array(buckets + 1);
     const hashes = this.bucketHash.data;
-    for (let i = 0; i < n; i++) start[(hashes[i]! & mask) + 1]!++;
-    for (let b = 0; b < buckets; b++) start[b + 1]! += start[b]!;
-    const fill = start.slice(0, buckets);
-    const check = new Uint32Array(n);
-    const value = new Uint32Array(n);
-    for (let i = 0; i < n; i++) {
-      const at = fill[hashes[i]! & mask]!++;
-      check[at] = this.check.data[i]!;
-      value[at] = this.value.data[i]!;
-    }
-    return { start, check, value };
+    const {
+      start,
+      grouped: [check, value],
+    } = groupByBucket(n, buckets, (i) => hashes[i]! & mask, [this.check.data, this.value.data]);
+    return { start, check: check!, value: value! };
   }
 }
 

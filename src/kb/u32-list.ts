@@ -26,3 +26,26 @@ const IDS_16_MAX = 2 ** 16;
 export function narrowIds(ids: Uint32Array, distinct: number): Uint16Array | Uint32Array {
   return distinct <= IDS_16_MAX ? Uint16Array.from(ids) : ids;
 }
+
+/**
+ * A stable counting sort of parallel columns by bucket: entry i (of `n`) goes to bucket
+ * `bucketOf(i)` (0 .. buckets - 1). Returns each column laid out bucket after bucket, entries of
+ * one bucket in their original order, and `start`: bucket b's entries are [start[b], start[b + 1]).
+ */
+export function groupByBucket(
+  n: number,
+  buckets: number,
+  bucketOf: (i: number) => number,
+  columns: readonly Uint32Array[],
+): { start: Uint32Array; grouped: Uint32Array[] } {
+  const start = new Uint32Array(buckets + 1);
+  for (let i = 0; i < n; i++) start[bucketOf(i) + 1]!++;
+  for (let b = 0; b < buckets; b++) start[b + 1]! += start[b]!;
+  const fill = start.slice(0, buckets);
+  const grouped = columns.map(() => new Uint32Array(n));
+  for (let i = 0; i < n; i++) {
+    const at = fill[bucketOf(i)]!++;
+    for (let c = 0; c < columns.length; c++) grouped[c]![at] = columns[c]![i]!;
+  }
+  return { start, grouped };
+}
