@@ -77,6 +77,10 @@ describe("entity rows from memory", () => {
     expect(e.id).toBe("N02");
     expect(e.name).toBe("Tobias Pell Jr.");
     expect((e as unknown as { stored: unknown }).stored).toBe(null);
+    // The canonical name's text is the name; a row without attributes has none to read.
+    expect(e.aliases[0]!.text).toBe("Tobias Pell Jr.");
+    expect(e.attributes).toEqual({});
+    expect((e as unknown as { stored: unknown }).stored).toBe(null);
     expect(e.aliases.map((a) => a.text)).toEqual(["Tobias Pell Jr.", "T. Pell Jr.", "Pell Jnr."]);
     expect((e as unknown as { stored: unknown }).stored).not.toBe(null);
   });
@@ -115,7 +119,9 @@ describe("the display store", () => {
       `gz${i}`,
       i % 3 === 0 ? `Ωμέγα Ναυτιλιακή ${i}` : `Harrowmouth Steam Packet & Lighterage Co. No. ${i}`,
     ]);
-    for (const [id, name] of rows) b.add(id!, name!);
+    rows.forEach(([id, name], i) => {
+      b.add(id!, name!, i % 7 === 0);
+    });
     const built = b.build();
     expect(built.text.length).toBeGreaterThan(1 << 20);
     const d = new Display(built);
@@ -123,6 +129,14 @@ describe("the display store", () => {
     rows.forEach(([id, name], i) => {
       expect(d.id(i + 1)).toBe(id);
       expect(d.name(i + 1)).toBe(name);
+      expect(d.hasAttributes(i + 1)).toBe(i % 7 === 0);
     });
+  });
+
+  it("refuses attribute flags that do not match the entities", () => {
+    const b = new DisplayBuilder();
+    b.add("a", "Ada", false);
+    const built = b.build();
+    expect(() => new Display({ ...built, attributed: new Uint8Array(5) })).toThrow(/attribute flags/);
   });
 });

@@ -73,6 +73,8 @@ export interface HotEntity {
   /** Table id and name, as the output shows them. */
   id: string;
   name: string;
+  /** Whether the row has attributes (other table columns), which a linked mention's output carries. */
+  hasAttributes: boolean;
 }
 
 /** Collects the hot store row by row during the build (entity ids 1, 2, 3, ... in order). */
@@ -110,7 +112,7 @@ export class HotStoreBuilder {
   add(e: HotEntity): void {
     const { cls, prior, terms, nameTokens } = e;
     this.names.add(e.names);
-    this.display.add(e.id, e.name);
+    this.display.add(e.id, e.name, e.hasAttributes);
     this.cls.push(CLASS_CODE.get(cls)!);
     this.prior.push(prior);
     const ids: number[] = [];
@@ -205,6 +207,7 @@ export class HotStoreBuilder {
       nameTails: new TextEncoder().encode(JSON.stringify(names.tails)),
       displayText: display.text,
       displayStart: display.start,
+      displayAttributed: display.attributed,
       cls: Uint8Array.from(this.cls.toArray()),
       prior: Float64Array.from(this.prior),
       norm: this.norms(),
@@ -284,6 +287,7 @@ export class HotStore {
     this.display = new Display({
       text: new Uint8Array(bytes("displayText")),
       start: new Uint32Array(bytes("displayStart")),
+      attributed: new Uint8Array(bytes("displayAttributed")),
     });
     this.entities = this.cls.length - 1;
     if (

@@ -341,7 +341,8 @@ class KbEntity implements EntityRow {
     return this.row().type;
   }
   get attributes(): Record<string, string> {
-    return this.row().attributes;
+    // Most tables give most rows no attributes: then the row need not be read for them.
+    return this.kb.hot.display.hasAttributes(this.eid) ? this.row().attributes : {};
   }
 }
 
@@ -366,7 +367,8 @@ class KbAlias implements AliasRow {
     this.tokens = f.tokens;
   }
   get text(): string {
-    return this.entity.row().texts[this.aid]!;
+    // The canonical name's text is the entity's name, held in memory (display.ts).
+    return this.canonical ? this.entity.name : this.entity.row().texts[this.aid]!;
   }
 }
 

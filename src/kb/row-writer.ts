@@ -70,7 +70,8 @@ export class RowWriter {
     if (!this.labels.knowsTableType(r.type)) this.unknownTypes[r.type] = (this.unknownTypes[r.type] ?? 0) + 1;
     this.byClass[cls] = (this.byClass[cls] ?? 0) + 1;
     if (r.prior > this.maxPrior) this.maxPrior = r.prior;
-    const attrText = Object.values(r.attributes).join(" ");
+    const attrValues = Object.values(r.attributes);
+    const attrText = attrValues.join(" ");
     const terms = contextTerms(`${r.description} ${attrText}`);
     for (const set of this.seenSets) set.clear();
     this.tokens.clear();
@@ -102,7 +103,16 @@ export class RowWriter {
       add(n.initialsKey, "initials");
     }
     this.fts.add(r.prior, nameKeys);
-    this.hot.add({ cls, prior: r.prior, terms, nameTokens: this.tokens, names, id: r.id, name: r.name });
+    this.hot.add({
+      cls,
+      prior: r.prior,
+      terms,
+      nameTokens: this.tokens,
+      names,
+      id: r.id,
+      name: r.name,
+      hasAttributes: attrValues.length > 0,
+    });
     this.insEntity.add(
       eid,
       r.id,

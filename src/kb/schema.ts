@@ -1,5 +1,5 @@
 /**
- * The KB file: one SQLite database. Version 6 of the schema.
+ * The KB file: one SQLite database. Version 7 of the schema.
  *
  * - meta: key/value facts (format tag, schema version, normalizer version, source checksum,
  *   counts, fingerprint, largest prior, number of context documents).
@@ -36,7 +36,7 @@
 /** Identifies a hawser KB among SQLite files. */
 export const KB_FORMAT = "hawser-kb";
 /** Bumped on any incompatible schema change; a KB with a newer version is refused. */
-export const SCHEMA_VERSION = 6;
+export const SCHEMA_VERSION = 7;
 
 export const SCHEMA_SQL = `
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL) WITHOUT ROWID;

@@ -22,7 +22,8 @@ export interface Explained {
   name_: NameMatch;
   paths: Set<CandidatePath>;
   sharedTerms: string[];
-  entityType: string;
+  /** The entity's table type, asked for only when a type mismatch is cited (it may cost a row read). */
+  entityType: () => string;
   mentionType: string | null;
 }
 
@@ -70,7 +71,7 @@ export function evidenceReasons(c: Explained): Reason[] {
   if (c.mentionType !== null && c.features.typeMatch < TYPE_MISMATCH_BELOW) {
     out.push({
       code: "type-mismatch",
-      message: `mention labeled ${c.mentionType} but the entry is a ${c.entityType} (compatibility ${r3(c.features.typeMatch)})`,
+      message: `mention labeled ${c.mentionType} but the entry is a ${c.entityType()} (compatibility ${r3(c.features.typeMatch)})`,
       label: c.mentionType,
       entityType: c.entityType,
       compatibility: r3(c.features.typeMatch),

@@ -401,7 +401,7 @@ export class Linker {
       name_: c.name,
       paths: c.paths,
       sharedTerms: this.sharedTerms(p, c.entity),
-      entityType: c.entity.type,
+      entityType: () => c.entity.type,
       // An unknown label is compared at a neutral weight (and warned about), not a mismatch.
       mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,
     });
