@@ -133,6 +133,7 @@ describe("term ids past 16 bits", () => {
       nameTokens: ["pell"],
       names: name(0),
       id: "O1",
+      hasAttributes: false,
       name: "Pell",
     });
     b.add({
@@ -142,6 +143,7 @@ describe("term ids past 16 bits", () => {
       nameTokens: ["marsh"],
       names: name(1),
       id: "P1",
+      hasAttributes: true,
       name: "Marsh",
     });
     const db = new Database(":memory:");
