@@ -83,6 +83,52 @@ describe("candidates among namesakes", () => {
   });
 });
 
+describe("sub-keys: the whole key left when a first or last word is dropped", () => {
+  /** One small town, forty popular firms carrying its name, and vessels named Mary. */
+  const TABLE2 = [
+    "id,name,type,prior",
+    "L10,Ormoford,town,1",
+    ...Array.from(
+      { length: 40 },
+      (_, i) => `O${String(i).padStart(2, "0")},Ormoford Works No. ${i} Ltd.,firm,${1000 + i}`,
+    ),
+    ...Array.from({ length: 12 }, (_, i) => `V${String(i).padStart(2, "0")},SS Mary,vessel,${10 + i}`),
+    "P20,Mary Selanlow,person,2",
+    "",
+  ].join("\n");
+  let kb2: Kb;
+  beforeAll(async () => {
+    const table = writeText(t.file("subkeys.csv"), TABLE2);
+    await buildKb({ table, out: t.file("subkeys.kb") });
+    kb2 = openKb(t.file("subkeys.kb"));
+  });
+  afterAll(() => kb2.close());
+  const loc = (text: string): Mention => ({ id: text, text, type: "LOC" });
+
+  it("meets the town in 'Ormoford Quay' although token search stops at its 20 most popular carriers", () => {
+    const linker2 = createLinker(kb2, { candidates: { ftsLimit: 20 } });
+    expect(kb2.tokenDf("ormoford")).toBe(41);
+    const found = linker2.scoreCandidates(loc("Ormoford Quay")).find((c) => c.entity.id === "L10");
+    expect(found).toBeDefined();
+    expect([...found!.paths]).toEqual(["fts"]);
+    // With no sub-key left to match ("pier quay", "ormoford pier"), the town is not reached.
+    expect(linker2.candidateIds(loc("Ormoford Pier Quay"))).not.toContain("L10");
+  });
+
+  it("does not probe a person's words among vessels: 'Mary' alone names no one", () => {
+    // "mary" is left out of token search (ftsMaxDf), so vessels can only come from sub-keys.
+    const linker2 = createLinker(kb2, { candidates: { ftsMaxDf: 5 } });
+    expect(kb2.tokenDf("mary")).toBe(13);
+    const vessels = (text: string, type: string) =>
+      linker2.candidateIds({ id: text, text, type }).filter((id) => id.startsWith("V"));
+    const per = linker2.candidateIds({ id: "p", text: "Mary Selanlaw", type: "PER" });
+    expect(per).toContain("P20");
+    expect(vessels("Mary Selanlaw", "PER")).toEqual([]);
+    // A vessel's mention is probed: "thc Mary" drops the article the OCR misread.
+    expect(vessels("thc Mary", "MISC").length).toBeGreaterThan(0);
+  });
+});
+
 describe("correctedReadings", () => {
   it("lists the preferred reading, then one change, then two, up to its cap", () => {
     const options = new Map([

@@ -10,6 +10,11 @@
  * - fuzzy: tokens unknown to the table are corrected through deletion variants (one deletion
  *   on the mention's side, up to two on the table's: src/kb/deletions.ts; edit distance <= 2,
  *   a swap of adjacent letters counting one) and searched again.
+ * Token search also probes, for firms, places and other non-person names of two to four words,
+ * the whole keys left when the first or the last word is dropped ("Nessmouth Quay" meets
+ * "Nessmouth", "thc Mary Ann" meets "Mary Ann"): an entity whose every word the mention carries
+ * is kept with the whole-key matches instead of competing with the hundreds of entities that
+ * share one word (recorded as found by "fts").
  * The candidate list is capped; precise paths come first.
  */
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
@@ -17,6 +22,7 @@ import { tokenBits } from "../kb/hot.js";
 import type { Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
+import { ocrFold } from "../normalize/ocr.js";
 import type { CandidatePath, EntityClass } from "../types.js";
 import { osaDistance } from "./edit-distance.js";
 
@@ -74,11 +80,25 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
 
 /** One bit per path: a candidate's paths as a bit set while pools of thousands are sorted. */
 const PATH_BIT = new Map<CandidatePath, number>(ALL_PATHS.map((p, i) => [p, 1 << i]));
+/**
+ * A bit beside the paths' for a token-search hit through a sub-key (see the top of the file): it
+ * ranks with the whole-key matches and is reported as the "fts" path.
+ */
+const SUB_KEY_BIT = 1 << ALL_PATHS.length;
 /** Paths that match a whole key: their hits outrank token-search hits when the list is capped. */
 const PRECISE_MASK = (["exact", "acronym", "initials", "ocr"] as const).reduce(
   (m, p) => m | PATH_BIT.get(p)!,
   0,
 );
+/**
+ * Least compatibility of the mention's label with a class for sub-key probes in that class: a
+ * PER mention "Mary Selanlow" is looked up among vessels (compatibility 0.3) by its whole key,
+ * but probing "mary" there would bring in every vessel named Mary.
+ */
+const SUB_KEY_MIN_COMPAT = 0.4;
+/** Fewest and most words of a mention whose sub-keys are probed. */
+const SUB_KEY_MIN_WORDS = 2;
+const SUB_KEY_MAX_WORDS = 4;
 const bitCount = (mask: number) => {
   let n = 0;
   for (let m = mask; m !== 0; m &= m - 1) n++;
@@ -92,12 +112,17 @@ interface Found {
   rank: number;
 }
 const isPrecise = (c: Found) => (c.mask & PRECISE_MASK) !== 0;
-const toRaw = (c: Found): RawCandidate => ({
-  eid: c.eid,
-  cls: c.cls,
-  paths: new Set(ALL_PATHS.filter((p) => (c.mask & PATH_BIT.get(p)!) !== 0)),
-  rank: c.rank,
-});
+/** Tier of a candidate when the list is capped: whole-key matches, sub-key matches, the rest. */
+const tierOf = (c: Found) => (isPrecise(c) ? 0 : c.mask & SUB_KEY_BIT ? 1 : 2);
+const toRaw = (c: Found): RawCandidate => {
+  const mask = c.mask & SUB_KEY_BIT ? c.mask | PATH_BIT.get("fts")! : c.mask;
+  return {
+    eid: c.eid,
+    cls: c.cls,
+    paths: new Set(ALL_PATHS.filter((p) => (mask & PATH_BIT.get(p)!) !== 0)),
+    rank: c.rank,
+  };
+};
 /** Shortest token worth an FTS term: single letters are initials, matched by the initials path. */
 const MIN_FTS_TOKEN_LENGTH = 2;
 /**
@@ -122,6 +147,11 @@ export interface RawCandidate {
 export interface MentionForm {
   cls: EntityClass;
   norm: NormalizedName;
+  /**
+   * How compatible the mention's label is with this class (see src/labels): sub-keys are probed
+   * only for classes at least SUB_KEY_MIN_COMPAT compatible. Default 1.
+   */
+  compat?: number;
 }
 
 /**
@@ -145,11 +175,12 @@ export function generateCandidates(
 ): RawCandidate[] {
   const found = new Map<number, Found>();
   let order = 0;
-  const add = (eid: number, cls: EntityClass, path: CandidatePath) => {
+  const addBits = (eid: number, cls: EntityClass, bits: number) => {
     const c = found.get(eid);
-    if (c) c.mask |= PATH_BIT.get(path)!;
-    else found.set(eid, { eid, cls, mask: PATH_BIT.get(path)!, rank: order++ });
+    if (c) c.mask |= bits;
+    else found.set(eid, { eid, cls, mask: bits, rank: order++ });
   };
+  const add = (eid: number, cls: EntityClass, path: CandidatePath) => addBits(eid, cls, PATH_BIT.get(path)!);
   const classes = new Set(forms.map((f) => f.cls));
   const on = opts.paths;
 
@@ -256,6 +287,24 @@ export function generateCandidates(
     runProbes();
   }
 
+  // Sub-keys: the whole keys left when the first or the last word is dropped.
+  if (search && on.has("fts")) {
+    for (const { cls, norm, compat } of forms) {
+      const n = norm.tokens.length;
+      if (cls === "person" || (compat ?? 1) < SUB_KEY_MIN_COMPAT) continue;
+      if (n < SUB_KEY_MIN_WORDS || n > SUB_KEY_MAX_WORDS) continue;
+      for (const sub of [norm.tokens.slice(1), norm.tokens.slice(0, -1)]) {
+        const key = sub.join(" ");
+        const each = (hitCls: EntityClass, kind: KeyKind, eid: number) => {
+          if (hitCls === cls && (kind === "exact" || kind === "ocr")) addBits(eid, cls, SUB_KEY_BIT);
+        };
+        kb.forEachKeyHit(key, each);
+        const ocr = ocrFold(key);
+        if (ocr !== key) kb.forEachKeyHit(ocr, each);
+      }
+    }
+  }
+
   // Token search hits carry no class: the hot store knows it.
   const searched: Array<[number, CandidatePath]> = [];
   if (on.has("fts") && knownDf.length > 0) {
@@ -277,20 +326,25 @@ export function generateCandidates(
   }
 
   const all = [...found.values()];
-  all.sort(
-    (a, b) =>
-      Number(isPrecise(b)) - Number(isPrecise(a)) || bitCount(b.mask) - bitCount(a.mask) || a.rank - b.rank,
-  );
-  const searchedCount = all.reduce((n, c) => n + (isPrecise(c) ? 0 : 1), 0);
-  if (all.length <= opts.maxCandidates && searchedCount <= opts.maxSearchCandidates) return all.map(toRaw);
+  all.sort((a, b) => tierOf(a) - tierOf(b) || bitCount(b.mask) - bitCount(a.mask) || a.rank - b.rank);
+  const counts = [0, 0, 0];
+  for (const c of all) counts[tierOf(c)]!++;
+  if (
+    all.length <= opts.maxCandidates &&
+    counts[1]! <= opts.maxSearchCandidates &&
+    counts[2]! <= opts.maxSearchCandidates
+  )
+    return all.map(toRaw);
   // Too many (many entities share one name, or one word): each tier that does not fit whole is
   // cut by the pre-rank (context, type, popularity and the share of the mention's words), else
-  // by that share and popularity. At most PRE_RANK_MAX candidates are weighed for that.
-  const pool = all.slice(0, PRE_RANK_MAX);
+  // by that share and popularity. At most PRE_RANK_MAX candidates of a tier are weighed for that.
   const out: Found[] = [];
+  const tierPool = (t: number) => all.filter((c) => tierOf(c) === t).slice(0, PRE_RANK_MAX);
+  // Sub-key matches take what room token search leaves: they are fewer and more often wrong.
   const tiers: Array<[Found[], number]> = [
-    [pool.filter(isPrecise), opts.maxCandidates],
-    [pool.filter((c) => !isPrecise(c)), opts.maxSearchCandidates],
+    [tierPool(0), opts.maxCandidates],
+    [tierPool(2), opts.maxSearchCandidates],
+    [tierPool(1), opts.maxSearchCandidates],
   ];
   for (const [tier, most] of tiers) {
     const room = Math.min(opts.maxCandidates - out.length, most);

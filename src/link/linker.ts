@@ -170,7 +170,8 @@ export class Linker {
     const forms: MentionForm[] = [];
     if (info.linkable) {
       for (const cls of ENTITY_CLASSES) {
-        if (info.compat[cls] >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls) });
+        const compat = info.compat[cls];
+        if (compat >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls), compat });
       }
     }
     let context: IdVector | null = null;
