@@ -354,13 +354,13 @@ export function generateCandidates(
       const share = nameShares(kb, eids, tokens, corrected);
       // Without a pre-rank: the share of the mention's words first, then popularity.
       const pre = preRank ? preRank(eids, share) : Array.from(share);
-      const at = new Map(eids.map((e, i) => [e, i]));
-      const prior = (c: Found) => (preRank ? 0 : kb.hot.prior[c.eid]!);
-      tier.sort(
-        (a, b) => pre[at.get(b.eid)!]! - pre[at.get(a.eid)!]! || prior(b) - prior(a) || a.rank - b.rank,
-      );
+      const prior = (i: number) => (preRank ? 0 : kb.hot.prior[eids[i]!]!);
+      const order = tier.map((_, i) => i);
+      order.sort((a, b) => pre[b]! - pre[a]! || prior(b) - prior(a) || tier[a]!.rank - tier[b]!.rank);
+      for (let k = 0; k < room; k++) out.push(tier[order[k]!]!);
+      continue;
     }
-    out.push(...tier.slice(0, room));
+    out.push(...tier);
   }
   return out.map(toRaw);
 }

@@ -313,6 +313,11 @@ export class HotStore {
     return ENTITY_CLASSES[this.cls[eid]!]!;
   }
 
+  /** The entity's class as its position in ENTITY_CLASSES (for tables indexed by class). */
+  classCode(eid: number): number {
+    return this.cls[eid]!;
+  }
+
   /** Whether the entity's names may carry a token with these signature bits (false: surely not). */
   mayHaveToken(eid: number, bits: readonly [number, number]): boolean {
     for (const b of bits) {

@@ -205,12 +205,14 @@ export class Linker {
     const maxPrior = this.kb.info.maxPrior;
     const hot = this.kb.hot;
     const ctx = p.context;
+    // The type term of each class, by class code (hot.classCode).
+    const typeTerm = ENTITY_CLASSES.map((c) => w.typeMatch * p.info.compat[c]);
     return (eids, nameShare) =>
       eids.map(
         (e, i) =>
           w.tokenSet * nameShare[i]! +
-          w.context * (ctx === null ? 0 : hot.contextCosine(ctx, e)) +
-          w.typeMatch * p.info.compat[hot.classOf(e)] +
+          (ctx === null ? 0 : w.context * hot.contextCosine(ctx, e)) +
+          typeTerm[hot.classCode(e)]! +
           w.prior * priorFeature(hot.prior[e]!, maxPrior),
       );
   }

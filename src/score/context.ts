@@ -86,7 +86,8 @@ export function contextCosine(
   let dot = 0;
   let i = 0;
   let j = start;
-  const products: Array<[string, number]> = [];
+  // Shared terms are gathered only when asked for (the reasons); scoring passes no list.
+  const products: Array<[string, number]> | null = shared ? [] : null;
   while (i < mt.length && j < end) {
     const a = mt[i]!;
     const b = ids[j]!;
@@ -95,12 +96,12 @@ export function contextCosine(
       while (k < end && ids[k] === b) k++;
       const p = mention.weightIdf[i]! * (1 + Math.log(k - j));
       dot += p;
-      if (shared) products.push([mention.terms[i]!, p]);
+      if (products !== null) products.push([mention.terms[i]!, p]);
       i++;
       j = k;
     } else if (a < b) i++;
     else j++;
   }
-  if (shared) for (const [t] of products.sort((x, y) => y[1] - x[1])) shared.push(t);
+  if (shared && products !== null) for (const [t] of products.sort((x, y) => y[1] - x[1])) shared.push(t);
   return Math.min(1, Math.max(0, dot / (mention.norm * entityNorm)));
 }
