@@ -94,6 +94,8 @@ export class HotStoreBuilder {
   private readonly names = new NameStoreBuilder();
   /** Every entity's table id and name (display.ts). */
   private readonly display = new DisplayBuilder();
+  /** The current entity's term ids, reused from entity to entity. */
+  private scratch = new Uint32Array(64);
 
   constructor() {
     // Entity ids start at 1: slot 0 is a placeholder.
@@ -115,7 +117,8 @@ export class HotStoreBuilder {
     this.display.add(e.id, e.name, e.hasAttributes);
     this.cls.push(CLASS_CODE.get(cls)!);
     this.prior.push(prior);
-    const ids: number[] = [];
+    if (this.scratch.length < terms.length) this.scratch = new Uint32Array(terms.length * 2);
+    let n = 0;
     for (const t of terms) {
       let id = this.termIdOf.get(t);
       if (id === undefined) {
@@ -123,9 +126,10 @@ export class HotStoreBuilder {
         this.termIdOf.set(t, id);
         this.termDf.push(0);
       }
-      ids.push(id);
+      this.scratch[n++] = id;
     }
-    ids.sort((a, b) => a - b);
+    // A typed array sorts numbers without a comparator call per comparison.
+    const ids = this.scratch.subarray(0, n).sort();
     for (let i = 0; i < ids.length; i++) {
       this.termIds.push(ids[i]!);
       if (i === 0 || ids[i] !== ids[i - 1]) this.termDf.data[ids[i]!]!++;
