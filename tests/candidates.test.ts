@@ -129,6 +129,43 @@ describe("sub-keys: the whole key left when a first or last word is dropped", ()
   });
 });
 
+describe("respelling a rare surname after a naming key match", () => {
+  /** Two near-namesakes, and a common surname with a rare look-alike. */
+  const TABLE3 = [
+    "id,name,type,prior",
+    "P30,Alexander Elinmore,person,1",
+    "P31,Alexander Elingmore,person,1",
+    ...Array.from(
+      { length: 25 },
+      (_, i) =>
+        `S${String(i).padStart(2, "0")},${["Ada", "Amos", "Edith", "Ezra", "Ruth"][i % 5]} Smithson,person,${5 + i}`,
+    ),
+    "P32,Ada Smithsen,person,1",
+    "",
+  ].join("\n");
+  let kb3: Kb;
+  beforeAll(async () => {
+    const table = writeText(t.file("respell.csv"), TABLE3);
+    await buildKb({ table, out: t.file("respell.kb") });
+    kb3 = openKb(t.file("respell.kb"));
+  });
+  afterAll(() => kb3.close());
+
+  it("finds Elingmore behind 'Alexander Elinmore', which names an entity of its own", () => {
+    const ids = createLinker(kb3).candidateIds(m("Alexander Elinmore"));
+    expect(ids).toEqual(expect.arrayContaining(["P30", "P31"]));
+    const off = createLinker(kb3, { candidates: { respellSurnameOnKeyMatch: false } });
+    expect(off.candidateIds(m("Alexander Elinmore"))).toEqual(["P30"]);
+    // An initial and the surname: the respelled initials key.
+    expect(createLinker(kb3).candidateIds(m("A. Elinmore"))).toContain("P31");
+  });
+
+  it("leaves a common surname as written: 'Ada Smithson' is not a slip for Smithsen", () => {
+    expect(kb3.tokenDf("smithson")).toBe(25);
+    expect(createLinker(kb3).candidateIds(m("Ada Smithson"))).not.toContain("P32");
+  });
+});
+
 describe("correctedReadings", () => {
   it("lists the preferred reading, then one change, then two, up to its cap", () => {
     const options = new Map([

@@ -61,6 +61,14 @@ export interface CandidateOptions {
    * faster).
    */
   skipSearchOnKeyMatch: boolean;
+  /**
+   * When a person's whole key matched and token search is skipped (skipSearchOnKeyMatch), still
+   * respell the surname through the fuzzy index and probe the respelled whole and initials keys:
+   * "Alexander Elinmore" names an entity of its own and is also a slip for "Alexander
+   * Elingmore", which only a respelling finds. Costs one fuzzy lookup per such mention. Default
+   * true (measured in benchmarks/README.md).
+   */
+  respellSurnameOnKeyMatch: boolean;
   /** Paths that run; default all. Turning one off is how their value is measured. */
   paths: ReadonlySet<CandidatePath>;
 }
@@ -75,6 +83,7 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   fuzzyMaxEdits: 2,
   fuzzyMaxCorrections: 6,
   skipSearchOnKeyMatch: true,
+  respellSurnameOnKeyMatch: true,
   paths: new Set(ALL_PATHS),
 };
 
@@ -96,6 +105,15 @@ const PRECISE_MASK = (["exact", "acronym", "initials", "ocr"] as const).reduce(
  * but probing "mary" there would bring in every vessel named Mary.
  */
 const SUB_KEY_MIN_COMPAT = 0.4;
+/** Surname respellings probed after a naming key match (respellSurnameOnKeyMatch), closest first. */
+const RESPELLINGS_ON_KEY_MATCH = 3;
+/**
+ * Only a surname that at most this many entities carry is respelled after a naming key match. A
+ * slip that lands on an existing name mostly lands on a rare one, while a common surname is
+ * usually meant: at 1,000,000 entities, respelling only these kept two thirds of the misses
+ * found by respelling every surname, with almost no candidates added (benchmarks/README.md).
+ */
+const RESPELL_MAX_DF = 20;
 /** Fewest and most words of a mention whose sub-keys are probed. */
 const SUB_KEY_MIN_WORDS = 2;
 const SUB_KEY_MAX_WORDS = 4;
@@ -229,6 +247,21 @@ export function generateCandidates(
   // words) already found it: token search and fuzzy correction would only add entities that
   // share some words, scoring below it.
   const search = !(opts.skipSearchOnKeyMatch && named);
+  if (!search && opts.respellSurnameOnKeyMatch && on.has("fuzzy")) {
+    for (const { cls, norm } of forms) {
+      const words = norm.tokens;
+      const surname = words[words.length - 1]!;
+      if (cls !== "person" || words.length < 2 || surname.length < FUZZY_MIN_TOKEN_LENGTH) continue;
+      if (kb.tokenDf(surname) > RESPELL_MAX_DF) continue;
+      for (const fix of correctToken(kb, surname, opts).slice(0, RESPELLINGS_ON_KEY_MATCH)) {
+        if (fix === surname) continue;
+        const key = [...words.slice(0, -1), fix].join(" ");
+        // "A. Garley" is probed as "a gareley", an initials key; "Alexander Elinmore" as a whole key.
+        probe(key, cls, words[0]!.length === 1 ? "initials" : "exact", "fuzzy", false);
+      }
+    }
+    runProbes();
+  }
 
   // Tokens known to the table feed the token search; unknown ones go to fuzzy correction.
   const tokens = new Set<string>();
