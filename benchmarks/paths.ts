@@ -36,6 +36,16 @@ const SETTINGS: Setting[] = [
     candidates: { skipSearchOnKeyMatch: false },
   },
   {
+    name: "all, without sub-key probes",
+    paths: [...ALL_PATHS],
+    candidates: { subKeys: false },
+  },
+  {
+    name: "all, without respelling a rare surname after a key match",
+    paths: [...ALL_PATHS],
+    candidates: { respellSurnameOnKeyMatch: false },
+  },
+  {
     name: "all, token search cut to the 30 most popular hits (ftsLimit 30)",
     paths: [...ALL_PATHS],
     candidates: { ftsLimit: 30 },

@@ -111,8 +111,18 @@ describe("sub-keys: the whole key left when a first or last word is dropped", ()
     const found = linker2.scoreCandidates(loc("Ormoford Quay")).find((c) => c.entity.id === "L10");
     expect(found).toBeDefined();
     expect([...found!.paths]).toEqual(["fts"]);
-    // With no sub-key left to match ("pier quay", "ormoford pier"), the town is not reached.
+    // With no sub-key left to match ("pier quay", "ormoford pier"), or sub-keys off, the town is not reached.
     expect(linker2.candidateIds(loc("Ormoford Pier Quay"))).not.toContain("L10");
+    const off = createLinker(kb2, { candidates: { ftsLimit: 20, subKeys: false } });
+    expect(off.candidateIds(loc("Ormoford Quay"))).not.toContain("L10");
+  });
+
+  it("keeps room for a sub-key match when token search alone could fill the list", () => {
+    // 40 firms from token search want all 30 places; the town's sub-key match still gets one.
+    const wide = createLinker(kb2, { candidates: { maxSearchCandidates: 30 } });
+    const ids = wide.candidateIds(loc("Ormoford Quay"));
+    expect(ids.length).toBe(30);
+    expect(ids).toContain("L10");
   });
 
   it("does not probe a person's words among vessels: 'Mary' alone names no one", () => {

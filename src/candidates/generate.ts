@@ -69,6 +69,11 @@ export interface CandidateOptions {
    * true (measured in benchmarks/README.md).
    */
   respellSurnameOnKeyMatch: boolean;
+  /**
+   * Probe the sub-keys of a firm's, place's or vessel's name (see the top of this file) as part
+   * of token search. Default true (measured in benchmarks/README.md).
+   */
+  subKeys: boolean;
   /** Paths that run; default all. Turning one off is how their value is measured. */
   paths: ReadonlySet<CandidatePath>;
 }
@@ -84,6 +89,7 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   fuzzyMaxCorrections: 6,
   skipSearchOnKeyMatch: true,
   respellSurnameOnKeyMatch: true,
+  subKeys: true,
   paths: new Set(ALL_PATHS),
 };
 
@@ -321,7 +327,7 @@ export function generateCandidates(
   }
 
   // Sub-keys: the whole keys left when the first or the last word is dropped.
-  if (search && on.has("fts")) {
+  if (search && opts.subKeys && on.has("fts")) {
     for (const { cls, norm, compat } of forms) {
       const n = norm.tokens.length;
       if (cls === "person" || (compat ?? 1) < SUB_KEY_MIN_COMPAT) continue;
@@ -373,28 +379,39 @@ export function generateCandidates(
   // by that share and popularity. At most PRE_RANK_MAX candidates of a tier are weighed for that.
   const out: Found[] = [];
   const tierPool = (t: number) => all.filter((c) => tierOf(c) === t).slice(0, PRE_RANK_MAX);
-  // Sub-key matches take what room token search leaves: they are fewer and more often wrong.
-  const tiers: Array<[Found[], number]> = [
-    [tierPool(0), opts.maxCandidates],
-    [tierPool(2), opts.maxSearchCandidates],
-    [tierPool(1), opts.maxSearchCandidates],
-  ];
-  for (const [tier, most] of tiers) {
-    const room = Math.min(opts.maxCandidates - out.length, most);
-    if (room <= 0) break;
-    if (tier.length > room) {
-      const eids = tier.map((c) => c.eid);
-      const share = nameShares(kb, eids, tokens, corrected);
-      // Without a pre-rank: the share of the mention's words first, then popularity.
-      const pre = preRank ? preRank(eids, share) : Array.from(share);
-      const prior = (i: number) => (preRank ? 0 : kb.hot.prior[eids[i]!]!);
-      const order = tier.map((_, i) => i);
-      order.sort((a, b) => pre[b]! - pre[a]! || prior(b) - prior(a) || tier[a]!.rank - tier[b]!.rank);
-      for (let k = 0; k < room; k++) out.push(tier[order[k]!]!);
-      continue;
+  // Whole-key matches first (up to maxCandidates); the room left goes to token-search hits and
+  // sub-key matches, at most maxSearchCandidates each, split evenly when it cannot hold both.
+  const whole = tierPool(0);
+  const searchTier = tierPool(2);
+  const subTier = tierPool(1);
+  const keep = (tier: Found[], room: number) => {
+    if (room <= 0) return;
+    if (tier.length <= room) {
+      out.push(...tier);
+      return;
     }
-    out.push(...tier);
+    const eids = tier.map((c) => c.eid);
+    const share = nameShares(kb, eids, tokens, corrected);
+    // Without a pre-rank: the share of the mention's words first, then popularity.
+    const pre = preRank ? preRank(eids, share) : Array.from(share);
+    const prior = (i: number) => (preRank ? 0 : kb.hot.prior[eids[i]!]!);
+    const order = tier.map((_, i) => i);
+    order.sort((a, b) => pre[b]! - pre[a]! || prior(b) - prior(a) || tier[a]!.rank - tier[b]!.rank);
+    for (let k = 0; k < room; k++) out.push(tier[order[k]!]!);
+  };
+  keep(whole, opts.maxCandidates);
+  const left = opts.maxCandidates - out.length;
+  const wantSearch = Math.min(searchTier.length, opts.maxSearchCandidates);
+  const wantSub = Math.min(subTier.length, opts.maxSearchCandidates);
+  let roomSearch = wantSearch;
+  let roomSub = wantSub;
+  if (wantSearch + wantSub > left) {
+    // Half each, and what one of them cannot use goes to the other.
+    roomSearch = Math.min(wantSearch, Math.max(Math.ceil(left / 2), left - wantSub));
+    roomSub = Math.min(wantSub, left - roomSearch);
   }
+  keep(searchTier, roomSearch);
+  keep(subTier, roomSub);
   return out.map(toRaw);
 }
 
