@@ -6,28 +6,38 @@
  * charges two.
  */
 
+/** The three rolling rows of osaDistance, reused across calls (grown on demand). */
+let rows = new Uint32Array(3 * 32);
+
 /** OSA distance of `a` and `b`, in UTF-16 code units; three rolling rows, O(|a| * |b|) time. */
 export function osaDistance(a: string, b: string): number {
   if (a === b) return 0;
   if (a.length === 0) return b.length;
   if (b.length === 0) return a.length;
   const n = b.length;
-  let prev2 = new Uint32Array(n + 1);
-  let prev = new Uint32Array(n + 1);
-  let cur = new Uint32Array(n + 1);
-  for (let j = 0; j <= n; j++) prev[j] = j;
+  const width = n + 1;
+  if (rows.length < 3 * width) rows = new Uint32Array(6 * width);
+  const r = rows;
+  // Offsets of the row two back, the previous row and the current one; rotated after each row.
+  let prev2 = 0;
+  let prev = width;
+  let cur = 2 * width;
+  for (let j = 0; j <= n; j++) r[prev + j] = j;
   for (let i = 1; i <= a.length; i++) {
-    cur[0] = i;
+    r[cur] = i;
     const ai = a.charCodeAt(i - 1);
     for (let j = 1; j <= n; j++) {
       const bj = b.charCodeAt(j - 1);
-      let d = Math.min(prev[j]! + 1, cur[j - 1]! + 1, prev[j - 1]! + (ai === bj ? 0 : 1));
+      let d = Math.min(r[prev + j]! + 1, r[cur + j - 1]! + 1, r[prev + j - 1]! + (ai === bj ? 0 : 1));
       if (i > 1 && j > 1 && ai === b.charCodeAt(j - 2) && a.charCodeAt(i - 2) === bj) {
-        d = Math.min(d, prev2[j - 2]! + 1);
+        d = Math.min(d, r[prev2 + j - 2]! + 1);
       }
-      cur[j] = d;
+      r[cur + j] = d;
     }
-    [prev2, prev, cur] = [prev, cur, prev2];
+    const oldest = prev2;
+    prev2 = prev;
+    prev = cur;
+    cur = oldest;
   }
-  return prev[n]!;
+  return r[prev + n]!;
 }
