@@ -432,11 +432,23 @@ function nameShares(
   }
   const out = new Float64Array(eids.length);
   if (slots.length === 0) return out;
-  eids.forEach((e, i) => {
+  const hot = kb.hot;
+  // Plain loops: this runs for every entity of pools of hundreds, and a closure per entity and
+  // word was most of what a mention allocated.
+  for (let i = 0; i < eids.length; i++) {
+    const e = eids[i]!;
     let n = 0;
-    for (const slot of slots) if (slot.some((bits) => kb.hot.mayHaveToken(e, bits))) n++;
+    for (let s = 0; s < slots.length; s++) {
+      const slot = slots[s]!;
+      for (let k = 0; k < slot.length; k++) {
+        if (hot.mayHaveToken(e, slot[k]!)) {
+          n++;
+          break;
+        }
+      }
+    }
     out[i] = n / slots.length;
-  });
+  }
   return out;
 }
 

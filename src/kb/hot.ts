@@ -324,11 +324,13 @@ export class HotStore {
 
   /** Whether the entity's names may carry a token with these signature bits (false: surely not). */
   mayHaveToken(eid: number, bits: readonly [number, number]): boolean {
-    for (const b of bits) {
-      const word = this.sig[2 * eid + (b < 32 ? 0 : 1)]!;
-      if ((word & (1 << (b % 32))) === 0) return false;
-    }
-    return true;
+    return this.hasBit(eid, bits[0]) && this.hasBit(eid, bits[1]);
+  }
+
+  /** Whether bit `b` of the entity's name signature is set. */
+  private hasBit(eid: number, b: number): boolean {
+    const word = this.sig[2 * eid + (b < 32 ? 0 : 1)]!;
+    return (word & (1 << (b % 32))) !== 0;
   }
 
   /** The context cosine of a mention and an entity (see src/score/context.ts), and the shared terms. */
