@@ -533,7 +533,10 @@ export function correctToken(kb: Kb, token: string, opts: CandidateOptions): str
   const variants = new Set<string>();
   for (const [r] of readings) for (const v of deletionVariants(r)) variants.add(v);
   for (const t of kb.tokensForVariants([...variants])) {
-    for (const [r, extra] of readings) {
+    for (let k = 0; k < readings.length; k++) {
+      const [r, extra] = readings[k]!;
+      // The distance is at least the difference in length: no need to compute it past the limit.
+      if (Math.abs(r.length - t.length) + extra > opts.fuzzyMaxEdits) continue;
       const d = osaDistance(r, t) + extra;
       if (d <= opts.fuzzyMaxEdits && d < (seen.get(t) ?? Number.POSITIVE_INFINITY)) seen.set(t, d);
     }
