@@ -207,13 +207,17 @@ export class Linker {
     const ctx = p.context;
     // The type term of each class, by class code (hot.classCode).
     const typeTerm = ENTITY_CLASSES.map((c) => w.typeMatch * p.info.compat[c]);
+    // priorFeature with its denominator computed once per mention rather than once per entity.
+    const logMaxPrior = Math.log1p(maxPrior);
+    const priorTerm = (prior: number) =>
+      maxPrior <= 0 || prior <= 0 ? 0 : Math.min(1, Math.log1p(prior) / logMaxPrior);
     return (eids, nameShare) =>
       eids.map(
         (e, i) =>
           w.tokenSet * nameShare[i]! +
           (ctx === null ? 0 : w.context * hot.contextCosine(ctx, e)) +
           typeTerm[hot.classCode(e)]! +
-          w.prior * priorFeature(hot.prior[e]!, maxPrior),
+          w.prior * priorTerm(hot.prior[e]!),
       );
   }
 
