@@ -13,9 +13,10 @@
  * Token search also probes, for firms, places and other non-person names of two to four words,
  * the whole keys left when the first or the last word is dropped ("Nessmouth Quay" meets
  * "Nessmouth", "thc Mary Ann" meets "Mary Ann"): an entity whose every word the mention carries
- * is kept with the whole-key matches instead of competing with the hundreds of entities that
- * share one word (recorded as found by "fts").
- * The candidate list is capped; precise paths come first.
+ * gets room of its own instead of competing with the hundreds of entities that share one word
+ * (recorded as found by "fts").
+ * The candidate list is capped: whole-key matches first, then the room left is shared by
+ * token-search and fuzzy hits and by sub-key matches (see the end of generateCandidates).
  */
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
 import { tokenBits } from "../kb/hot.js";
@@ -63,10 +64,11 @@ export interface CandidateOptions {
   skipSearchOnKeyMatch: boolean;
   /**
    * When a person's whole key matched and token search is skipped (skipSearchOnKeyMatch), still
-   * respell the surname through the fuzzy index and probe the respelled whole and initials keys:
-   * "Alexander Elinmore" names an entity of its own and is also a slip for "Alexander
-   * Elingmore", which only a respelling finds. Costs one fuzzy lookup per such mention. Default
-   * true (measured in benchmarks/README.md).
+   * respell the surname, when RESPELL_MAX_DF or fewer entities carry it, through the fuzzy
+   * index and probe the respelled key (an initials key after an initial): "Alexander Elinmore"
+   * names an entity of its own and is also a slip for "Alexander Elingmore", which only a
+   * respelling finds. Costs one fuzzy lookup per such mention. Default true (measured in
+   * benchmarks/README.md).
    */
   respellSurnameOnKeyMatch: boolean;
   /**
