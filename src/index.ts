@@ -16,6 +16,7 @@ export { type BuildKbOptions, type BuildSummary, buildKb } from "./kb/build.js";
 export { Kb, type KbInfo, openKb } from "./kb/kb.js";
 export { readTable } from "./kb/read-table.js";
 export { createLinker, Linker, type LinkerOptions, type ScoredCandidate } from "./link/linker.js";
+export { type CandidateOptions, DEFAULT_CANDIDATE_OPTIONS } from "./candidates/generate.js";
 export { csvRow, jsonlRow } from "./link/write.js";
 export { type ReadMentionsOptions, readMentions } from "./read/index.js";
 export { LabelMap, readLabelMapFile } from "./labels/label-map.js";
