@@ -98,6 +98,16 @@ describe("links with reasons", () => {
     expect(linker.link(m("Stenmoor", "LOC")).entity).toBe("L02");
   });
 
+  it("cites a type mismatch with the entry's table type, which the written row keeps", () => {
+    const row = linker.link(m("Stenmouth Packet Co.", "LOC"));
+    const mismatch = row.reasons.find((r) => r.code === "type-mismatch");
+    expect(mismatch?.entityType).toBe("firm");
+    expect(mismatch?.message).toMatch(/the entry is a firm/);
+    // The row goes out as JSON: the field must be a value, not something JSON drops.
+    const written = JSON.parse(JSON.stringify(row)) as LinkRow;
+    expect(written.reasons.find((r) => r.code === "type-mismatch")?.entityType).toBe("firm");
+  });
+
   it("expands place abbreviations before matching", () => {
     expect(linker.link(m("Mt. Sorrel", "LOC")).entity).toBe("L06");
     expect(linker.link(m("Pt. Ellery", "GPE")).entity).toBe("L05");

@@ -69,11 +69,12 @@ export function evidenceReasons(c: Explained): Reason[] {
     });
   }
   if (c.mentionType !== null && c.features.typeMatch < TYPE_MISMATCH_BELOW) {
+    const entityType = c.entityType();
     out.push({
       code: "type-mismatch",
-      message: `mention labeled ${c.mentionType} but the entry is a ${c.entityType()} (compatibility ${r3(c.features.typeMatch)})`,
+      message: `mention labeled ${c.mentionType} but the entry is a ${entityType} (compatibility ${r3(c.features.typeMatch)})`,
       label: c.mentionType,
-      entityType: c.entityType,
+      entityType,
       compatibility: r3(c.features.typeMatch),
     });
   }
