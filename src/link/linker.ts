@@ -17,7 +17,7 @@ import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
-import { features, type NameMatch, nameMatch, priorFeature } from "../score/features.js";
+import { features, type NameMatch, nameMatch, priorFeatureFor } from "../score/features.js";
 import { type IdVector, idVector } from "../score/context.js";
 import { contextTerms } from "../score/terms.js";
 import { buildVector, idf } from "../score/tfidf.js";
@@ -117,6 +117,8 @@ export class Linker {
   private readonly cand: CandidateOptions;
   private readonly blockMinCompat: number;
   private readonly idfOf: (t: string) => number;
+  /** The prior feature of a prior in this KB (see priorFeatureFor). */
+  private readonly priorOf: (prior: number) => number;
   /** Document-level evidence steps in force (all off when document evidence is disabled). */
   readonly documentSteps: DocumentEvidenceOptions;
 
@@ -162,6 +164,7 @@ export class Linker {
         : { ...DEFAULT_DOCUMENT_EVIDENCE, ...options.document };
     const n = kb.info.contextDocs;
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
+    this.priorOf = priorFeatureFor(kb.info.maxPrior);
   }
 
   private prepare(m: Mention): Prepared {
@@ -191,7 +194,7 @@ export class Linker {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
     const name = nameMatch(form.norm, e);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
-    const f = features(name, context, p.info.compat[e.cls], priorFeature(e.prior, this.kb.info.maxPrior));
+    const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior));
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
   }
 
@@ -202,22 +205,18 @@ export class Linker {
    */
   private preRankFor(p: Prepared): PreRank {
     const w = this.config.weights.features;
-    const maxPrior = this.kb.info.maxPrior;
     const hot = this.kb.hot;
     const ctx = p.context;
     // The type term of each class, by class code (hot.classCode).
     const typeTerm = ENTITY_CLASSES.map((c) => w.typeMatch * p.info.compat[c]);
-    // priorFeature with its denominator computed once per mention rather than once per entity.
-    const logMaxPrior = Math.log1p(maxPrior);
-    const priorTerm = (prior: number) =>
-      maxPrior <= 0 || prior <= 0 ? 0 : Math.min(1, Math.log1p(prior) / logMaxPrior);
+    const priorOf = this.priorOf;
     return (eids, nameShare) =>
       eids.map(
         (e, i) =>
           w.tokenSet * nameShare[i]! +
           (ctx === null ? 0 : w.context * hot.contextCosine(ctx, e)) +
           typeTerm[hot.classCode(e)]! +
-          w.prior * priorTerm(hot.prior[e]!),
+          w.prior * priorOf(hot.prior[e]!),
       );
   }
 

@@ -111,10 +111,14 @@ function suffixOf(a: AliasRow): string | null {
   return a.full.slice(a.key.length).trim() || null;
 }
 
-/** log1p(prior) / log1p(max prior): popularity on a log scale, so a city does not drown a village. */
-export function priorFeature(prior: number, maxPrior: number): number {
-  if (maxPrior <= 0 || prior <= 0) return 0;
-  return Math.min(1, Math.log1p(prior) / Math.log1p(maxPrior));
+/**
+ * The prior feature for a KB whose largest prior is `maxPrior`: log1p(prior) / log1p(max prior),
+ * popularity on a log scale, so a city does not drown a village. The denominator is computed
+ * once, since the pre-rank asks for hundreds of entities per mention.
+ */
+export function priorFeatureFor(maxPrior: number): (prior: number) => number {
+  const logMaxPrior = Math.log1p(maxPrior);
+  return (prior) => (maxPrior <= 0 || prior <= 0 ? 0 : Math.min(1, Math.log1p(prior) / logMaxPrior));
 }
 
 /** Assemble the feature vector; `context` is the TF-IDF cosine (src/score/context.ts). */
