@@ -99,7 +99,7 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
 const PATH_BIT = new Map<CandidatePath, number>(ALL_PATHS.map((p, i) => [p, 1 << i]));
 /**
  * A bit beside the paths' for a token-search hit through a sub-key (see the top of the file): it
- * ranks with the whole-key matches and is reported as the "fts" path.
+ * puts the hit in a tier of its own when the list is capped and is reported as the "fts" path.
  */
 const SUB_KEY_BIT = 1 << ALL_PATHS.length;
 /** Paths that match a whole key: their hits outrank token-search hits when the list is capped. */
@@ -436,7 +436,7 @@ function nameShares(
   if (slots.length === 0) return out;
   const hot = kb.hot;
   // Plain loops: this runs for every entity of pools of hundreds, and a closure per entity and
-  // word was most of what a mention allocated.
+  // word was a quarter of what a mention allocated.
   for (let i = 0; i < eids.length; i++) {
     const e = eids[i]!;
     let n = 0;
