@@ -45,6 +45,21 @@ afterAll(() => {
   t.cleanup();
 });
 
+/**
+ * A KB built from `csv` before the tests of the enclosing describe and closed after them: call
+ * the returned function inside a test to get it.
+ */
+function tableKb(name: string, csv: string): () => Kb {
+  let built: Kb | undefined;
+  beforeAll(async () => {
+    const table = writeText(t.file(`${name}.csv`), csv);
+    await buildKb({ table, out: t.file(`${name}.kb`) });
+    built = openKb(t.file(`${name}.kb`));
+  });
+  afterAll(() => built?.close());
+  return () => built!;
+}
+
 const m = (text: string, context?: string): Mention => ({ id: text, text, type: "PER", context });
 const pathsOf = (text: string, entity: string, context?: string) =>
   linker.scoreCandidates(m(text, context)).find((c) => c.entity.id === entity)?.paths;
@@ -96,30 +111,24 @@ describe("sub-keys: the whole key left when a first or last word is dropped", ()
     "P20,Mary Selanlow,person,2",
     "",
   ].join("\n");
-  let kb2: Kb;
-  beforeAll(async () => {
-    const table = writeText(t.file("subkeys.csv"), TABLE2);
-    await buildKb({ table, out: t.file("subkeys.kb") });
-    kb2 = openKb(t.file("subkeys.kb"));
-  });
-  afterAll(() => kb2.close());
+  const kb2 = tableKb("subkeys", TABLE2);
   const loc = (text: string): Mention => ({ id: text, text, type: "LOC" });
 
   it("meets the town in 'Ormoford Quay' although token search stops at its 20 most popular carriers", () => {
-    const linker2 = createLinker(kb2, { candidates: { ftsLimit: 20 } });
-    expect(kb2.tokenDf("ormoford")).toBe(41);
+    const linker2 = createLinker(kb2(), { candidates: { ftsLimit: 20 } });
+    expect(kb2().tokenDf("ormoford")).toBe(41);
     const found = linker2.scoreCandidates(loc("Ormoford Quay")).find((c) => c.entity.id === "L10");
     expect(found).toBeDefined();
     expect([...found!.paths]).toEqual(["fts"]);
     // With no sub-key left to match ("pier quay", "ormoford pier"), or sub-keys off, the town is not reached.
     expect(linker2.candidateIds(loc("Ormoford Pier Quay"))).not.toContain("L10");
-    const off = createLinker(kb2, { candidates: { ftsLimit: 20, subKeys: false } });
+    const off = createLinker(kb2(), { candidates: { ftsLimit: 20, subKeys: false } });
     expect(off.candidateIds(loc("Ormoford Quay"))).not.toContain("L10");
   });
 
   it("keeps room for a sub-key match when token search alone could fill the list", () => {
     // 40 firms from token search want all 30 places; the town's sub-key match still gets one.
-    const wide = createLinker(kb2, { candidates: { maxSearchCandidates: 30 } });
+    const wide = createLinker(kb2(), { candidates: { maxSearchCandidates: 30 } });
     const ids = wide.candidateIds(loc("Ormoford Quay"));
     expect(ids.length).toBe(30);
     expect(ids).toContain("L10");
@@ -127,8 +136,8 @@ describe("sub-keys: the whole key left when a first or last word is dropped", ()
 
   it("does not probe a person's words among vessels: 'Mary' alone names no one", () => {
     // "mary" is left out of token search (ftsMaxDf), so vessels can only come from sub-keys.
-    const linker2 = createLinker(kb2, { candidates: { ftsMaxDf: 5 } });
-    expect(kb2.tokenDf("mary")).toBe(13);
+    const linker2 = createLinker(kb2(), { candidates: { ftsMaxDf: 5 } });
+    expect(kb2().tokenDf("mary")).toBe(13);
     const vessels = (text: string, type: string) =>
       linker2.candidateIds({ id: text, text, type }).filter((id) => id.startsWith("V"));
     const per = linker2.candidateIds({ id: "p", text: "Mary Selanlaw", type: "PER" });
@@ -153,26 +162,20 @@ describe("respelling a rare surname after a naming key match", () => {
     "P32,Ada Smithsen,person,1",
     "",
   ].join("\n");
-  let kb3: Kb;
-  beforeAll(async () => {
-    const table = writeText(t.file("respell.csv"), TABLE3);
-    await buildKb({ table, out: t.file("respell.kb") });
-    kb3 = openKb(t.file("respell.kb"));
-  });
-  afterAll(() => kb3.close());
+  const kb3 = tableKb("respell", TABLE3);
 
   it("finds Elingmore behind 'Alexander Elinmore', which names an entity of its own", () => {
-    const ids = createLinker(kb3).candidateIds(m("Alexander Elinmore"));
+    const ids = createLinker(kb3()).candidateIds(m("Alexander Elinmore"));
     expect(ids).toEqual(expect.arrayContaining(["P30", "P31"]));
-    const off = createLinker(kb3, { candidates: { respellSurnameOnKeyMatch: false } });
+    const off = createLinker(kb3(), { candidates: { respellSurnameOnKeyMatch: false } });
     expect(off.candidateIds(m("Alexander Elinmore"))).toEqual(["P30"]);
     // An initial and the surname: the respelled initials key.
-    expect(createLinker(kb3).candidateIds(m("A. Elinmore"))).toContain("P31");
+    expect(createLinker(kb3()).candidateIds(m("A. Elinmore"))).toContain("P31");
   });
 
   it("leaves a common surname as written: 'Ada Smithson' is not a slip for Smithsen", () => {
-    expect(kb3.tokenDf("smithson")).toBe(25);
-    expect(createLinker(kb3).candidateIds(m("Ada Smithson"))).not.toContain("P32");
+    expect(kb3().tokenDf("smithson")).toBe(25);
+    expect(createLinker(kb3()).candidateIds(m("Ada Smithson"))).not.toContain("P32");
   });
 });
 
