@@ -131,7 +131,7 @@ const bitCount = (mask: number) => {
   return n;
 };
 /** A candidate while the pool is gathered: its paths as bits (see PATH_BIT). */
-interface Found {
+export interface Found {
   eid: number;
   cls: EntityClass;
   mask: number;
@@ -199,6 +199,34 @@ export function generateCandidates(
   opts: CandidateOptions,
   preRank?: PreRank,
 ): RawCandidate[] {
+  return cutPool(kb, gatherPool(kb, forms, opts), opts, preRank);
+}
+
+/**
+ * What candidate generation finds for one mention's forms before the list is cut: every entity
+ * found, in the order the cut takes them (tier, number of paths, discovery), and the words
+ * (with their corrections) the pre-rank's name share counts. It depends on the forms and the
+ * options only, never on the context, so mentions with the same text and label can share one
+ * (see src/link/surface-cache.ts). Treat it as read-only; `cutPool` fills its lazy parts.
+ */
+export interface CandidatePool {
+  readonly all: readonly Found[];
+  /** Candidates per tier: whole-key matches, sub-key matches, token-search and fuzzy hits. */
+  readonly counts: readonly [number, number, number];
+  readonly tokens: ReadonlySet<string>;
+  readonly corrected: ReadonlyMap<string, string[]>;
+  /** Each tier's first PRE_RANK_MAX candidates, their entity ids and name shares, once computed. */
+  readonly tiers: Array<TierPool | undefined>;
+}
+
+interface TierPool {
+  found: Found[];
+  eids: number[];
+  share: Float64Array | undefined;
+}
+
+/** Everything the paths find for one mention's forms (see CandidatePool). */
+export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: CandidateOptions): CandidatePool {
   const found = new Map<number, Found>();
   let order = 0;
   const addBits = (eid: number, cls: EntityClass, bits: number) => {
@@ -368,32 +396,56 @@ export function generateCandidates(
 
   const all = [...found.values()];
   all.sort((a, b) => tierOf(a) - tierOf(b) || bitCount(b.mask) - bitCount(a.mask) || a.rank - b.rank);
-  const counts = [0, 0, 0];
-  for (const c of all) counts[tierOf(c)]!++;
+  const counts: [number, number, number] = [0, 0, 0];
+  for (const c of all) counts[tierOf(c)]++;
+  return { all, counts, tokens, corrected, tiers: [undefined, undefined, undefined] };
+}
+
+/**
+ * The candidates kept from a pool: all of them when they fit, else each tier that does not fit
+ * is cut by the pre-rank (context, type, popularity and the share of the mention's words), or
+ * without one by that share and popularity.
+ */
+export function cutPool(
+  kb: Kb,
+  pool: CandidatePool,
+  opts: CandidateOptions,
+  preRank?: PreRank,
+): RawCandidate[] {
+  const { all, counts } = pool;
   if (
     all.length <= opts.maxCandidates &&
-    counts[1]! <= opts.maxSearchCandidates &&
-    counts[2]! <= opts.maxSearchCandidates
+    counts[1] <= opts.maxSearchCandidates &&
+    counts[2] <= opts.maxSearchCandidates
   )
     return all.map(toRaw);
-  // Too many (many entities share one name, or one word): each tier that does not fit whole is
-  // cut by the pre-rank (context, type, popularity and the share of the mention's words), else
-  // by that share and popularity. At most PRE_RANK_MAX candidates of a tier are weighed for that.
+  // Too many (many entities share one name, or one word). At most PRE_RANK_MAX candidates of a
+  // tier are weighed.
   const out: Found[] = [];
-  const tierPool = (t: number) => all.filter((c) => tierOf(c) === t).slice(0, PRE_RANK_MAX);
+  const tierPool = (t: number): TierPool => {
+    let tier = pool.tiers[t];
+    if (tier === undefined) {
+      const found = all.filter((c) => tierOf(c) === t).slice(0, PRE_RANK_MAX);
+      tier = { found, eids: found.map((c) => c.eid), share: undefined };
+      pool.tiers[t] = tier;
+    }
+    return tier;
+  };
   // Whole-key matches first (up to maxCandidates); the room left goes to token-search hits and
   // sub-key matches, at most maxSearchCandidates each, split evenly when it cannot hold both.
   const whole = tierPool(0);
   const searchTier = tierPool(2);
   const subTier = tierPool(1);
-  const keep = (tier: Found[], room: number) => {
+  const keep = (t: TierPool, room: number) => {
     if (room <= 0) return;
+    const tier = t.found;
     if (tier.length <= room) {
       out.push(...tier);
       return;
     }
-    const eids = tier.map((c) => c.eid);
-    const share = nameShares(kb, eids, tokens, corrected);
+    const eids = t.eids;
+    t.share ??= nameShares(kb, eids, pool.tokens, pool.corrected);
+    const share = t.share;
     // Without a pre-rank: the share of the mention's words first, then popularity.
     const pre = preRank ? preRank(eids, share) : Array.from(share);
     const prior = (i: number) => (preRank ? 0 : kb.hot.prior[eids[i]!]!);
@@ -403,8 +455,8 @@ export function generateCandidates(
   };
   keep(whole, opts.maxCandidates);
   const left = opts.maxCandidates - out.length;
-  const wantSearch = Math.min(searchTier.length, opts.maxSearchCandidates);
-  const wantSub = Math.min(subTier.length, opts.maxSearchCandidates);
+  const wantSearch = Math.min(searchTier.found.length, opts.maxSearchCandidates);
+  const wantSub = Math.min(subTier.found.length, opts.maxSearchCandidates);
   let roomSearch = wantSearch;
   let roomSub = wantSub;
   if (wantSearch + wantSub > left) {

@@ -6,8 +6,10 @@
 import {
   ALL_PATHS,
   type CandidateOptions,
+  type CandidatePool,
   DEFAULT_CANDIDATE_OPTIONS,
-  generateCandidates,
+  cutPool,
+  gatherPool,
   type MentionForm,
   type PreRank,
 } from "../candidates/generate.js";
@@ -43,6 +45,7 @@ import {
 } from "../document/evidence.js";
 import type { Decision } from "../decide/decide.js";
 import { decisionReason, evidenceReasons } from "./explain.js";
+import { type Surface, SurfaceCache } from "./surface-cache.js";
 
 export interface LinkerOptions {
   /** Feature weights of the score combination. Default: DEFAULT_WEIGHTS (src/score/combine.ts). */
@@ -71,6 +74,13 @@ export interface LinkerOptions {
    * (see src/document/evidence.ts). Default: all three steps on; `false` turns all off.
    */
   document?: Partial<DocumentEvidenceOptions> | false;
+  /**
+   * Most distinct (text, label) pairs whose normalized forms and candidate pool are kept for
+   * reuse by later mentions with the same text and label (see
+   * src/link/surface-cache.ts); the output is the same with any value. 0 turns reuse off.
+   * Default 4,096.
+   */
+  surfaceCache?: number;
 }
 
 /**
@@ -80,6 +90,12 @@ export interface LinkerOptions {
 export const MAX_DOCUMENT_MENTIONS = 5000;
 
 export const DEFAULT_TOP = 3;
+export const DEFAULT_SURFACE_CACHE = 4096;
+/**
+ * Weight budget of the surface cache (pool members held, see SurfaceCache) per surface it may
+ * hold, on average: a few surfaces with pools of thousands take the room of many.
+ */
+const SURFACE_WEIGHT_EACH = 40;
 export const DEFAULT_BLOCK_MIN_COMPAT = 0.3;
 /** Longest stretch of mention text normalized: a 10,000-character "mention" is noise, not a name. */
 const MAX_NAME_CHARS = 300;
@@ -103,6 +119,8 @@ interface Prepared {
   mention: Mention;
   info: LabelInfo;
   forms: MentionForm[];
+  /** What the mention shares with others of the same text and label. */
+  surface: Surface;
   /** The mention's context vector by KB term id (null: no context). */
   context: IdVector | null;
 }
@@ -121,6 +139,7 @@ export class Linker {
   private readonly priorOf: (prior: number) => number;
   /** Document-level evidence steps in force (all off when document evidence is disabled). */
   readonly documentSteps: DocumentEvidenceOptions;
+  private readonly surfaces: SurfaceCache;
 
   constructor(kb: Kb, options: LinkerOptions = {}) {
     this.kb = kb;
@@ -162,32 +181,47 @@ export class Linker {
       options.document === false
         ? { sameText: false, shortForm: false, acronyms: false }
         : { ...DEFAULT_DOCUMENT_EVIDENCE, ...options.document };
+    const cacheSize = options.surfaceCache ?? DEFAULT_SURFACE_CACHE;
+    if (!Number.isInteger(cacheSize) || cacheSize < 0)
+      throw new UsageError(`surfaceCache must be a whole number >= 0, got ${cacheSize}`);
+    this.surfaces = new SurfaceCache(cacheSize, cacheSize * SURFACE_WEIGHT_EACH);
     const n = kb.info.contextDocs;
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
     this.priorOf = priorFeatureFor(kb.info.maxPrior);
   }
 
+  /** Number of (text, label) pairs the surface cache holds now (see LinkerOptions.surfaceCache). */
+  get cachedSurfaces(): number {
+    return this.surfaces.size;
+  }
+
   private prepare(m: Mention): Prepared {
     const info = this.labels.forMention(m.type);
     const text = m.text.length > MAX_NAME_CHARS ? m.text.slice(0, MAX_NAME_CHARS) : m.text;
-    const forms: MentionForm[] = [];
-    if (info.linkable) {
-      for (const cls of ENTITY_CLASSES) {
-        const compat = info.compat[cls];
-        if (compat >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls), compat });
+    // The label map is fixed for the linker's life, so the label's spelling stands for its info.
+    const key = m.type === undefined ? `\u0000${text}` : `${m.type}\u0000${text}`;
+    const surface = this.surfaces.get(key, () => {
+      const forms: MentionForm[] = [];
+      if (info.linkable) {
+        for (const cls of ENTITY_CLASSES) {
+          const compat = info.compat[cls];
+          if (compat >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls), compat });
+        }
       }
-    }
+      return forms;
+    });
     let context: IdVector | null = null;
     if (m.context !== undefined && m.context.trim() !== "") {
       // The mention's own words are left out: every candidate shares them, so they say nothing.
-      const own = new Set(contextTerms(text));
+      surface.own ??= new Set(contextTerms(text));
+      const own = surface.own;
       const terms = contextTerms(m.context).filter((t) => !own.has(t));
       if (terms.length > 0) {
         const v = buildVector(terms, this.idfOf);
         context = idVector(v, this.idfOf, (t) => this.kb.termInfo(t).id);
       }
     }
-    return { mention: m, info, forms, context };
+    return { mention: m, info, forms: surface.forms, surface, context };
   }
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
@@ -228,7 +262,7 @@ export class Linker {
 
   private scorePrepared(p: Prepared): ScoredCandidate[] {
     if (p.forms.length === 0) return [];
-    const raw = generateCandidates(this.kb, p.forms, this.cand, this.preRankFor(p));
+    const raw = cutPool(this.kb, this.poolOf(p), this.cand, this.preRankFor(p));
     const rows = this.kb.entities(raw.map((c) => c.eid));
     const out = raw.map((c, i) => this.scoreOne(p, rows[i]!, c.cls, c.paths));
     return out.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
@@ -238,8 +272,18 @@ export class Linker {
   candidateIds(m: Mention): string[] {
     const p = this.prepare(m);
     if (p.forms.length === 0) return [];
-    const raw = generateCandidates(this.kb, p.forms, this.cand, this.preRankFor(p));
+    const raw = cutPool(this.kb, this.poolOf(p), this.cand, this.preRankFor(p));
     return this.kb.entities(raw.map((c) => c.eid)).map((e) => e.id);
+  }
+
+  /** The mention's candidate pool, gathered once per surface. */
+  private poolOf(p: Prepared): CandidatePool {
+    const s = p.surface;
+    if (s.pool === undefined) {
+      s.pool = gatherPool(this.kb, p.forms, this.cand);
+      this.surfaces.grow(s, s.pool.all.length);
+    }
+    return s.pool;
   }
 
   private analyze(m: Mention): Analysis {
