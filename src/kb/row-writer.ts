@@ -1,6 +1,6 @@
 /**
  * Writes the table's rows into the KB as they stream in: the entity row (with its packed name
- * forms), its details, and its blocking keys, while gathering what the later phases need (token
+ * forms), its details (description and blocking keys), while gathering what the later phases need (token
  * vocabulary, the hot store with the context terms and the in-memory key index, full-text rows).
  * Inserts are buffered (see batch-insert.ts): call `flush` before each commit.
  */
@@ -20,7 +20,7 @@ export class RowWriter {
   eid = 0;
   /** Names written (canonical names and aliases with a non-empty key). */
   aliases = 0;
-  /** Blocking-key rows written. */
+  /** Blocking keys written (rows of the keys view). */
   keys = 0;
   maxPrior = 0;
   readonly byClass: Record<string, number> = {};
@@ -38,7 +38,6 @@ export class RowWriter {
 
   private readonly insEntity: BatchInsert;
   private readonly insDetails: BatchInsert;
-  private readonly insKey: BatchInsert;
   /** Keys of the current entity already written, one set per kind (cleared per entity). */
   private readonly seen: Record<KeyKind, Set<string>> = {
     exact: new Set(),
@@ -60,8 +59,7 @@ export class RowWriter {
       "INSERT INTO entities (eid, id, name, type, class, prior, forms, attributes)",
       8,
     );
-    this.insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description)", 2);
-    this.insKey = new BatchInsert(db, "INSERT INTO keys (key, class, kind, eid)", 4);
+    this.insDetails = new BatchInsert(db, "INSERT INTO entity_details (eid, description, keys)", 3);
   }
 
   write(r: EntityRecord): void {
@@ -78,12 +76,14 @@ export class RowWriter {
     const packed: PackedForm[] = [];
     const nameKeys: string[] = [];
     const names: StoredName[] = [];
+    // The entity's keys as [kind, key] pairs, for entity_details.keys (see schema.ts).
+    const keyPairs: Array<[KeyKind, string]> = [];
     const add = (key: string | null, kind: KeyKind) => {
       if (key === null || key === "") return;
       const seen = this.seen[kind];
       if (seen.has(key)) return;
       seen.add(key);
-      this.insKey.add(key, cls, kind, eid);
+      keyPairs.push([kind, key]);
       this.hot.addKey(key, cls, kind, eid);
       this.keys++;
     };
@@ -123,7 +123,7 @@ export class RowWriter {
       packForms(packed),
       JSON.stringify(r.attributes),
     );
-    this.insDetails.add(eid, r.description);
+    this.insDetails.add(eid, r.description, JSON.stringify(keyPairs));
     for (const t of this.tokens) this.vocab.get(t)!.df++;
   }
 
@@ -141,6 +141,5 @@ export class RowWriter {
   flush(): void {
     this.insEntity.flush();
     this.insDetails.flush();
-    this.insKey.flush();
   }
 }
