@@ -131,7 +131,7 @@ const bitCount = (mask: number) => {
   return n;
 };
 /** A candidate while the pool is gathered: its paths as bits (see PATH_BIT). */
-export interface Found {
+interface Found {
   eid: number;
   cls: EntityClass;
   mask: number;
@@ -140,13 +140,16 @@ export interface Found {
 const isPrecise = (c: Found) => (c.mask & PRECISE_MASK) !== 0;
 /** Tier of a candidate when the list is capped: whole-key matches, sub-key matches, the rest. */
 const tierOf = (c: Found) => (isPrecise(c) ? 0 : c.mask & SUB_KEY_BIT ? 1 : 2);
-const toRaw = (c: Found): RawCandidate => {
-  const mask = c.mask & SUB_KEY_BIT ? c.mask | PATH_BIT.get("fts")! : c.mask;
+/** The candidate at position `i` of a pool. Its class is the entity's: every path checks it. */
+const toRaw = (kb: Kb, pool: CandidatePool, i: number): RawCandidate => {
+  const bits = pool.masks[i]!;
+  const mask = bits & SUB_KEY_BIT ? bits | PATH_BIT.get("fts")! : bits;
+  const eid = pool.eids[i]!;
   return {
-    eid: c.eid,
-    cls: c.cls,
+    eid,
+    cls: kb.hot.classOf(eid),
     paths: new Set(ALL_PATHS.filter((p) => (mask & PATH_BIT.get(p)!) !== 0)),
-    rank: c.rank,
+    rank: pool.ranks[i]!,
   };
 };
 /** Shortest token worth an FTS term: single letters are initials, matched by the initials path. */
@@ -186,7 +189,7 @@ export interface MentionForm {
  * mention's words (or their corrections) that entity `eids[i]`'s names may carry (from the
  * name-token signatures: it can say yes wrongly, never no wrongly).
  */
-export type PreRank = (eids: readonly number[], nameShare: Float64Array) => number[];
+export type PreRank = (eids: Int32Array, nameShare: Float64Array) => ArrayLike<number>;
 
 /**
  * Generate the candidates of one mention. `preRank`, when given, decides which candidates are
@@ -207,22 +210,26 @@ export function generateCandidates(
  * found, in the order the cut takes them (tier, number of paths, discovery), and the words
  * (with their corrections) the pre-rank's name share counts. It depends on the forms and the
  * options only, never on the context, so mentions with the same text and label can share one
- * (see src/link/surface-cache.ts). Treat it as read-only; `cutPool` fills its lazy parts.
+ * (see src/link/surface-cache.ts). Kept in typed arrays rather than an object per entity: a
+ * cache of pools is then a few objects each, which the garbage collector barely notices.
+ * Treat it as read-only; `cutPool` fills `shares`.
  */
 export interface CandidatePool {
-  readonly all: readonly Found[];
-  /** Candidates per tier: whole-key matches, sub-key matches, token-search and fuzzy hits. */
-  readonly counts: readonly [number, number, number];
+  /** Entity ids in the order the cut takes them (tier, most paths, discovery). */
+  readonly eids: Int32Array;
+  /** Paths of each, as bits (see PATH_BIT and SUB_KEY_BIT). */
+  readonly masks: Uint8Array;
+  /** Order of discovery of each, the last tie-break of the cut. */
+  readonly ranks: Int32Array;
+  /**
+   * Where each tier starts, and the end: whole-key matches from [0], sub-key matches from [1],
+   * token-search and fuzzy hits from [2], to [3].
+   */
+  readonly tierStart: readonly [number, number, number, number];
   readonly tokens: ReadonlySet<string>;
   readonly corrected: ReadonlyMap<string, string[]>;
-  /** Each tier's first PRE_RANK_MAX candidates, their entity ids and name shares, once computed. */
-  readonly tiers: Array<TierPool | undefined>;
-}
-
-interface TierPool {
-  found: Found[];
-  eids: number[];
-  share: Float64Array | undefined;
+  /** Name shares of each tier's first PRE_RANK_MAX candidates, once computed. */
+  readonly shares: Array<Float64Array | undefined>;
 }
 
 /** Everything the paths find for one mention's forms (see CandidatePool). */
@@ -396,9 +403,20 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
 
   const all = [...found.values()];
   all.sort((a, b) => tierOf(a) - tierOf(b) || bitCount(b.mask) - bitCount(a.mask) || a.rank - b.rank);
-  const counts: [number, number, number] = [0, 0, 0];
-  for (const c of all) counts[tierOf(c)]++;
-  return { all, counts, tokens, corrected, tiers: [undefined, undefined, undefined] };
+  const n = all.length;
+  const eids = new Int32Array(n);
+  const masks = new Uint8Array(n);
+  const ranks = new Int32Array(n);
+  const counts = [0, 0, 0];
+  for (let i = 0; i < n; i++) {
+    const c = all[i]!;
+    eids[i] = c.eid;
+    masks[i] = c.mask;
+    ranks[i] = c.rank;
+    counts[tierOf(c)]!++;
+  }
+  const tierStart: [number, number, number, number] = [0, counts[0]!, counts[0]! + counts[1]!, n];
+  return { eids, masks, ranks, tierStart, tokens, corrected, shares: [undefined, undefined, undefined] };
 }
 
 /**
@@ -412,51 +430,49 @@ export function cutPool(
   opts: CandidateOptions,
   preRank?: PreRank,
 ): RawCandidate[] {
-  const { all, counts } = pool;
+  const at = pool.tierStart;
+  const n = at[3];
   if (
-    all.length <= opts.maxCandidates &&
-    counts[1] <= opts.maxSearchCandidates &&
-    counts[2] <= opts.maxSearchCandidates
-  )
-    return all.map(toRaw);
+    n <= opts.maxCandidates &&
+    at[2] - at[1] <= opts.maxSearchCandidates &&
+    n - at[2] <= opts.maxSearchCandidates
+  ) {
+    const out: RawCandidate[] = [];
+    for (let i = 0; i < n; i++) out.push(toRaw(kb, pool, i));
+    return out;
+  }
   // Too many (many entities share one name, or one word). At most PRE_RANK_MAX candidates of a
-  // tier are weighed.
-  const out: Found[] = [];
-  const tierPool = (t: number): TierPool => {
-    let tier = pool.tiers[t];
-    if (tier === undefined) {
-      const found = all.filter((c) => tierOf(c) === t).slice(0, PRE_RANK_MAX);
-      tier = { found, eids: found.map((c) => c.eid), share: undefined };
-      pool.tiers[t] = tier;
-    }
-    return tier;
-  };
+  // tier are weighed. Positions in the pool's arrays are kept.
+  const out: number[] = [];
+  const tierEnd = (t: number) => Math.min(at[t + 1]!, at[t]! + PRE_RANK_MAX);
   // Whole-key matches first (up to maxCandidates); the room left goes to token-search hits and
   // sub-key matches, at most maxSearchCandidates each, split evenly when it cannot hold both.
-  const whole = tierPool(0);
-  const searchTier = tierPool(2);
-  const subTier = tierPool(1);
-  const keep = (t: TierPool, room: number) => {
+  const whole = 0;
+  const subTier = 1;
+  const searchTier = 2;
+  const keep = (t: number, room: number) => {
     if (room <= 0) return;
-    const tier = t.found;
-    if (tier.length <= room) {
-      out.push(...tier);
+    const start = at[t]!;
+    const end = tierEnd(t);
+    if (end - start <= room) {
+      for (let i = start; i < end; i++) out.push(i);
       return;
     }
-    const eids = t.eids;
-    t.share ??= nameShares(kb, eids, pool.tokens, pool.corrected);
-    const share = t.share;
+    const eids = pool.eids.subarray(start, end);
+    pool.shares[t] ??= nameShares(kb, eids, pool.tokens, pool.corrected);
+    const share = pool.shares[t]!;
     // Without a pre-rank: the share of the mention's words first, then popularity.
-    const pre = preRank ? preRank(eids, share) : Array.from(share);
+    const pre = preRank ? preRank(eids, share) : share;
     const prior = (i: number) => (preRank ? 0 : kb.hot.prior[eids[i]!]!);
-    const order = tier.map((_, i) => i);
-    order.sort((a, b) => pre[b]! - pre[a]! || prior(b) - prior(a) || tier[a]!.rank - tier[b]!.rank);
-    for (let k = 0; k < room; k++) out.push(tier[order[k]!]!);
+    const ranks = pool.ranks;
+    const order = Array.from({ length: end - start }, (_, i) => i);
+    order.sort((a, b) => pre[b]! - pre[a]! || prior(b) - prior(a) || ranks[start + a]! - ranks[start + b]!);
+    for (let k = 0; k < room; k++) out.push(start + order[k]!);
   };
   keep(whole, opts.maxCandidates);
   const left = opts.maxCandidates - out.length;
-  const wantSearch = Math.min(searchTier.found.length, opts.maxSearchCandidates);
-  const wantSub = Math.min(subTier.found.length, opts.maxSearchCandidates);
+  const wantSearch = Math.min(tierEnd(searchTier) - at[searchTier]!, opts.maxSearchCandidates);
+  const wantSub = Math.min(tierEnd(subTier) - at[subTier]!, opts.maxSearchCandidates);
   let roomSearch = wantSearch;
   let roomSub = wantSub;
   if (wantSearch + wantSub > left) {
@@ -466,7 +482,7 @@ export function cutPool(
   }
   keep(searchTier, roomSearch);
   keep(subTier, roomSub);
-  return out.map(toRaw);
+  return out.map((i) => toRaw(kb, pool, i));
 }
 
 /**
@@ -475,7 +491,7 @@ export function cutPool(
  */
 function nameShares(
   kb: Kb,
-  eids: readonly number[],
+  eids: ArrayLike<number>,
   tokens: ReadonlySet<string>,
   corrected: ReadonlyMap<string, string[]>,
 ): Float64Array {

@@ -244,14 +244,18 @@ export class Linker {
     // The type term of each class, by class code (hot.classCode).
     const typeTerm = ENTITY_CLASSES.map((c) => w.typeMatch * p.info.compat[c]);
     const priorOf = this.priorOf;
-    return (eids, nameShare) =>
-      eids.map(
-        (e, i) =>
+    return (eids, nameShare) => {
+      const out = new Float64Array(eids.length);
+      for (let i = 0; i < eids.length; i++) {
+        const e = eids[i]!;
+        out[i] =
           w.tokenSet * nameShare[i]! +
           (ctx === null ? 0 : w.context * hot.contextCosine(ctx, e)) +
           typeTerm[hot.classCode(e)]! +
-          w.prior * priorOf(hot.prior[e]!),
-      );
+          w.prior * priorOf(hot.prior[e]!);
+      }
+      return out;
+    };
   }
 
   /** Every generated candidate, scored, best first. */
@@ -281,7 +285,7 @@ export class Linker {
     const s = p.surface;
     if (s.pool === undefined) {
       s.pool = gatherPool(this.kb, p.forms, this.cand);
-      this.surfaces.grow(s, s.pool.all.length);
+      this.surfaces.grow(s, s.pool.eids.length);
     }
     return s.pool;
   }
