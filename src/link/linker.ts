@@ -78,7 +78,7 @@ export interface LinkerOptions {
    * Most distinct (text, label) pairs whose normalized forms and candidate pool are kept for
    * reuse by later mentions with the same text and label (see
    * src/link/surface-cache.ts); the output is the same with any value. 0 turns reuse off.
-   * Default 4,096.
+   * Default 1,024.
    */
   surfaceCache?: number;
 }
@@ -90,7 +90,7 @@ export interface LinkerOptions {
 export const MAX_DOCUMENT_MENTIONS = 5000;
 
 export const DEFAULT_TOP = 3;
-export const DEFAULT_SURFACE_CACHE = 4096;
+export const DEFAULT_SURFACE_CACHE = 1024;
 /**
  * Weight budget of the surface cache (pool members held, see SurfaceCache) per surface it may
  * hold, on average: a few surfaces with pools of thousands take the room of many.
