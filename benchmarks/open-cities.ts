@@ -16,11 +16,12 @@
  * - Baselines a practitioner writes by hand: folded exact name, most populous place when several
  *   match; and the same restricted to places whose country the context names.
  *
- *   npx tsc -p tsconfig.bench.json && node dist-bench/benchmarks/open-cities.js [--mentions 3000] [--seed 1] [--keep DIR]
+ *   npx tsc -p tsconfig.bench.json && node dist-bench/benchmarks/open-cities.js [--mentions 3000] [--seed 1] [--keep DIR] [--no-context]
  *
  * Prints one JSON line per method. `--keep DIR` leaves the table (cities.csv), the KB
  * (cities.kb) and the labeled mentions (cities-gold.jsonl) in DIR, for `hawser eval` and
- * `hawser tune`.
+ * `hawser tune`. `--no-context` gives the mentions no context (the country-restricted baseline
+ * still reads the country it would have named).
  */
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
@@ -104,6 +105,7 @@ async function main(): Promise<void> {
       mentions: { type: "string", default: "3000" },
       seed: { type: "string", default: "1" },
       keep: { type: "string" },
+      "no-context": { type: "boolean", default: false },
     },
   });
   const sample = Number(values.mentions);
@@ -162,7 +164,8 @@ async function main(): Promise<void> {
     const kb = openKb(join(dir, "cities.kb"));
     const linker = createLinker(kb);
     const started = performance.now();
-    const ours = mentions.map((m) => linker.link(m).entity);
+    const withContext = !values["no-context"];
+    const ours = mentions.map((m) => linker.link(withContext ? m : { ...m, context: undefined }).entity);
     const seconds = (performance.now() - started) / 1000;
     kb.close();
 
@@ -184,6 +187,7 @@ async function main(): Promise<void> {
       });
     const nil = gold.filter((g) => g === null).length;
     const common = {
+      context: withContext,
       entities: build.entities,
       mentions: mentions.length,
       nilShare: Math.round((nil / mentions.length) * 1000) / 1000,
