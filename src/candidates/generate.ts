@@ -217,7 +217,7 @@ export function generateCandidates(
 export interface CandidatePool {
   /** Entity ids in the order the cut takes them (tier, most paths, discovery). */
   readonly eids: Int32Array;
-  /** Paths of each, as bits (see PATH_BIT and SUB_KEY_BIT). */
+  /** Paths of each, as bits (see PATH_BIT and SUB_KEY_BIT: seven bits, so a byte holds them). */
   readonly masks: Uint8Array;
   /** Order of discovery of each, the last tie-break of the cut. */
   readonly ranks: Int32Array;
