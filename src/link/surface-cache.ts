@@ -1,17 +1,17 @@
 /**
- * Work shared by mentions with the same text and label. An archive names the same few thousand
- * entities over and over in the same few spellings; what follows from the spelling and the label
- * alone (the normalized forms, the candidate pool before the context-dependent cut) is computed
- * once per spelling and reused. (Name features against each candidate were kept too, at first:
- * they hold the candidates' alias rows, and the memory they cost outweighed the time saved.) The context
- * is weighed afresh for every mention, so a cached surface gives the same rows as a fresh one.
+ * Work shared by mentions with the same text and label. An archive names the same entities over
+ * and over in the same few spellings; what follows from the spelling and the label alone (the
+ * normalized forms, the candidate pool before the context-dependent cut) is computed once per
+ * spelling and reused. The context is weighed afresh for every mention, so a held surface gives
+ * the same rows as a fresh one. (Name features against each candidate were held too, at first:
+ * they keep the candidates' alias rows alive, and the memory cost outweighed the time saved.)
  *
  * A surface is held from its second sighting on: most spellings in a stream of mostly distinct
  * names are seen once, and holding each for a while only to drop it later makes the garbage
  * collector let the heap grow, though a surface is small (its pool is in typed arrays). At
  * 1,000,000 entities, on the benchmark's stream (85% distinct spellings, each mention linked and
- * then asked for its candidates), peak RSS was 365 MB without reuse, 443 MB holding surfaces from
- * their first sighting and 376 MB from their second.
+ * then asked for its candidates), with room for 4,096 surfaces, peak RSS was 443 MB holding
+ * surfaces from their first sighting and 376 MB from their second (365 MB without reuse).
  * Held surfaces are bounded two ways, least recently used first out: a number of surfaces, and a
  * weight (entities held in pools).
  */
