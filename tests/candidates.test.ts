@@ -5,7 +5,7 @@
  * invented (a river-port gazette's index, 1890-1930).
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { correctedReadings } from "../src/candidates/generate.js";
+import { correctedReadings, correctToken, DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
 import { buildKb } from "../src/kb/build.js";
 import { type Kb, openKb } from "../src/kb/kb.js";
 import { createLinker, type Linker } from "../src/link/linker.js";
@@ -176,6 +176,30 @@ describe("respelling a rare surname after a naming key match", () => {
   it("leaves a common surname as written: 'Ada Smithson' is not a slip for Smithsen", () => {
     expect(kb3().tokenDf("smithson")).toBe(25);
     expect(createLinker(kb3()).candidateIds(m("Ada Smithson"))).not.toContain("P32");
+  });
+});
+
+describe("correctToken", () => {
+  const kb4 = tableKb("correct", `${TABLE}\n`);
+  const opts = DEFAULT_CANDIDATE_OPTIONS;
+
+  it("corrects a misreading to the table's tokens within two edits, closest first", () => {
+    // "grimehurst" is one edit away (a dropped e), "grimerhurst" two (a dropped e and r).
+    expect(correctToken(kb4(), "grimhurst", opts)).toEqual(["grimehurst", "grimerhurst"]);
+    expect(correctToken(kb4(), "frobelsen", opts)).toEqual(["frobelson"]);
+    expect(correctToken(kb4(), "zzzzzzzz", opts)).toEqual([]);
+  });
+
+  it("answers a token asked again from memory, per KB and per setting", () => {
+    const first = correctToken(kb4(), "uddal", opts);
+    expect(first).toEqual(["uddale"]);
+    expect(correctToken(kb4(), "uddal", opts)).toBe(first); // the same list, not recomputed
+    // Another setting is another question: one edit does not reach "grimerhurst".
+    expect(correctToken(kb4(), "grimhurst", { ...opts, fuzzyMaxEdits: 1 })).toEqual(["grimehurst"]);
+    expect(correctToken(kb4(), "grimhurst", { ...opts, fuzzyMaxCorrections: 1 })).toHaveLength(1);
+    // Another KB (the crowded one holds the same tokens) keeps its own answers.
+    expect(correctToken(kb, "uddal", opts)).toEqual(first);
+    expect(correctToken(kb, "uddal", opts)).not.toBe(first);
   });
 });
 

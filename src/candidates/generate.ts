@@ -25,6 +25,7 @@ import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import { ocrFold } from "../normalize/ocr.js";
 import type { CandidatePath, EntityClass } from "../types.js";
+import { GenerationCache } from "../util/generation-cache.js";
 import { osaDistance } from "./edit-distance.js";
 
 export interface CandidateOptions {
@@ -227,7 +228,7 @@ export interface CandidatePool {
    */
   readonly tierStart: readonly [number, number, number, number];
   readonly tokens: ReadonlySet<string>;
-  readonly corrected: ReadonlyMap<string, string[]>;
+  readonly corrected: ReadonlyMap<string, readonly string[]>;
   /** Name shares of each tier's first PRE_RANK_MAX candidates, once computed. */
   readonly shares: Array<Float64Array | undefined>;
 }
@@ -325,8 +326,8 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
   // Corrections of unknown tokens feed token search and whole keys; a known token may be a
   // misreading too ("Grimehurst" is a name, and a slip for "Grimerhurst"), so the rarest known
   // tokens are corrected as well, for whole keys only.
-  const corrected = new Map<string, string[]>();
-  const respelled = new Map<string, string[]>();
+  const corrected = new Map<string, readonly string[]>();
+  const respelled = new Map<string, readonly string[]>();
   if (search && on.has("fuzzy")) {
     for (const t of unknown.slice(0, MAX_FUZZY_TOKENS)) {
       const fixes = correctToken(kb, t, opts);
@@ -493,7 +494,7 @@ function nameShares(
   kb: Kb,
   eids: ArrayLike<number>,
   tokens: ReadonlySet<string>,
-  corrected: ReadonlyMap<string, string[]>,
+  corrected: ReadonlyMap<string, readonly string[]>,
 ): Float64Array {
   const slots: Array<Array<[number, number]>> = [];
   for (const t of tokens) {
@@ -532,7 +533,7 @@ const MAX_CORRECTED_KEYS = 12;
  */
 export function correctedReadings(
   tokens: readonly string[],
-  options: ReadonlyMap<string, string[]>,
+  options: ReadonlyMap<string, readonly string[]>,
 ): string[][] {
   const alts = tokens.map((t) => options.get(t) ?? [t]);
   const base = alts.map((a) => a[0]!);
@@ -590,9 +591,38 @@ export function ocrReadings(token: string): string[] {
   return out;
 }
 
-/** Table tokens within `fuzzyMaxEdits` of an unknown token, closest first, then most frequent. */
-export function correctToken(kb: Kb, token: string, opts: CandidateOptions): string[] {
+/**
+ * Corrections kept per KB (see correctToken). A token's corrections are the same wherever it
+ * occurs, and a name's words recur across its spellings ("Wickakin" in "S. Wickakin" and
+ * "Wickakin, Samuel"): about half the corrections asked for while linking the 1,000,000-entity
+ * benchmark's mentions had been asked for before. An entry is a token and a few references to
+ * vocabulary strings.
+ */
+const CORRECTION_CACHE_SIZE = 10_000;
+const correctionCaches = new WeakMap<Kb, GenerationCache<string, readonly string[]>>();
+
+/**
+ * Table tokens within `fuzzyMaxEdits` of an unknown token, closest first, then most frequent
+ * (at most `fuzzyMaxCorrections`). The list may be shared between calls: do not change it.
+ */
+export function correctToken(kb: Kb, token: string, opts: CandidateOptions): readonly string[] {
   if (token.length < FUZZY_MIN_TOKEN_LENGTH) return [];
+  let cache = correctionCaches.get(kb);
+  if (cache === undefined) {
+    cache = new GenerationCache(CORRECTION_CACHE_SIZE);
+    correctionCaches.set(kb, cache);
+  }
+  const key = `${opts.fuzzyMaxEdits}\u0000${opts.fuzzyMaxCorrections}\u0000${token}`;
+  let fixes = cache.get(key);
+  if (fixes === undefined) {
+    fixes = corrections(kb, token, opts);
+    cache.set(key, fixes);
+  }
+  return fixes;
+}
+
+/** What correctToken returns, computed. */
+function corrections(kb: Kb, token: string, opts: CandidateOptions): string[] {
   const seen = new Map<string, number>();
   // Every reading's deletion variants in one batched lookup; distances are checked per reading.
   const readings: Array<[string, number]> = [[token, 0]];
