@@ -28,6 +28,7 @@ import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { parseArgs } from "node:util";
+import { figuresOf } from "../src/evaluate/metrics.js";
 import { buildKb } from "../src/kb/build.js";
 import { openKb } from "../src/kb/kb.js";
 import { createLinker } from "../src/link/linker.js";
@@ -66,36 +67,16 @@ function km(lat1: number, lon1: number, lat2: number, lon2: number): number {
   return EARTH_KM * Math.sqrt(x * x + y * y);
 }
 
-interface Scores {
-  accuracy: number;
-  precision: number;
-  recall: number;
-  f1: number;
-  wrongLinks: number;
-}
-
-function scores(gold: ReadonlyArray<string | null>, predicted: ReadonlyArray<string | null>): Scores {
-  let right = 0;
-  let links = 0;
-  let correctLinks = 0;
-  let goldLinks = 0;
-  for (let i = 0; i < gold.length; i++) {
-    if (predicted[i] === gold[i]) right++;
-    if (gold[i] !== null) goldLinks++;
-    if (predicted[i] !== null) {
-      links++;
-      if (predicted[i] === gold[i]) correctLinks++;
-    }
-  }
-  const precision = links === 0 ? 0 : correctLinks / links;
-  const recall = goldLinks === 0 ? 0 : correctLinks / goldLinks;
+/** The figures this benchmark prints, to three decimals (see src/evaluate/metrics.ts). */
+function scores(gold: ReadonlyArray<string | null>, predicted: ReadonlyArray<string | null>) {
+  const f = figuresOf(gold, predicted);
   const r3 = (x: number) => Math.round(x * 1000) / 1000;
   return {
-    accuracy: r3(right / gold.length),
-    precision: r3(precision),
-    recall: r3(recall),
-    f1: r3(precision + recall === 0 ? 0 : (2 * precision * recall) / (precision + recall)),
-    wrongLinks: links - correctLinks,
+    accuracy: r3(f.accuracy),
+    precision: r3(f.linkPrecision),
+    recall: r3(f.linkRecall),
+    f1: r3(f.linkF1),
+    wrongLinks: f.predictedLinks - f.correctLinks,
   };
 }
 

@@ -370,16 +370,19 @@ async function orchestrate(o: CliOptions): Promise<void> {
       const linkMps = linkLines.find((l) => l.measure === "link")?.mentionsPerSecond;
       const oursAll = linkLines.find((l) => l.measure === "pairs-completeness")?.value;
       for (const line of spawnPhase("brute", cfg)) {
-        if (line.measure === "brute-force" && typeof linkMps === "number") {
-          const bruteMps = line.mentionsPerSecond as number;
-          line.speedRatio = bruteMps > 0 ? Math.round(linkMps / bruteMps) : null;
-        }
-        // The same ratio with ours taken over every non-NIL mention rather than the sample: at a
-        // million entities the sample is small (one mention moves the paired ratio by over 1%),
-        // while ours over all mentions is exact. The target is still judged on the paired ratio.
-        if (line.measure === "brute-force" && typeof oursAll === "number") {
-          const brute = line.pairsCompleteness as number;
-          line.completenessRatioAllMentions = brute > 0 ? round(oursAll / brute) : null;
+        if (line.measure === "brute-force") {
+          if (typeof linkMps === "number") {
+            const bruteMps = line.mentionsPerSecond as number;
+            line.speedRatio = bruteMps > 0 ? Math.round(linkMps / bruteMps) : null;
+          }
+          // The completeness ratio with ours taken over every non-NIL mention rather than the
+          // sample: at a million entities the sample is small (one mention moves the paired ratio
+          // by over 1%), while ours over all mentions is exact. The target is still judged on the
+          // paired ratio.
+          if (typeof oursAll === "number") {
+            const brute = line.pairsCompleteness as number;
+            line.completenessRatioAllMentions = brute > 0 ? round(oursAll / brute) : null;
+          }
         }
         emit(line);
       }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { evaluate, formatEvalTable } from "../src/evaluate/metrics.js";
+import { evaluate, figuresOf, formatEvalTable } from "../src/evaluate/metrics.js";
 import { gold, row } from "./eval-helpers.js";
 
 // Six invented mentions covering every outcome; the expected figures below are hand-computed.
@@ -58,6 +58,15 @@ describe("evaluate", () => {
     expect(o.linkF1).toBeCloseTo(2 / 7, 12); // 2PR/(P+R) = (1/6)/(7/12)
     expect(o.nilPrecision).toBeCloseTo(1 / 3, 12);
     expect(o.nilRecall).toBeCloseTo(1 / 2, 12);
+  });
+
+  it("gives the same overall figures from bare entity ids (figuresOf)", () => {
+    const ids = figuresOf(
+      pairs.map((p) => p.gold.gold),
+      pairs.map((p) => p.predicted?.entity ?? null),
+    );
+    expect(ids).toEqual(report.overall);
+    expect(() => figuresOf([null], [])).toThrow(/differ in length/);
   });
 
   it("splits figures by mention type", () => {

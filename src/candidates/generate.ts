@@ -16,7 +16,7 @@
  * gets room of its own instead of competing with the hundreds of entities that share one word
  * (recorded as found by "fts").
  * The candidate list is capped: whole-key matches first, then the room left is shared by
- * token-search and fuzzy hits and by sub-key matches (see the end of generateCandidates).
+ * token-search and fuzzy hits and by sub-key matches (see cutPool).
  */
 import { deletionVariants, FUZZY_MIN_TOKEN_LENGTH } from "../kb/deletions.js";
 import { tokenBits } from "../kb/hot.js";
@@ -134,7 +134,6 @@ const bitCount = (mask: number) => {
 /** A candidate while the pool is gathered: its paths as bits (see PATH_BIT). */
 interface Found {
   eid: number;
-  cls: EntityClass;
   mask: number;
   rank: number;
 }
@@ -193,20 +192,6 @@ export interface MentionForm {
 export type PreRank = (eids: Int32Array, nameShare: Float64Array) => ArrayLike<number>;
 
 /**
- * Generate the candidates of one mention. `preRank`, when given, decides which candidates are
- * kept when more than maxCandidates are found; without it, the share of the mention's words,
- * then popularity decide.
- */
-export function generateCandidates(
-  kb: Kb,
-  forms: readonly MentionForm[],
-  opts: CandidateOptions,
-  preRank?: PreRank,
-): RawCandidate[] {
-  return cutPool(kb, gatherPool(kb, forms, opts), opts, preRank);
-}
-
-/**
  * What candidate generation finds for one mention's forms before the list is cut: every entity
  * found, in the order the cut takes them (tier, number of paths, discovery), and the words
  * (with their corrections) the pre-rank's name share counts. It depends on the forms and the
@@ -237,12 +222,13 @@ export interface CandidatePool {
 export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: CandidateOptions): CandidatePool {
   const found = new Map<number, Found>();
   let order = 0;
-  const addBits = (eid: number, cls: EntityClass, bits: number) => {
+  // Every path checks the entity's class before adding it, so the pool need not hold it.
+  const addBits = (eid: number, bits: number) => {
     const c = found.get(eid);
     if (c) c.mask |= bits;
-    else found.set(eid, { eid, cls, mask: bits, rank: order++ });
+    else found.set(eid, { eid, mask: bits, rank: order++ });
   };
-  const add = (eid: number, cls: EntityClass, path: CandidatePath) => addBits(eid, cls, PATH_BIT.get(path)!);
+  const add = (eid: number, path: CandidatePath) => addBits(eid, PATH_BIT.get(path)!);
   const classes = new Set(forms.map((f) => f.cls));
   const on = opts.paths;
 
@@ -279,7 +265,7 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
       kb.forEachKeyHit(key, (cls, kind, eid) => {
         for (const p of list)
           if (p.cls === cls && p.kind === kind) {
-            add(eid, cls, p.path);
+            add(eid, p.path);
             if (p.names) named = true;
           }
       });
@@ -373,7 +359,7 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
       for (const sub of [norm.tokens.slice(1), norm.tokens.slice(0, -1)]) {
         const key = sub.join(" ");
         const each = (hitCls: EntityClass, kind: KeyKind, eid: number) => {
-          if (hitCls === cls && (kind === "exact" || kind === "ocr")) addBits(eid, cls, SUB_KEY_BIT);
+          if (hitCls === cls && (kind === "exact" || kind === "ocr")) addBits(eid, SUB_KEY_BIT);
         };
         kb.forEachKeyHit(key, each);
         const ocr = ocrFold(key);
@@ -399,7 +385,7 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
   }
   for (const [eid, path] of searched) {
     const cls = kb.hot.classOf(eid);
-    if (classes.has(cls)) add(eid, cls, path);
+    if (classes.has(cls)) add(eid, path);
   }
 
   const all = [...found.values()];

@@ -129,6 +129,17 @@ function add(t: FigureCounts, gold: string | null, predicted: string | null): vo
   }
 }
 
+/** The figures of predicted entity ids (null: NIL) against gold ones, without rows. */
+export function figuresOf(
+  gold: ReadonlyArray<string | null>,
+  predicted: ReadonlyArray<string | null>,
+): Figures {
+  if (gold.length !== predicted.length) throw new Error("figuresOf: gold and predictions differ in length");
+  const t = emptyFigureCounts();
+  for (let i = 0; i < gold.length; i++) add(t, gold[i] ?? null, predicted[i] ?? null);
+  return figuresFromCounts(t);
+}
+
 /** Fractions from raw counts (exported for the tuning sweep, which counts without rows). */
 export function figuresFromCounts(t: FigureCounts): Figures {
   const linkPrecision = ratio(t.correctLinks, t.predictedLinks);

@@ -6,12 +6,12 @@
 import {
   ALL_PATHS,
   type CandidateOptions,
-  type CandidatePool,
   DEFAULT_CANDIDATE_OPTIONS,
   cutPool,
   gatherPool,
   type MentionForm,
   type PreRank,
+  type RawCandidate,
 } from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
 import type { EntityRow, Kb } from "../kb/kb.js";
@@ -266,7 +266,7 @@ export class Linker {
 
   private scorePrepared(p: Prepared): ScoredCandidate[] {
     if (p.forms.length === 0) return [];
-    const raw = cutPool(this.kb, this.poolOf(p), this.cand, this.preRankFor(p));
+    const raw = this.candidatesOf(p);
     const rows = this.kb.entities(raw.map((c) => c.eid));
     const out = raw.map((c, i) => this.scoreOne(p, rows[i]!, c.cls, c.paths));
     return out.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
@@ -276,18 +276,18 @@ export class Linker {
   candidateIds(m: Mention): string[] {
     const p = this.prepare(m);
     if (p.forms.length === 0) return [];
-    const raw = cutPool(this.kb, this.poolOf(p), this.cand, this.preRankFor(p));
+    const raw = this.candidatesOf(p);
     return this.kb.entities(raw.map((c) => c.eid)).map((e) => e.id);
   }
 
-  /** The mention's candidate pool, gathered once per surface. */
-  private poolOf(p: Prepared): CandidatePool {
+  /** The mention's candidates: its surface's pool (gathered once per surface), cut for its context. */
+  private candidatesOf(p: Prepared): RawCandidate[] {
     const s = p.surface;
     if (s.pool === undefined) {
       s.pool = gatherPool(this.kb, p.forms, this.cand);
       this.surfaces.grow(s, s.pool.eids.length);
     }
-    return s.pool;
+    return cutPool(this.kb, s.pool, this.cand, this.preRankFor(p));
   }
 
   private analyze(m: Mention): Analysis {
