@@ -63,7 +63,10 @@ export interface Features {
   tokenSet: number;
   /** 1 when the mention is compatible as initials or an acronym of an alias, else 0. */
   abbreviation: number;
-  /** 1 when a normalized key of the mention equals a key of an alias, else 0. */
+  /**
+   * 1 when the mention's normalized key equals an alias's key (less when only their qualifiers,
+   * legal form or place designator, differ; 0.75 when only the OCR-folded keys agree), else 0.
+   */
   exactKey: number;
   /** TF-IDF cosine between the mention's context words and the entity's description and attributes. */
   context: number;

@@ -91,6 +91,37 @@ describe("normalizeName: organizations and places", () => {
     expect(normalizeName("St. Wenna Mills", "organization").key).toBe("saint wenna mills");
   });
 
+  it("sets a leading place designator aside from the key and keeps it in the full form", () => {
+    const official = normalizeName("Republic of Korea", "location");
+    expect(official.key).toBe("korea");
+    expect(official.full).toBe("korea republic");
+    expect(normalizeName("Kingdom of the Netherlands", "location").key).toBe("netherlands");
+    expect(normalizeName("Grand Duchy of Luxembourg", "location").key).toBe("luxembourg");
+    expect(normalizeName("Federated States of Micronesia", "location").key).toBe("micronesia");
+    // Nested designators, one after the other.
+    expect(normalizeName("Republic of the Union of Myanmar", "location").key).toBe("myanmar");
+    // A catalogue inversion is read first: "Korea, Democratic People's Republic of".
+    const dprk = normalizeName("Korea, Democratic People's Republic of", "location");
+    expect(dprk.key).toBe("korea");
+    expect(dprk.full).toBe("korea democratic peoples republic");
+    // The gazette's own forms.
+    expect(normalizeName("City of Thornford", "location").key).toBe("thornford");
+    expect(normalizeName("Borough of St. Wenna", "location").key).toBe("saint wenna");
+  });
+
+  it("leaves designator words alone where they are the name", () => {
+    // "United" is no modifier: the designator is the name people use.
+    expect(normalizeName("United States of America", "location").key).toBe("united states of america");
+    // Not leading, or nothing after it, or not followed by "of".
+    expect(normalizeName("Dominican Republic", "location").key).toBe("dominican republic");
+    expect(normalizeName("Republic of", "location").key).toBe("republic of");
+    expect(normalizeName("Kingdom Landing", "location").key).toBe("kingdom landing");
+    // Only places: a firm or a person keeps the words.
+    expect(normalizeName("City of Thornford Gas Company", "organization").tokens[0]).toBe("city");
+    // The acronym still spells the designator: "USA", "UAE", "ROK".
+    expect(normalizeName("Republic of South Wenna", "location").acronymKey).toBe("rsw");
+  });
+
   it("leaves place abbreviations alone for persons", () => {
     // "St." in a person's name is not a place ("Josiah St. Aldous" keeps "st").
     expect(normalizeName("Josiah St. Aldous", "person").tokens).toContain("st");

@@ -38,6 +38,13 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `normalized text equals ${aliasWord} "${alias.text}"`,
       alias: alias.text,
     });
+    if (c.features.exactKey < 1) {
+      out.push({
+        code: "qualifier-differs",
+        message: "same name, but its legal form or place designator differs or is missing",
+        exactKey: r3(c.features.exactKey),
+      });
+    }
   } else if (c.name_.keyKind === "ocr") {
     out.push({
       code: "ocr-key",

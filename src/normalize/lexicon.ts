@@ -167,6 +167,75 @@ export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = {
   lwr: "lower",
 };
 
+/**
+ * Head words of a place designator: the "Republic of" in "Republic of Korea", the "City of" in
+ * "City of Thornford". A leading "<head> of [the]" phrase is set aside from a place's key (and
+ * kept in its full form), as legal forms are from a firm's: official and short names then share a
+ * key. "United" is no modifier on purpose: in "United States of America" the designator is the
+ * name people use ("Federated States of Micronesia" is "Micronesia"). Common practice of
+ * gazetteers and country lists.
+ */
+export const PLACE_DESIGNATOR_HEADS: ReadonlySet<string> = new Set([
+  "republic",
+  "kingdom",
+  "state",
+  "commonwealth",
+  "principality",
+  "duchy",
+  "sultanate",
+  "emirate",
+  "territory",
+  "city",
+  "town",
+  "township",
+  "borough",
+  "village",
+  "county",
+  "parish",
+  "province",
+  "district",
+  "municipality",
+  "states",
+  "federation",
+  "union",
+  "nation",
+  "dominion",
+  "colony",
+  "protectorate",
+  "canton",
+  "department",
+  "collectivity",
+  "bailiwick",
+]);
+
+/**
+ * Words that may precede a designator head inside the phrase ("Federal Republic of",
+ * "Democratic People's Republic of", "Grand Duchy of", "Independent State of").
+ */
+export const PLACE_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
+  "democratic",
+  "peoples",
+  "federal",
+  "federative",
+  "federated",
+  "socialist",
+  "islamic",
+  "arab",
+  "plurinational",
+  "bolivarian",
+  "oriental",
+  "independent",
+  "sovereign",
+  "cooperative",
+  "co",
+  "operative",
+  "hashemite",
+  "grand",
+  "royal",
+  "free",
+  "and",
+]);
+
 /** Joiner words skipped when forming an acronym ("Bank of the Delta" -> "bd"). */
 export const ACRONYM_SKIP: ReadonlySet<string> = new Set([
   "and",

@@ -12,21 +12,29 @@ import {
   HONORIFICS,
   LEGAL_FORMS,
   PLACE_ABBREVIATIONS,
+  PLACE_DESIGNATOR_HEADS,
+  PLACE_DESIGNATOR_MODIFIERS,
   VESSEL_PREFIXES,
 } from "./lexicon.js";
 import { ocrFold } from "./ocr.js";
 
 /** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
-export const NORMALIZER_VERSION = "1";
+export const NORMALIZER_VERSION = "2";
 
 export interface NormalizedName {
   /** Every folded token of the input, nothing removed. */
   folded: string[];
-  /** Core tokens: honorifics, generational suffixes and legal forms removed, abbreviations expanded, order fixed. */
+  /**
+   * Core tokens: honorifics, generational suffixes, legal forms and place designators removed,
+   * abbreviations expanded, order fixed.
+   */
   tokens: string[];
   /** `tokens` joined by single spaces: the exact-lookup key. */
   key: string;
-  /** Core tokens plus canonical legal form and suffix: the form string similarity compares. */
+  /**
+   * Core tokens plus canonical legal form, place designator or suffix (the qualifiers): the form
+   * string similarity compares. Equals `key` when the name has no qualifier.
+   */
   full: string;
   /** OCR-folded key (see ocr.ts), spaces removed. */
   ocrKey: string;
@@ -213,8 +221,33 @@ function joinLetterRuns(tokens: string[]): string[] {
   return out;
 }
 
+/**
+ * Length of a leading place designator, "<modifiers> <head> of [the]" ("Republic of", "Grand Duchy
+ * of", "City of the"), in tokens; 0 when there is none or nothing would be left after it.
+ */
+export function designatorLength(tokens: readonly string[]): number {
+  let i = 0;
+  while (i < tokens.length && PLACE_DESIGNATOR_MODIFIERS.has(tokens[i]!)) i++;
+  if (i >= tokens.length || !PLACE_DESIGNATOR_HEADS.has(tokens[i]!)) return 0;
+  i++;
+  if (tokens[i] !== "of") return 0;
+  i++;
+  if (tokens[i] === "the") i++;
+  return i < tokens.length ? i : 0;
+}
+
+/** Joiner words of a designator phrase, left out of the full form ("republic of the" -> "republic"). */
+const DESIGNATOR_JOINERS: ReadonlySet<string> = new Set(["of", "the", "and"]);
+
 function stripLocation(tokens: string[]): Stripped {
-  return { tokens: tokens.map((t) => PLACE_ABBREVIATIONS[t] ?? t), suffix: null, legal: [] };
+  let core = tokens.map((t) => PLACE_ABBREVIATIONS[t] ?? t);
+  const legal: string[] = [];
+  // Nested designators go one after the other: "Republic of the Union of Myanmar".
+  for (let d = designatorLength(core); d > 0; d = designatorLength(core)) {
+    for (const t of core.slice(0, d)) if (!DESIGNATOR_JOINERS.has(t)) legal.push(t);
+    core = core.slice(d);
+  }
+  return { tokens: core, suffix: null, legal };
 }
 
 /**
@@ -222,7 +255,8 @@ function stripLocation(tokens: string[]): Stripped {
  * - person: "Last, First" reordered, leading honorifics removed, generational suffix split off,
  *   clerks' given-name abbreviations expanded (Jno. -> john);
  * - organization: legal forms removed from the key (kept canonical in `full`), place abbreviations expanded;
- * - location: place abbreviations expanded (St. -> saint, Ft. -> fort, Pt. -> port, Mt. -> mount);
+ * - location: place abbreviations expanded (St. -> saint, Ft. -> fort, Pt. -> port, Mt. -> mount),
+ *   a leading designator ("Republic of", "City of the") removed from the key (kept in `full`);
  * - other: vessel prefixes (S.S., P.S., H.M.S....) removed from the key.
  * Every class: digits inside words are read as the letters OCR mistakes them for ("A1dous" ->
  * "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
@@ -254,7 +288,9 @@ export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
   for (const l of s.legal) fullParts.push(l);
   if (s.suffix !== null) fullParts.push(s.suffix);
   const acronym = readAcronym(raw);
-  const acronymKey = cls !== "person" && s.tokens.length >= 2 ? acronymOfTokens(s.tokens) : null;
+  // A place's acronym spells its designator too: "USA", "UAE", "DRC".
+  const acronymTokens = cls === "location" && s.legal.length > 0 ? folded : s.tokens;
+  const acronymKey = cls !== "person" && acronymTokens.length >= 2 ? acronymOfTokens(acronymTokens) : null;
   let initialsKey: string | null = null;
   if (cls === "person" && s.tokens.length >= 2) {
     initialsKey = `${s.tokens[0]![0]} ${s.tokens[s.tokens.length - 1]}`;
