@@ -109,9 +109,28 @@ describe("normalizeName: organizations and places", () => {
     expect(normalizeName("Borough of St. Wenna", "location").key).toBe("saint wenna");
   });
 
+  it("reads a bracketed catalogue inversion, and drops other asides", () => {
+    const kr = normalizeName("Korea (the Republic of)", "location");
+    expect(kr.key).toBe("korea");
+    expect(kr.full).toBe("korea republic");
+    expect(normalizeName("Congo (the Democratic Republic of the)", "location").full).toBe(
+      normalizeName("Democratic Republic of the Congo", "location").full,
+    );
+    expect(normalizeName("Wexcombe Dock Company (The)", "organization").key).toBe("wexcombe dock");
+    expect(normalizeName("Virgin Isles (British)", "location").key).toBe("virgin isles");
+    // Persons keep their asides out of the key, never inverted.
+    expect(normalizeName("Josiah Pell (master of)", "person").key).toBe("josiah pell");
+    // The acronym spells the designator: "DRC".
+    expect(normalizeName("Congo (the Democratic Republic of the)", "location").acronymKey).toBe("drc");
+  });
+
   it("leaves designator words alone where they are the name", () => {
-    // "United" is no modifier: the designator is the name people use.
+    // After "united", "states" and "kingdom" are the name people use ("United Republic of" is not).
     expect(normalizeName("United States of America", "location").key).toBe("united states of america");
+    expect(normalizeName("United Kingdom of Carrow and Wenna", "location").key).toBe(
+      "united kingdom of carrow and wenna",
+    );
+    expect(normalizeName("United Republic of Carrow", "location").key).toBe("carrow");
     // Not leading, or nothing after it, or not followed by "of".
     expect(normalizeName("Dominican Republic", "location").key).toBe("dominican republic");
     expect(normalizeName("Republic of", "location").key).toBe("republic of");

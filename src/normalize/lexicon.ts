@@ -171,9 +171,8 @@ export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = {
  * Head words of a place designator: the "Republic of" in "Republic of Korea", the "City of" in
  * "City of Thornford". A leading "<head> of [the]" phrase is set aside from a place's key (and
  * kept in its full form), as legal forms are from a firm's: official and short names then share a
- * key. "United" is no modifier on purpose: in "United States of America" the designator is the
- * name people use ("Federated States of Micronesia" is "Micronesia"). Common practice of
- * gazetteers and country lists.
+ * key. Common practice of gazetteers and country lists. (In "United States of America" and
+ * "United Kingdom of..." the designator is the name people use: see designatorLength.)
  */
 export const PLACE_DESIGNATOR_HEADS: ReadonlySet<string> = new Set([
   "republic",
@@ -218,6 +217,7 @@ export const PLACE_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
   "federal",
   "federative",
   "federated",
+  "united",
   "socialist",
   "islamic",
   "arab",

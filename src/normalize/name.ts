@@ -98,6 +98,18 @@ function reorderInverted(raw: string): string {
   return `${tail} ${head}`;
 }
 
+/**
+ * The same inversion in brackets, as ISO-style country lists write it: "Korea (the Republic of)"
+ * -> "the Republic of Korea", "Congo (the Democratic Republic of the)". Only a closing aside
+ * ending in "of" or "of the" is read so; other asides are dropped (dropParenthesized).
+ */
+const BRACKETED_INVERSION = /^(.*\S)\s*\(([^()]*\bof(?:\s+the)?)\s*\)\s*$/i;
+
+function reorderBracketed(raw: string): string {
+  const m = BRACKETED_INVERSION.exec(raw);
+  return m === null ? raw : `${m[2]!.trim()} ${m[1]!}`;
+}
+
 /** "Aldous, J. H." -> "J. H. Aldous" when the text is one comma between two non-empty parts. */
 function reorderLastFirst(raw: string): string {
   const parts = raw.split(",");
@@ -226,6 +238,7 @@ function joinLetterRuns(tokens: string[]): string[] {
  * of", "City of the"), in tokens; 0 when there is none or nothing would be left after it.
  */
 export function designatorLength(tokens: readonly string[]): number {
+  if (tokens[0] === "united" && NAMED_BY_DESIGNATOR.has(tokens[1]!)) return 0;
   let i = 0;
   while (i < tokens.length && PLACE_DESIGNATOR_MODIFIERS.has(tokens[i]!)) i++;
   if (i >= tokens.length || !PLACE_DESIGNATOR_HEADS.has(tokens[i]!)) return 0;
@@ -235,6 +248,12 @@ export function designatorLength(tokens: readonly string[]): number {
   if (tokens[i] === "the") i++;
   return i < tokens.length ? i : 0;
 }
+
+/**
+ * Heads that, after "united", are the name people use rather than a designator: "United States
+ * of America", "United Kingdom of Great Britain..." (but "United Republic of Tanzania" is Tanzania).
+ */
+const NAMED_BY_DESIGNATOR: ReadonlySet<string> = new Set(["states", "kingdom"]);
 
 /** Joiner words of a designator phrase, left out of the full form ("republic of the" -> "republic"). */
 const DESIGNATOR_JOINERS: ReadonlySet<string> = new Set(["of", "the", "and"]);
@@ -262,7 +281,7 @@ function stripLocation(tokens: string[]): Stripped {
  * "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
  */
 export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
-  const bare = dropParenthesized(raw);
+  const bare = dropParenthesized(cls === "person" ? raw : reorderBracketed(raw));
   const text = cls === "person" ? reorderLastFirst(bare) : reorderInverted(bare);
   const all = foldTokens(text);
   let lead = 0;

@@ -110,7 +110,7 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       keyKind = "ocr";
     }
     if (abbr < 1) {
-      if (norm.acronym !== null && a.tokens.length >= 2 && norm.acronym === acronymOfTokens(a.tokens)) {
+      if (norm.acronym !== null && aliasAcronyms(a).includes(norm.acronym)) {
         abbr = 1;
         abbreviationKind = "acronym";
       } else if (personLike && initialsCompatible(norm.tokens, a.tokens)) {
@@ -142,6 +142,20 @@ export function tokenOverlap(a: readonly string[], b: readonly string[]): number
   const matched = (dice * (a.length + b.length)) / 2;
   const overlap = Math.min(1, matched / Math.min(a.length, b.length));
   return (dice + overlap) / 2;
+}
+
+/**
+ * The acronyms an alias answers to: of its core tokens (two or more), and of its place designator
+ * and core ("DRC" for "Democratic Republic of the Congo", whose key is "congo"); the full form
+ * holds the core first, then the qualifier words (see normalizeName).
+ */
+function aliasAcronyms(a: AliasRow): string[] {
+  const out = a.tokens.length >= 2 ? [acronymOfTokens(a.tokens)] : [];
+  if (a.full.length > a.key.length && a.full.startsWith(a.key)) {
+    const qualifier = a.full.slice(a.key.length).trim().split(" ");
+    out.push(acronymOfTokens([...qualifier, ...a.tokens]));
+  }
+  return out;
 }
 
 /** A person alias's generational suffix: the token its full form has beyond its key. */
