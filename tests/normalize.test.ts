@@ -124,6 +124,14 @@ describe("normalizeName: organizations and places", () => {
     expect(normalizeName("Congo (the Democratic Republic of the)", "location").acronymKey).toBe("drc");
   });
 
+  it("drops asides, nested ones too, and keeps the text of unclosed brackets", () => {
+    expect(normalizeName("Falkland Isles (Malvinas)", "location").key).toBe("falkland isles");
+    expect(normalizeName("Falkland Isles (Malvinas (old))", "location").key).toBe("falkland isles");
+    expect(normalizeName("Pell [dec.] & Co.", "organization").key).toBe("pell");
+    expect(normalizeName("((( Wenna", "location").key).toBe("wenna");
+    expect(normalizeName("(Wenna)", "location").key).toBe("wenna");
+  });
+
   it("leaves designator words alone where they are the name", () => {
     // After "united", "states" and "kingdom" are the name people use ("United Republic of" is not).
     expect(normalizeName("United States of America", "location").key).toBe("united states of america");

@@ -75,13 +75,25 @@ export function acronymOfTokens(tokens: readonly string[]): string {
   return out;
 }
 
-/** Parenthesized asides ("Falkland Islands (Malvinas)", "Pell (deceased)") are not part of the name key. */
-const PARENTHESIZED = /\s*[([{][^)\]}]*[)\]}]\s*/g;
+/**
+ * Parenthesized asides ("Falkland Islands (Malvinas)", "Pell (deceased)") are not part of the name
+ * key. The innermost brackets match (no bracket inside), so a run of unclosed brackets in a long
+ * text is scanned once rather than once per bracket.
+ */
+const PARENTHESIZED = /[([{][^()[\]{}]*[)\]}]/g;
+/** Nested asides removed, innermost first: "(Malvinas (old))" takes two passes. */
+const MAX_ASIDE_NESTING = 3;
 /** Leading articles carry no identity: "The Gambia" is "Gambia", "The Pell Line" is "Pell Line". */
 const LEADING_ARTICLES: ReadonlySet<string> = new Set(["the"]);
 
 function dropParenthesized(raw: string): string {
-  const stripped = raw.replace(PARENTHESIZED, " ").trim();
+  let stripped = raw;
+  for (let pass = 0; pass < MAX_ASIDE_NESTING; pass++) {
+    const next = stripped.replace(PARENTHESIZED, " ");
+    if (next === stripped) break;
+    stripped = next;
+  }
+  stripped = stripped.trim();
   return stripped.length > 0 ? stripped : raw;
 }
 
