@@ -104,6 +104,10 @@ describe("normalizeName: organizations and places", () => {
     const dprk = normalizeName("Korea, Democratic People's Republic of", "location");
     expect(dprk.key).toBe("korea");
     expect(dprk.full).toBe("korea democratic peoples republic");
+    // Abbreviated designators, read as such inside the phrase only.
+    expect(normalizeName("Rep. of Korea", "location").full).toBe(official.full);
+    expect(normalizeName("Fed. Rep. of Carrow", "location").key).toBe("carrow");
+    expect(normalizeName("Dist. Marsh", "location").key).toBe("dist marsh");
     // The gazette's own forms.
     expect(normalizeName("City of Thornford", "location").key).toBe("thornford");
     expect(normalizeName("Borough of St. Wenna", "location").key).toBe("saint wenna");

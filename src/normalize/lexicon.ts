@@ -236,6 +236,23 @@ export const PLACE_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
   "and",
 ]);
 
+/**
+ * Abbreviated designator words, read as the word inside a designator phrase only ("Rep. of
+ * Korea", "Fed. Rep. of Germany", "Twp. of Marsh"); elsewhere they stay as written.
+ */
+export const DESIGNATOR_ABBREVIATIONS: Readonly<Record<string, string>> = {
+  rep: "republic",
+  repub: "republic",
+  fed: "federal",
+  dem: "democratic",
+  twp: "township",
+  prov: "province",
+  terr: "territory",
+  boro: "borough",
+  dept: "department",
+  dist: "district",
+};
+
 /** Joiner words skipped when forming an acronym ("Bank of the Delta" -> "bd"). */
 export const ACRONYM_SKIP: ReadonlySet<string> = new Set([
   "and",

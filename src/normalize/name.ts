@@ -7,6 +7,7 @@ import type { EntityClass } from "../types.js";
 import { foldTokens } from "./fold.js";
 import {
   ACRONYM_SKIP,
+  DESIGNATOR_ABBREVIATIONS,
   GENERATIONAL,
   GIVEN_NAME_ABBREVIATIONS,
   HONORIFICS,
@@ -252,8 +253,8 @@ function joinLetterRuns(tokens: string[]): string[] {
 export function designatorLength(tokens: readonly string[]): number {
   if (tokens[0] === "united" && NAMED_BY_DESIGNATOR.has(tokens[1]!)) return 0;
   let i = 0;
-  while (i < tokens.length && PLACE_DESIGNATOR_MODIFIERS.has(tokens[i]!)) i++;
-  if (i >= tokens.length || !PLACE_DESIGNATOR_HEADS.has(tokens[i]!)) return 0;
+  while (i < tokens.length && PLACE_DESIGNATOR_MODIFIERS.has(designatorWord(tokens[i]!))) i++;
+  if (i >= tokens.length || !PLACE_DESIGNATOR_HEADS.has(designatorWord(tokens[i]!))) return 0;
   i++;
   if (tokens[i] !== "of") return 0;
   i++;
@@ -267,6 +268,11 @@ export function designatorLength(tokens: readonly string[]): number {
  */
 const NAMED_BY_DESIGNATOR: ReadonlySet<string> = new Set(["states", "kingdom"]);
 
+/** A designator word as written or abbreviated ("rep" -> "republic"). */
+function designatorWord(token: string): string {
+  return DESIGNATOR_ABBREVIATIONS[token] ?? token;
+}
+
 /** Joiner words of a designator phrase, left out of the full form ("republic of the" -> "republic"). */
 const DESIGNATOR_JOINERS: ReadonlySet<string> = new Set(["of", "the", "and"]);
 
@@ -275,7 +281,7 @@ function stripLocation(tokens: string[]): Stripped {
   const legal: string[] = [];
   // Nested designators go one after the other: "Republic of the Union of Myanmar".
   for (let d = designatorLength(core); d > 0; d = designatorLength(core)) {
-    for (const t of core.slice(0, d)) if (!DESIGNATOR_JOINERS.has(t)) legal.push(t);
+    for (const t of core.slice(0, d)) if (!DESIGNATOR_JOINERS.has(t)) legal.push(designatorWord(t));
     core = core.slice(d);
   }
   return { tokens: core, suffix: null, legal };
