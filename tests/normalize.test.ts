@@ -136,6 +136,19 @@ describe("normalizeName: organizations and places", () => {
     expect(normalizeName("(Wenna)", "location").key).toBe("wenna");
   });
 
+  it("sets a trailing republic or federation aside, with its modifiers", () => {
+    const ru = normalizeName("Russian Federation", "location");
+    expect(ru.key).toBe("russian");
+    expect(ru.full).toBe("russian federation");
+    expect(normalizeName("Lao People's Democratic Republic", "location").key).toBe("lao");
+    expect(normalizeName("Syrian Arab Republic", "location").key).toBe("syrian");
+    expect(normalizeName("Dominican Republic", "location").key).toBe("dominican");
+    // One token is always left, and other trailing heads are the name itself.
+    expect(normalizeName("Democratic Republic", "location").key).toBe("democratic");
+    expect(normalizeName("United Kingdom", "location").key).toBe("united kingdom");
+    expect(normalizeName("Wenna Federation", "organization").key).toBe("wenna federation");
+  });
+
   it("leaves designator words alone where they are the name", () => {
     // After "united", "states" and "kingdom" are the name people use ("United Republic of" is not).
     expect(normalizeName("United States of America", "location").key).toBe("united states of america");
@@ -143,9 +156,9 @@ describe("normalizeName: organizations and places", () => {
       "united kingdom of carrow and wenna",
     );
     expect(normalizeName("United Republic of Carrow", "location").key).toBe("carrow");
-    // Not leading, or nothing after it, or not followed by "of".
-    expect(normalizeName("Dominican Republic", "location").key).toBe("dominican republic");
+    // Nothing after it, or not followed by "of".
     expect(normalizeName("Republic of", "location").key).toBe("republic of");
+    expect(normalizeName("Republic", "location").key).toBe("republic");
     expect(normalizeName("Kingdom Landing", "location").key).toBe("kingdom landing");
     // Only places: a firm or a person keeps the words.
     expect(normalizeName("City of Thornford Gas Company", "organization").tokens[0]).toBe("city");

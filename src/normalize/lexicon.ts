@@ -237,6 +237,30 @@ export const PLACE_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
 ]);
 
 /**
+ * Heads of a trailing place designator, the "Federation" of "Russian Federation" and the
+ * "Republic" of "Czech Republic": set aside like a leading one, so "Russia" meets "russian" and
+ * "Czechia" meets "czech" by similarity. Only these three: a trailing "Kingdom" or "States" is
+ * the name itself ("United Kingdom").
+ */
+export const TRAILING_DESIGNATOR_HEADS: ReadonlySet<string> = new Set([
+  "republic",
+  "federation",
+  "confederation",
+]);
+
+/** Modifiers that may precede a trailing head ("Arab Republic", "People's Democratic Republic"). */
+export const TRAILING_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
+  "democratic",
+  "peoples",
+  "federal",
+  "socialist",
+  "islamic",
+  "arab",
+  "cooperative",
+  "popular",
+]);
+
+/**
  * Abbreviated designator words, read as the word inside a designator phrase only ("Rep. of
  * Korea", "Fed. Rep. of Germany", "Twp. of Marsh"); elsewhere they stay as written.
  */

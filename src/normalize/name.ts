@@ -15,6 +15,8 @@ import {
   PLACE_ABBREVIATIONS,
   PLACE_DESIGNATOR_HEADS,
   PLACE_DESIGNATOR_MODIFIERS,
+  TRAILING_DESIGNATOR_HEADS,
+  TRAILING_DESIGNATOR_MODIFIERS,
   VESSEL_PREFIXES,
 } from "./lexicon.js";
 import { ocrFold } from "./ocr.js";
@@ -284,7 +286,25 @@ function stripLocation(tokens: string[]): Stripped {
     for (const t of core.slice(0, d)) if (!DESIGNATOR_JOINERS.has(t)) legal.push(designatorWord(t));
     core = core.slice(d);
   }
+  const t = trailingDesignatorStart(core);
+  if (t > 0) {
+    for (const w of core.slice(t)) legal.push(designatorWord(w));
+    core = core.slice(0, t);
+  }
   return { tokens: core, suffix: null, legal };
+}
+
+/**
+ * Where a trailing designator starts ("Russian Federation", "Syrian Arab Republic", "Lao People's
+ * Democratic Republic"): a head of TRAILING_DESIGNATOR_HEADS at the end, with the modifiers
+ * before it; 0 when there is none or nothing would be left before it.
+ */
+export function trailingDesignatorStart(tokens: readonly string[]): number {
+  const last = tokens.length - 1;
+  if (last < 1 || !TRAILING_DESIGNATOR_HEADS.has(designatorWord(tokens[last]!))) return 0;
+  let start = last;
+  while (start > 1 && TRAILING_DESIGNATOR_MODIFIERS.has(designatorWord(tokens[start - 1]!))) start--;
+  return start;
 }
 
 /**

@@ -146,14 +146,15 @@ export function tokenOverlap(a: readonly string[], b: readonly string[]): number
 
 /**
  * The acronyms an alias answers to: of its core tokens (two or more), and of its place designator
- * and core ("DRC" for "Democratic Republic of the Congo", whose key is "congo"); the full form
- * holds the core first, then the qualifier words (see normalizeName).
+ * and core in either order ("DRC" for "Democratic Republic of the Congo", whose key is "congo");
+ * the full form holds the core first, then the qualifier words (see normalizeName).
  */
 function aliasAcronyms(a: AliasRow): string[] {
   const out = a.tokens.length >= 2 ? [acronymOfTokens(a.tokens)] : [];
   if (a.full.length > a.key.length && a.full.startsWith(a.key)) {
     const qualifier = a.full.slice(a.key.length).trim().split(" ");
-    out.push(acronymOfTokens([...qualifier, ...a.tokens]));
+    // Leading ("Democratic Republic of the Congo") or trailing ("Lao People's Democratic Republic").
+    out.push(acronymOfTokens([...qualifier, ...a.tokens]), acronymOfTokens([...a.tokens, ...qualifier]));
   }
   return out;
 }
