@@ -4,8 +4,14 @@
  * do not stop the search, and wide token-search pools chosen by the pre-rank. The table is
  * invented (a river-port gazette's index, 1890-1930).
  */
+import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { correctedReadings, correctToken, DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
+import {
+  bestPositions,
+  correctedReadings,
+  correctToken,
+  DEFAULT_CANDIDATE_OPTIONS,
+} from "../src/candidates/generate.js";
 import { buildKb } from "../src/kb/build.js";
 import { type Kb, openKb } from "../src/kb/kb.js";
 import { createLinker, type Linker } from "../src/link/linker.js";
@@ -260,5 +266,21 @@ describe("fuzzy correction with two deletions on the table side", () => {
       two.close();
       one.close();
     }
+  });
+});
+
+describe("bestPositions", () => {
+  it("keeps what a full sort would put first, in the same order, ties broken by position", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: 0, max: 5 }), { maxLength: 200 }),
+        fc.integer({ min: 0, max: 40 }),
+        (values, room) => {
+          const before = (a: number, b: number) => values[b]! - values[a]! || a - b;
+          const sorted = values.map((_, i) => i).sort(before);
+          expect(bestPositions(values.length, room, before)).toEqual(sorted.slice(0, room));
+        },
+      ),
+    );
   });
 });

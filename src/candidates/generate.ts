@@ -452,9 +452,9 @@ export function cutPool(
     const pre = preRank ? preRank(eids, share) : share;
     const prior = (i: number) => (preRank ? 0 : kb.hot.prior[eids[i]!]!);
     const ranks = pool.ranks;
-    const order = Array.from({ length: end - start }, (_, i) => i);
-    order.sort((a, b) => pre[b]! - pre[a]! || prior(b) - prior(a) || ranks[start + a]! - ranks[start + b]!);
-    for (let k = 0; k < room; k++) out.push(start + order[k]!);
+    const before = (a: number, b: number) =>
+      pre[b]! - pre[a]! || prior(b) - prior(a) || ranks[start + a]! - ranks[start + b]! || a - b;
+    for (const i of bestPositions(end - start, room, before)) out.push(start + i);
   };
   keep(whole, opts.maxCandidates);
   const left = opts.maxCandidates - out.length;
@@ -470,6 +470,27 @@ export function cutPool(
   keep(searchTier, roomSearch);
   keep(subTier, roomSub);
   return out.map((i) => toRaw(kb, pool, i));
+}
+
+/**
+ * The `room` best of positions 0..n-1, best first, under `before` (negative: a goes before b; a
+ * total order, ties broken by position): what sorting all n and taking the first `room` gives,
+ * without sorting all n. A tier holds up to PRE_RANK_MAX entities and keeps a few dozen, so most
+ * positions are turned away by one comparison with the worst kept so far.
+ */
+export function bestPositions(n: number, room: number, before: (a: number, b: number) => number): number[] {
+  const best: number[] = [];
+  if (room <= 0) return best;
+  for (let i = 0; i < n; i++) {
+    if (best.length === room) {
+      if (before(i, best[room - 1]!) >= 0) continue;
+      best.pop();
+    }
+    let at = best.length;
+    while (at > 0 && before(i, best[at - 1]!) < 0) at--;
+    best.splice(at, 0, i);
+  }
+  return best;
 }
 
 /**
