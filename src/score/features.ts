@@ -81,9 +81,12 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       }
       lev = Math.max(lev, levenshteinSimilarity(norm.full, a.full));
       tok = Math.max(tok, tokenOverlap(norm.full.split(" "), a.full.split(" ")));
-      if (!personLike && norm.key === a.key && exact < CONFLICTING_QUALIFIER_CREDIT) {
-        exact = CONFLICTING_QUALIFIER_CREDIT;
-        keyKind = "exact";
+      if (!personLike && norm.key === a.key) {
+        const credit = keyCredit(norm, a, false);
+        if (credit > exact) {
+          exact = credit;
+          keyKind = "exact";
+        }
       }
       continue;
     }
