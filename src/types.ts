@@ -59,9 +59,13 @@ export interface Features {
   jaroWinkler: number;
   /** Best normalized Levenshtein similarity (1 - distance / longer length) over aliases. */
   levenshtein: number;
-  /** Best token-set overlap over aliases: mean of fuzzy Dice and overlap coefficient (containment counts). */
+  /**
+   * Best token-set overlap over aliases: mean of fuzzy Dice and the share of the mention's tokens
+   * the alias accounts for (a mention contained in an alias counts fully; one saying more does
+   * not). Acronyms inside a name are read first (score/embedded-acronyms.ts).
+   */
   tokenSet: number;
-  /** 1 when the mention is compatible as initials or an acronym of an alias, else 0. */
+  /** 1 when the mention reads as initials or an acronym of an alias, or as the same words once an acronym inside either is read; else 0. */
   abbreviation: number;
   /**
    * 1 when the mention's normalized key equals an alias's key (less when only their qualifiers,

@@ -56,6 +56,11 @@ export function evidenceReasons(c: Explained): Reason[] {
     out.push({ code: "acronym", message: `reads as the acronym of "${c.name}"` });
   } else if (c.name_.abbreviationKind === "initials") {
     out.push({ code: "initials", message: `initials and surname fit "${alias.text}"`, alias: alias.text });
+  } else if (c.name_.abbreviationKind === "acronym-inside") {
+    out.push({
+      code: "acronym-inside",
+      message: `the same words as "${c.name}" once the acronym inside is read`,
+    });
   }
   if (c.name_.keyKind === null && c.features.jaroWinkler >= SIMILAR_NAME) {
     out.push({

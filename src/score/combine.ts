@@ -16,7 +16,9 @@ import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
  * - an acronym ("USA", "S.G.E.") or initials ("J. H. Aldous") reading links on its own
  *   (abbreviation), although string similarity to the full name is low;
  * - a short form contained in the full name ("Brunei" in "Brunei Darussalam") scores near 0.5,
- *   and links when context supports it (tokenSet counts containment);
+ *   and links when context supports it (tokenSet counts containment); a mention saying more than
+ *   a name ("SS Harrowmouth" against the town "Harrowmouth") scores lower, as it often names
+ *   something else;
  * - an OCR-noised full name ("Stenrnouth") links through similarity plus the OCR key;
  * - a name sharing only one token ("Port Ellery" / "Port Stenmouth", "Thomas Aldous" /
  *   "Josiah Aldous") stays well below 0.5 without strong context;

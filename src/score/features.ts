@@ -5,6 +5,7 @@
 import type { AliasRow, EntityRow } from "../kb/kb.js";
 import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
+import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
 import {
   initialsCompatible,
   jaroWinkler,
@@ -51,7 +52,7 @@ export interface NameMatch {
   /** The alias that gave the best Jaro-Winkler value (cited by the reasons). */
   bestAlias: AliasRow;
   /** What the abbreviation feature recognised, when it fired. */
-  abbreviationKind: "acronym" | "initials" | null;
+  abbreviationKind: "acronym" | "initials" | "acronym-inside" | null;
   /** What the exactKey feature matched, when it fired. */
   keyKind: "exact" | "ocr" | null;
 }
@@ -119,6 +120,9 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       } else if (personLike && initialsCompatible(norm.tokens, a.tokens)) {
         abbr = 1;
         abbreviationKind = "initials";
+      } else if (sameWordsWithEmbeddedAcronyms(norm.tokens, a.tokens)) {
+        abbr = 1;
+        abbreviationKind = "acronym-inside";
       }
     }
   }
@@ -135,16 +139,22 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
 }
 
 /**
- * Token-set overlap: the mean of the fuzzy Dice coefficient (penalizes extra tokens on either
- * side) and the overlap coefficient (matched / shorter list: a short form contained in the full
- * name, "Aldous" in "Josiah Aldous" or "Brunei" in "Brunei Darussalam", counts fully).
+ * Token-set overlap of a mention's tokens and an alias's: the mean of the fuzzy Dice coefficient
+ * (penalizes extra tokens on either side) and the mention's coverage (the share of the mention's
+ * tokens the alias accounts for). A short form contained in the full name, "Aldous" in "Josiah
+ * Aldous" or "Brunei" in "Brunei Darussalam", is covered fully; a mention saying more than the
+ * alias is not: "United Mexican States" holds the alias "United States" but names something
+ * else, as "Wexcombe Grain Co." is not the town "Wexcombe". Acronyms inside either name are read
+ * first ("U.S." for "United States", see embedded-acronyms.ts).
  */
-export function tokenOverlap(a: readonly string[], b: readonly string[]): number {
-  if (a.length === 0 || b.length === 0) return 0;
-  const dice = tokenSetSimilarity(a, b);
-  const matched = (dice * (a.length + b.length)) / 2;
-  const overlap = Math.min(1, matched / Math.min(a.length, b.length));
-  return (dice + overlap) / 2;
+export function tokenOverlap(mention: readonly string[], alias: readonly string[]): number {
+  if (mention.length === 0 || alias.length === 0) return 0;
+  const m = foldEmbeddedAcronyms(mention, alias);
+  const a = foldEmbeddedAcronyms(alias, m);
+  const dice = tokenSetSimilarity(m, a);
+  const matched = (dice * (m.length + a.length)) / 2;
+  const coverage = Math.min(1, matched / m.length);
+  return (dice + coverage) / 2;
 }
 
 /**
