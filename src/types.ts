@@ -68,8 +68,9 @@ export interface Features {
   /** 1 when the mention reads as initials or an acronym of an alias, or as the same words once an acronym inside either is read; else 0. */
   abbreviation: number;
   /**
-   * 1 when the mention's normalized key equals an alias's key (less when only their qualifiers,
-   * legal form or place designator, differ; 0.75 when only the OCR-folded keys agree), else 0.
+   * 1 when the mention's normalized key equals an alias's key (less when only one side carries a
+   * qualifier, legal form or place designator, and 0 when both do and they differ; 0.75 when only
+   * the OCR-folded keys agree), else 0.
    */
   exactKey: number;
   /** TF-IDF cosine between the mention's context words and the entity's description and attributes. */

@@ -103,6 +103,15 @@ describe("linking with qualifiers", () => {
     expect(place.candidates[0]?.features.exactKey).toBe(ONE_SIDED_QUALIFIER_CREDIT);
   });
 
+  it("does not link a name whose only difference is a conflicting designator", () => {
+    // The table holds the Kingdom of Carrow but no Republic of Carrow: the shared key "carrow" is
+    // not evidence once the designators conflict, so the republic is NIL, not the kingdom.
+    const r = link("Republic of Carrow", "GPE");
+    expect(r.entity).toBeNull();
+    const kingdom = r.candidates.find((c) => c.entity === "L1");
+    expect(kingdom?.features.exactKey).toBe(0);
+  });
+
   it("prefers the entry spelled alike when a table holds both the short and the designated form", () => {
     expect(link("City of Wexcombe", "GPE").entity).toBe("L3");
     expect(link("Wexcombe", "GPE").entity).toBe("L2");

@@ -41,7 +41,7 @@ export function evidenceReasons(c: Explained): Reason[] {
     if (c.features.exactKey < 1) {
       out.push({
         code: "qualifier-differs",
-        message: "same name, but its legal form or place designator differs or is missing",
+        message: "same name, but one side lacks the other's legal form or place designator",
         exactKey: r3(c.features.exactKey),
       });
     }
