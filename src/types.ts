@@ -79,6 +79,15 @@ export interface Features {
   typeMatch: number;
   /** Log-scaled popularity: log1p(prior) / log1p(max prior in the table). */
   prior: number;
+  /**
+   * How crowded the table's names are, when the mention matches this entity only by a near
+   * spelling: the table's near-name rate (the share of its names for which another entity's near
+   * spelling would link, see link/crowding.ts). 0 when the mention is spelled as one of the
+   * entity's names spells it (equal keys, an acronym or initials reading, or every word of the
+   * mention found as written). Its weight is negative: in a crowded table (a gazetteer of 100,000
+   * places) a name one letter off is often another place, in a small one it is a misspelling.
+   */
+  nearSpelling: number;
 }
 
 export type FeatureName = keyof Features;
@@ -92,6 +101,7 @@ export const FEATURE_NAMES: readonly FeatureName[] = [
   "context",
   "typeMatch",
   "prior",
+  "nearSpelling",
 ];
 
 /** Which generation path found a candidate. */

@@ -10,6 +10,7 @@ export const ZERO_FEATURES: Features = {
   context: 0,
   typeMatch: 0,
   prior: 0,
+  nearSpelling: 0,
 };
 
 export function gold(

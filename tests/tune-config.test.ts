@@ -2,6 +2,7 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "n
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
+import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
 import { configFromTune, readConfig, validateConfig, writeConfig } from "../src/tune/config.js";
 import { tune } from "../src/tune/tune.js";
 import { syntheticSet } from "./tune-fixtures.js";
@@ -65,6 +66,14 @@ describe("tuned config files", () => {
       /field "kb\.fingerprint"/,
     );
     expect(bad((c) => (c.objective = "recall-at-precision"))).toThrow(/field "minPrecision": required/);
+  });
+
+  it("loads a config written before the nearSpelling feature, with that feature's default weight", () => {
+    const old = JSON.parse(JSON.stringify(config)) as { weights: { features: Record<string, number> } };
+    delete old.weights.features.nearSpelling;
+    const loaded = validateConfig(old, "old.json");
+    expect(loaded.weights.features.nearSpelling).toBe(DEFAULT_WEIGHTS.features.nearSpelling);
+    expect(loaded.weights.features.context).toBe(config.weights.features.context);
   });
 
   it("names the line of a JSON syntax error and a missing file", () => {

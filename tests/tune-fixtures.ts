@@ -30,6 +30,7 @@ function features(random: () => number, base: number, noise: number, exact: bool
     context: clamp(base * 0.6 + jitter()),
     typeMatch: random() < 0.9 ? 1 : 0.5,
     prior: clamp(random()),
+    nearSpelling: 0,
   };
 }
 

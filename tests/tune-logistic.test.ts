@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
 import { mulberry32 } from "../src/tune/folds.js";
 import { choleskySolve, fitLogistic, fitWeights, logisticObjective } from "../src/tune/logistic.js";
 import { FEATURE_NAMES } from "../src/types.js";
@@ -113,6 +114,10 @@ describe("fitWeights", () => {
     const { weights } = fitWeights(pairs);
     expect(Object.keys(weights.features)).toEqual([...FEATURE_NAMES]);
     expect(weights.features.exactKey).toBeGreaterThan(1);
-    expect(weights.features.jaroWinkler).toBe(0); // an all-zero feature gets no weight under L2
+    // A feature that is 0 on every pair says nothing: it keeps its default weight (or the one given).
+    expect(weights.features.jaroWinkler).toBe(DEFAULT_WEIGHTS.features.jaroWinkler);
+    expect(weights.features.nearSpelling).toBe(DEFAULT_WEIGHTS.features.nearSpelling);
+    const unseen = { ...DEFAULT_WEIGHTS.features, jaroWinkler: 1.25 };
+    expect(fitWeights(pairs, {}, unseen).weights.features.jaroWinkler).toBe(1.25);
   });
 });

@@ -72,6 +72,14 @@ export function evidenceReasons(c: Explained): Reason[] {
       tokenSet: r3(c.features.tokenSet),
     });
   }
+  if (c.features.nearSpelling > 0) {
+    const pct = Math.round(1000 * c.features.nearSpelling) / 10;
+    out.push({
+      code: "near-spelling",
+      message: `spelled only near the entry's names, in a table where ${pct}% of names have another entry's near spelling: counts less`,
+      nearNameRate: r3(c.features.nearSpelling),
+    });
+  }
   if (c.features.context >= CONTEXT_CITED) {
     out.push({
       code: "context-overlap",

@@ -44,6 +44,7 @@ import {
   documentEvidence,
 } from "../document/evidence.js";
 import type { Decision } from "../decide/decide.js";
+import { measureNearNameRate, nearNameRateOf } from "./crowding.js";
 import { decisionReason, evidenceReasons } from "./explain.js";
 import { type Surface, SurfaceCache } from "./surface-cache.js";
 
@@ -140,6 +141,8 @@ export class Linker {
   /** Document-level evidence steps in force (all off when document evidence is disabled). */
   readonly documentSteps: DocumentEvidenceOptions;
   private readonly surfaces: SurfaceCache;
+  /** The KB's near-name rate once known (see nearNameRate). */
+  private nearRate: number | undefined;
 
   constructor(kb: Kb, options: LinkerOptions = {}) {
     this.kb = kb;
@@ -190,6 +193,47 @@ export class Linker {
     this.priorOf = priorFeatureFor(kb.info.maxPrior);
   }
 
+  /**
+   * The KB's near-name rate (src/link/crowding.ts), the value of the nearSpelling feature for
+   * names matched only by a near spelling. Measured on first use, once per open KB, at the
+   * default settings whatever this linker's: it describes the table, not the configuration.
+   */
+  get nearNameRate(): number {
+    if (this.nearRate === undefined) {
+      this.nearRate = nearNameRateOf(this.kb, () => {
+        const probe = new Linker(this.kb, { surfaceCache: 0 });
+        probe.nearRate = 0; // the probe scores names as they are, without the rate it measures
+        return measureNearNameRate(this.kb, (eid) => probe.nearSpellingLinksElsewhere(eid));
+      });
+    }
+    return this.nearRate;
+  }
+
+  /**
+   * Whether entity `eid`'s own name, looked up among the entities of its class, would pass the
+   * threshold for another entity that is not spelled alike: a name near enough to another's to
+   * link wrongly were the entity missing from the table.
+   */
+  private nearSpellingLinksElsewhere(eid: number): boolean {
+    const e = this.kb.entity(eid);
+    const cls = e.cls;
+    const forms: MentionForm[] = [{ cls, norm: normalizeName(e.name, cls), compat: 1 }];
+    const compat = Object.fromEntries(ENTITY_CLASSES.map((c) => [c, c === cls ? 1 : 0])) as Record<
+      EntityClass,
+      number
+    >;
+    const p: Prepared = {
+      mention: { id: e.id, text: e.name },
+      info: { cls, linkable: true, compat },
+      forms,
+      surface: { forms, own: undefined, pool: undefined, weight: 0, held: false },
+      context: null,
+    };
+    return this.scorePrepared(p).some(
+      (s) => s.entity.eid !== eid && !s.name.spelledAlike && s.score >= this.config.threshold,
+    );
+  }
+
   /** Number of (text, label) pairs the surface cache holds now (see LinkerOptions.surfaceCache). */
   get cachedSurfaces(): number {
     return this.surfaces.size;
@@ -228,7 +272,7 @@ export class Linker {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
     const name = nameMatch(form.norm, e);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
-    const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior));
+    const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior), this.nearNameRate);
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
   }
 

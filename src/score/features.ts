@@ -59,6 +59,13 @@ export interface NameMatch {
   abbreviationKind: "acronym" | "initials" | "acronym-inside" | null;
   /** What the exactKey feature matched, when it fired. */
   keyKind: "exact" | "ocr" | null;
+  /**
+   * True when the mention is spelled as one of the entity's names spells it, up to normalization:
+   * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
+   * mention found as written in one alias ("Aldous" in "Josiah Aldous"). False when the name
+   * evidence rests on near spellings alone ("Stenrnouth", "Rumania"): see the nearSpelling feature.
+   */
+  spelledAlike: boolean;
 }
 
 export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
@@ -70,6 +77,7 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
   let bestAlias = entity.aliases[0]!;
   let abbreviationKind: NameMatch["abbreviationKind"] = null;
   let keyKind: NameMatch["keyKind"] = null;
+  let wordsAlike = false;
   const personLike = entity.cls === "person";
   for (const a of entity.aliases) {
     // Qualifiers on both sides that differ tell two apart, so the names are compared with them:
@@ -86,6 +94,7 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       }
       lev = Math.max(lev, levenshteinSimilarity(norm.full, a.full));
       tok = Math.max(tok, tokenOverlap(norm.full.split(" "), a.full.split(" ")));
+      if (norm.key === a.key) wordsAlike = true;
       if (!personLike && norm.key === a.key) {
         const credit = keyCredit(norm, a, false);
         if (credit > exact) {
@@ -107,6 +116,7 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
     if (l > lev) lev = l;
     const t = tokenOverlap(norm.tokens, a.tokens);
     if (t > tok) tok = t;
+    if (!wordsAlike && containsAll(a.tokens, norm.tokens)) wordsAlike = true;
     if (norm.key === a.key) {
       const credit = keyCredit(norm, a, personLike);
       if (credit > exact || keyKind !== "exact") {
@@ -139,7 +149,15 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
     bestAlias,
     abbreviationKind,
     keyKind,
+    spelledAlike: wordsAlike || keyKind === "exact" || abbreviationKind !== null,
   };
+}
+
+/** True when every token of `part` occurs in `whole` (a mention's words found as written). */
+function containsAll(whole: readonly string[], part: readonly string[]): boolean {
+  if (part.length === 0 || part.length > whole.length) return false;
+  for (const t of part) if (!whole.includes(t)) return false;
+  return true;
 }
 
 /**
@@ -192,8 +210,17 @@ export function priorFeatureFor(maxPrior: number): (prior: number) => number {
   return (prior) => (maxPrior <= 0 || prior <= 0 ? 0 : Math.min(1, Math.log1p(prior) / logMaxPrior));
 }
 
-/** Assemble the feature vector; `context` is the TF-IDF cosine (src/score/context.ts). */
-export function features(name: NameMatch, context: number, typeMatch: number, prior: number): Features {
+/**
+ * Assemble the feature vector; `context` is the TF-IDF cosine (src/score/context.ts), `nearNameRate`
+ * the table's (src/link/crowding.ts), which nearSpelling takes when the name is not spelled alike.
+ */
+export function features(
+  name: NameMatch,
+  context: number,
+  typeMatch: number,
+  prior: number,
+  nearNameRate: number,
+): Features {
   return {
     jaroWinkler: name.jaroWinkler,
     levenshtein: name.levenshtein,
@@ -203,5 +230,6 @@ export function features(name: NameMatch, context: number, typeMatch: number, pr
     context,
     typeMatch,
     prior,
+    nearSpelling: name.spelledAlike ? 0 : nearNameRate,
   };
 }

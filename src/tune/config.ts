@@ -5,6 +5,7 @@
  */
 import { readFileSync } from "node:fs";
 import { MARGIN_CAP } from "../decide/decide.js";
+import { DEFAULT_WEIGHTS } from "../score/combine.js";
 import type { Figures } from "../evaluate/metrics.js";
 import { FEATURE_NAMES, type FeatureName, type LinkConfig } from "../types.js";
 import { writeFileAtomic } from "../util/atomic-file.js";
@@ -14,6 +15,11 @@ import { OBJECTIVES, type Objective } from "./types.js";
 
 export const CONFIG_FORMAT = "hawser-config";
 export const CONFIG_VERSION = 1;
+/**
+ * Features added since config version 1 was first written: a config file without one of these
+ * weights still loads, and the feature takes its default weight.
+ */
+const ADDED_FEATURES: readonly FeatureName[] = ["nearSpelling"];
 
 /** The figures a config carries: link quality held-out, in-sample, and of the defaults. */
 export interface ConfigFigures {
@@ -146,7 +152,13 @@ export function validateConfig(value: unknown, file: string): TunedConfig {
     if (!(FEATURE_NAMES as readonly string[]).includes(name))
       c.fail(`weights.features.${name}`, `unknown feature; known: ${FEATURE_NAMES.join(", ")}`);
   const features = {} as Record<FeatureName, number>;
-  for (const name of FEATURE_NAMES) features[name] = c.number(wf[name], `weights.features.${name}`);
+  for (const name of FEATURE_NAMES) {
+    // A feature added after a config was written takes its default weight.
+    features[name] =
+      wf[name] === undefined && ADDED_FEATURES.includes(name)
+        ? DEFAULT_WEIGHTS.features[name]
+        : c.number(wf[name], `weights.features.${name}`);
+  }
   const objective = o.objective;
   if (typeof objective !== "string" || !(OBJECTIVES as readonly string[]).includes(objective))
     c.fail("objective", `expected one of ${OBJECTIVES.join(", ")}, got ${describe(objective)}`);

@@ -8,7 +8,7 @@
  * The intercept is not penalized. Each Newton step is halved until J does not increase, so the
  * iteration is monotone even far from the optimum.
  */
-import { sigmoid } from "../score/combine.js";
+import { DEFAULT_WEIGHTS, sigmoid } from "../score/combine.js";
 import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
 
 /** Default L2 penalty: a unit-variance Gaussian prior on each weight, a mild shrink (common practice). */
@@ -186,18 +186,27 @@ export function featureVector(f: Features): number[] {
   return FEATURE_NAMES.map((name) => f[name]);
 }
 
-/** Fit combination weights (bias + one weight per named feature) on labeled candidate pairs. */
+/**
+ * Fit combination weights (bias + one weight per named feature) on labeled candidate pairs. A
+ * feature that is 0 on every pair (nearSpelling on a table with no crowded names) tells the fit
+ * nothing, so it keeps its weight from `unseen` (default: DEFAULT_WEIGHTS) instead of the fit's 0.
+ */
 export function fitWeights(
   pairs: readonly TrainingPair[],
   opts: LogisticOptions = {},
+  unseen: Weights["features"] = DEFAULT_WEIGHTS.features,
 ): { weights: Weights; fit: LogisticFit } {
+  const rows = pairs.map((pair) => featureVector(pair.features));
   const fit = fitLogistic(
-    pairs.map((pair) => featureVector(pair.features)),
+    rows,
     pairs.map((pair) => pair.label),
     opts,
   );
   const features = Object.fromEntries(
-    FEATURE_NAMES.map((name, i) => [name, fit.coefficients[i]!]),
+    FEATURE_NAMES.map((name, i) => [
+      name,
+      rows.some((r) => r[i] !== 0) ? fit.coefficients[i]! : unseen[name],
+    ]),
   ) as Weights["features"];
   return { weights: { bias: fit.intercept, features }, fit };
 }
