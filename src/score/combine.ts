@@ -24,10 +24,13 @@ import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
  *   "Josiah Aldous") stays well below 0.5 without strong context;
  * - typeMatch is soft: a mismatch lowers the score, it does not block;
  * - prior breaks ties towards popular entities, weakly;
- * - nearSpelling costs a name matched only by a near spelling 10 log-odds per unit of the table's
- *   near-name rate: nothing in a gazette of a few hundred names (rate 0.003), about 1.5 in the
- *   synthetic 100,000-entity table (0.15), about 3 in a gazetteer of 135,000 places (0.31), where
- *   a name one letter off is more often another place than a slip.
+ * - nearSpelling costs a name matched only by a near spelling 8 log-odds per unit of the table's
+ *   near-name rate (link/crowding.ts): nothing in the sample gazette (rate 0), about 1.4 in the
+ *   synthetic 100,000-entity table (0.171), about 2.9 in a gazetteer of 135,000 places (0.365),
+ *   where a name one letter off is more often another place than a slip. Measured, not fitted:
+ *   6, 8, 10 and 14 were tried on the open cities check, the synthetic 100k and 1M tables, the
+ *   sample archive and the country checks; 8 is in the middle of the range that helps all of
+ *   them (benchmarks/README.md, "Near spellings in crowded tables").
  */
 export const DEFAULT_WEIGHTS: Weights = {
   bias: -10,
@@ -40,7 +43,7 @@ export const DEFAULT_WEIGHTS: Weights = {
     context: 3,
     typeMatch: 2,
     prior: 0.5,
-    nearSpelling: -10,
+    nearSpelling: -8,
   },
 };
 
