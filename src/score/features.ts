@@ -116,7 +116,6 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
     if (l > lev) lev = l;
     const t = tokenOverlap(norm.tokens, a.tokens);
     if (t > tok) tok = t;
-    if (!wordsAlike && containsAll(a.tokens, norm.tokens)) wordsAlike = true;
     if (norm.key === a.key) {
       const credit = keyCredit(norm, a, personLike);
       if (credit > exact || keyKind !== "exact") {
@@ -149,7 +148,11 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
     bestAlias,
     abbreviationKind,
     keyKind,
-    spelledAlike: wordsAlike || keyKind === "exact" || abbreviationKind !== null,
+    spelledAlike:
+      wordsAlike ||
+      keyKind === "exact" ||
+      abbreviationKind !== null ||
+      entity.aliases.some((a) => containsAll(a.tokens, norm.tokens)),
   };
 }
 
