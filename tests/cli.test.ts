@@ -195,6 +195,9 @@ describe("hawser info", () => {
     expect(info.entities).toBe(GAZETTE_ROWS);
     expect(info.sourceFile).toBe("gazette.csv");
     expect(info.fingerprint).toMatch(/^[0-9a-f]{32}$/);
+    // Measured on the table: the gazette's few hundred names are not crowded.
+    expect(info.nearNameRate).toBeGreaterThanOrEqual(0);
+    expect(info.nearNameRate).toBeLessThan(0.05);
   });
 
   it("exits 1 on a missing KB", () => {

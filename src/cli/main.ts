@@ -14,6 +14,7 @@ import { link } from "../commands/link.js";
 import { tune } from "../commands/tune.js";
 import { formatEvalTable } from "../evaluate/format.js";
 import { openKb } from "../kb/kb.js";
+import { createLinker } from "../link/linker.js";
 import { ALL_PATHS } from "../candidates/generate.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import type { CandidatePath } from "../types.js";
@@ -323,7 +324,8 @@ export function program(): Command {
     .action((file: string) => {
       const kb = openKb(file);
       try {
-        out(JSON.stringify(kb.info, null, 2));
+        // The near-name rate is measured, not stored (src/link/crowding.ts): up to a second at 1M.
+        out(JSON.stringify({ ...kb.info, nearNameRate: createLinker(kb).nearNameRate }, null, 2));
       } finally {
         kb.close();
       }

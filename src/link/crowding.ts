@@ -12,8 +12,8 @@
 import type { Kb } from "../kb/kb.js";
 
 /**
- * Names sampled, evenly spaced over the table: at the rates seen (0 to 0.35) the estimate's
- * standard error is at most 1.5 points; a table of fewer entities is measured whole.
+ * Names sampled, evenly spaced over the table: at the rates seen (0 to 0.4) the estimate's
+ * standard error is at most 1.6 points; a table of fewer entities is measured whole.
  */
 export const NEAR_NAME_SAMPLE = 1000;
 
