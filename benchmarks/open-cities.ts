@@ -28,13 +28,13 @@ import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { parseArgs } from "node:util";
-import { figuresOf } from "../src/evaluate/metrics.js";
 import { buildKb } from "../src/kb/build.js";
 import { openKb } from "../src/kb/kb.js";
 import { createLinker } from "../src/link/linker.js";
 import { foldText } from "../src/normalize/fold.js";
 import type { Mention } from "../src/types.js";
 import { mixSeed, Rng } from "./gen/prng.js";
+import { km, scores } from "./open-data.js";
 
 const require = createRequire(import.meta.url);
 
@@ -56,29 +56,6 @@ interface SourceCity {
 
 /** Largest distance, km, between a mention's coordinates and its gold place. */
 const GOLD_MAX_KM = 1.5;
-/** Mean radius of the Earth, km (the usual value). */
-const EARTH_KM = 6371;
-
-/** Distance in km on a locally flat Earth (equirectangular): exact enough within a few km. */
-function km(lat1: number, lon1: number, lat2: number, lon2: number): number {
-  const r = Math.PI / 180;
-  const x = (lon2 - lon1) * r * Math.cos(((lat1 + lat2) / 2) * r);
-  const y = (lat2 - lat1) * r;
-  return EARTH_KM * Math.sqrt(x * x + y * y);
-}
-
-/** The figures this benchmark prints, to three decimals (see src/evaluate/metrics.ts). */
-function scores(gold: ReadonlyArray<string | null>, predicted: ReadonlyArray<string | null>) {
-  const f = figuresOf(gold, predicted);
-  const r3 = (x: number) => Math.round(x * 1000) / 1000;
-  return {
-    accuracy: r3(f.accuracy),
-    precision: r3(f.linkPrecision),
-    recall: r3(f.linkRecall),
-    f1: r3(f.linkF1),
-    wrongLinks: f.predictedLinks - f.correctLinks,
-  };
-}
 
 async function main(): Promise<void> {
   const { values } = parseArgs({

@@ -24,6 +24,7 @@ import type { Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import { ocrFold } from "../normalize/ocr.js";
+import { genericWordFor, genericWordsOf } from "../score/table-words.js";
 import type { CandidatePath, EntityClass } from "../types.js";
 import { GenerationCache } from "../util/generation-cache.js";
 import { osaDistance } from "./edit-distance.js";
@@ -495,7 +496,10 @@ export function bestPositions(n: number, room: number, before: (a: number, b: nu
 
 /**
  * For each entity, the share of the mention's words (of two or more letters) whose spelling, or
- * one of whose corrections, its names may carry.
+ * one of whose corrections, its names may carry. The table's generic words ("airport" in a table
+ * of airfields, see src/score/table-words.ts) are not counted when the mention has other words:
+ * every other entry carries them, and "Midland International Airport" should keep "Midland Intl"
+ * before a hundred international airports.
  */
 function nameShares(
   kb: Kb,
@@ -503,9 +507,11 @@ function nameShares(
   tokens: ReadonlySet<string>,
   corrected: ReadonlyMap<string, readonly string[]>,
 ): Float64Array {
+  const generic = genericWordsOf(kb);
+  const words = [...tokens].filter((t) => t.length >= MIN_FTS_TOKEN_LENGTH);
+  const specific = words.filter((t) => genericWordFor(t, generic) === null);
   const slots: Array<Array<[number, number]>> = [];
-  for (const t of tokens) {
-    if (t.length < MIN_FTS_TOKEN_LENGTH) continue;
+  for (const t of specific.length > 0 ? specific : words) {
     slots.push([t, ...(corrected.get(t) ?? [])].map(tokenBits));
   }
   const out = new Float64Array(eids.length);

@@ -184,6 +184,13 @@ export class Kb {
     });
   }
 
+  /** Name tokens that at least `count` entities carry in a name or alias, most carried first. */
+  tokensCarriedByAtLeast(count: number): string[] {
+    const out: Array<[string, number]> = [];
+    for (const [token, df] of this.vocabDf) if (df >= count) out.push([token, df]);
+    return out.sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1)).map(([t]) => t);
+  }
+
   /** How many entities have this token in a name or alias (0 when unknown). */
   tokenDf(token: string): number {
     return this.vocabDf.get(token) ?? 0;

@@ -45,6 +45,12 @@ export function evidenceReasons(c: Explained): Reason[] {
         exactKey: r3(c.features.exactKey),
       });
     }
+  } else if (c.name_.keyKind === "core") {
+    out.push({
+      code: "name-core",
+      message: `equals ${aliasWord} "${alias.text}" once words that many of this table's names carry are set aside`,
+      alias: alias.text,
+    });
   } else if (c.name_.keyKind === "ocr") {
     out.push({
       code: "ocr-key",

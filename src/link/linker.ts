@@ -21,6 +21,7 @@ import { normalizeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import { features, type NameMatch, nameMatch, priorFeatureFor } from "../score/features.js";
 import { type IdVector, idVector } from "../score/context.js";
+import { genericWordsOf } from "../score/table-words.js";
 import { contextTerms } from "../score/terms.js";
 import { buildVector, idf } from "../score/tfidf.js";
 import {
@@ -141,6 +142,8 @@ export class Linker {
   /** Document-level evidence steps in force (all off when document evidence is disabled). */
   readonly documentSteps: DocumentEvidenceOptions;
   private readonly surfaces: SurfaceCache;
+  /** The table's generic name words (src/score/table-words.ts). */
+  private readonly genericWords: ReadonlySet<string>;
   /** The KB's near-name rate once known (see nearNameRate). */
   private nearRate: number | undefined;
 
@@ -191,6 +194,7 @@ export class Linker {
     const n = kb.info.contextDocs;
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
     this.priorOf = priorFeatureFor(kb.info.maxPrior);
+    this.genericWords = genericWordsOf(kb);
   }
 
   /**
@@ -270,7 +274,7 @@ export class Linker {
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
-    const name = nameMatch(form.norm, e);
+    const name = nameMatch(form.norm, e, this.genericWords);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
     const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior), this.nearNameRate);
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };

@@ -6,6 +6,7 @@ import type { AliasRow, EntityRow } from "../kb/kb.js";
 import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
+import { genericWordFor, NO_GENERIC_WORDS } from "./table-words.js";
 import {
   initialsCompatible,
   jaroWinkler,
@@ -57,8 +58,11 @@ export interface NameMatch {
   bestAlias: AliasRow;
   /** What the abbreviation feature recognised, when it fired. */
   abbreviationKind: "acronym" | "initials" | "acronym-inside" | null;
-  /** What the exactKey feature matched, when it fired. */
-  keyKind: "exact" | "ocr" | null;
+  /**
+   * What the exactKey feature matched, when it fired: equal keys, equal OCR-folded keys, or equal
+   * names once the table's generic words are set aside ("core", see table-words.ts).
+   */
+  keyKind: "exact" | "ocr" | "core" | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -68,7 +72,16 @@ export interface NameMatch {
   spelledAlike: boolean;
 }
 
-export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
+/**
+ * The name features of a mention against an entity: each the best over the entity's aliases.
+ * `generic` holds the table's generic name words (table-words.ts), set aside as qualifiers are
+ * when they make the only difference between two names; persons' names never lose words so.
+ */
+export function nameMatch(
+  norm: NormalizedName,
+  entity: EntityRow,
+  generic: ReadonlySet<string> = NO_GENERIC_WORDS,
+): NameMatch {
   let jw = 0;
   let lev = 0;
   let tok = 0;
@@ -79,6 +92,7 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
   let keyKind: NameMatch["keyKind"] = null;
   let wordsAlike = false;
   const personLike = entity.cls === "person";
+  const mentionSplit = !personLike && generic.size > 0 ? splitGeneric(norm.tokens, generic) : null;
   for (const a of entity.aliases) {
     // Qualifiers on both sides that differ tell two apart, so the names are compared with them:
     // "Josiah Pell Jr." against "Josiah Pell Sr.", "Pell & Co." against "Pell Ltd.", "Republic of
@@ -104,23 +118,46 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       }
       continue;
     }
-    const j = Math.max(
-      jaroWinkler(norm.key, a.key),
-      norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full),
-    );
+    // Where the table has generic words and either name carries them (compatibly), the names are
+    // compared by their cores: "Mbala Airport" and "Moala Airport" share a word that says nothing.
+    const aliasSplit = mentionSplit === null ? null : splitGeneric(a.tokens, generic);
+    const cores = aliasSplit !== null && comparableCores(mentionSplit!, aliasSplit);
+    let j: number;
+    let l: number;
+    let t: number;
+    if (cores) {
+      const mc = mentionSplit!.core.join(" ");
+      const ac = aliasSplit!.core.join(" ");
+      j = ac === "" ? 0 : jaroWinkler(mc, ac);
+      l = ac === "" ? 0 : levenshteinSimilarity(mc, ac);
+      t = tokenOverlap(mentionSplit!.core, aliasSplit!.core);
+    } else {
+      j = Math.max(
+        jaroWinkler(norm.key, a.key),
+        norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full),
+      );
+      l = Math.max(levenshteinSimilarity(norm.key, a.key), levenshteinSimilarity(norm.full, a.full));
+      t = tokenOverlap(norm.tokens, a.tokens);
+    }
     if (j > jw) {
       jw = j;
       bestAlias = a;
     }
-    const l = Math.max(levenshteinSimilarity(norm.key, a.key), levenshteinSimilarity(norm.full, a.full));
     if (l > lev) lev = l;
-    const t = tokenOverlap(norm.tokens, a.tokens);
     if (t > tok) tok = t;
     if (norm.key === a.key) {
       const credit = keyCredit(norm, a, personLike);
       if (credit > exact || keyKind !== "exact") {
         exact = Math.max(exact, credit);
         keyKind = "exact";
+      }
+    } else if (cores && sameTokens(mentionSplit!.core, aliasSplit!.core)) {
+      // "Goroka Airport" / "Goroka": the same name but for a word many of the table's names carry.
+      bestAlias = a;
+      wordsAlike = true;
+      if (exact < ONE_SIDED_QUALIFIER_CREDIT) {
+        exact = ONE_SIDED_QUALIFIER_CREDIT;
+        keyKind = "core";
       }
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
@@ -154,6 +191,44 @@ export function nameMatch(norm: NormalizedName, entity: EntityRow): NameMatch {
       abbreviationKind !== null ||
       entity.aliases.some((a) => containsAll(a.tokens, norm.tokens)),
   };
+}
+
+/** A name's tokens split into its generic words (table-words.ts) and the rest, its core. */
+interface GenericSplit {
+  core: string[];
+  generic: string[];
+}
+
+function splitGeneric(tokens: readonly string[], generic: ReadonlySet<string>): GenericSplit {
+  const core: string[] = [];
+  const words: string[] = [];
+  for (const t of tokens) {
+    const g = genericWordFor(t, generic);
+    if (g === null) core.push(t);
+    else words.push(g);
+  }
+  return { core, generic: words };
+}
+
+/**
+ * True when two names are to be compared by their cores: at least one carries generic words, the
+ * mention has a core, and one side's generic words are all among the other's (or it has none).
+ * An alias of generic words only ("International Airport") then has an empty core and earns
+ * nothing from the words it shares with every other name. Two different generic words ("X
+ * Airport" / "X Heliport") tell entries apart, as two different legal forms do, so such names
+ * are compared whole.
+ */
+function comparableCores(m: GenericSplit, a: GenericSplit): boolean {
+  if (m.generic.length === 0 && a.generic.length === 0) return false;
+  if (m.core.length === 0) return false;
+  if (m.generic.length === 0 || a.generic.length === 0) return true;
+  return containsAll(m.generic, a.generic) || containsAll(a.generic, m.generic);
+}
+
+function sameTokens(x: readonly string[], y: readonly string[]): boolean {
+  if (x.length !== y.length) return false;
+  for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false;
+  return true;
 }
 
 /** True when every token of `part` occurs in `whole` (a mention's words found as written). */
