@@ -2,6 +2,7 @@ import { createRequire } from "node:module";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
+  CONTRACTION_MATCH_CREDIT,
   INITIAL_MATCH_CREDIT,
   initialsCompatible,
   jaro,
@@ -178,6 +179,18 @@ describe("tokenSetSimilarity", () => {
       12,
     );
     expect(tokenSetSimilarity(["h", "aldous"], ["josiah", "aldous"])).toBeCloseTo(0.5, 12);
+  });
+  it("gives a contraction partial credit where Jaro-Winkler falls short", () => {
+    // "Intl", "Rgnl": a list's contractions of the words another list spells out.
+    expect(jaroWinkler("intl", "international")).toBeLessThan(TOKEN_MATCH_MIN_JW);
+    expect(tokenSetSimilarity(["tulsa", "intl"], ["tulsa", "international"])).toBeCloseTo(
+      (2 * (1 + CONTRACTION_MATCH_CREDIT)) / 4,
+      12,
+    );
+    expect(tokenSetSimilarity(["rgnl"], ["regional"])).toBeCloseTo(CONTRACTION_MATCH_CREDIT, 12);
+    // Not a contraction: the last letters differ, or the letters are out of order.
+    expect(tokenSetSimilarity(["inta"], ["international"])).toBe(0);
+    expect(tokenSetSimilarity(["rngl"], ["regional"])).toBe(0);
   });
   it("uses each partner once (multisets)", () => {
     expect(tokenSetSimilarity(["port", "port"], ["port"])).toBeCloseTo(2 / 3, 12);

@@ -8,8 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildKb } from "../src/kb/build.js";
 import { type Kb, openKb } from "../src/kb/kb.js";
 import { createLinker, type Linker } from "../src/link/linker.js";
-import { jaroWinkler } from "../src/score/name-similarity.js";
-import { genericWordFor, genericWordsOf, isContraction } from "../src/score/table-words.js";
+import { isContraction, jaroWinkler } from "../src/score/name-similarity.js";
+import { genericWordFor, genericWordsOf } from "../src/score/table-words.js";
 import { tempDir, writeText } from "./helpers/gazette.js";
 
 const HEADS = ["Ash", "Brom", "Carr", "Dun", "Eld", "Fen", "Gor", "Hal", "Ick", "Kel", "Lon", "Mor"];

@@ -158,6 +158,27 @@ export const TOKEN_MATCH_MIN_JW = 0.88;
  */
 export const INITIAL_MATCH_CREDIT = 0.8;
 
+/**
+ * Credit for a token that is a contraction of the other ("intl" / "international", "rgnl" /
+ * "regional", "natl" / "national", see isContraction), when their Jaro-Winkler similarity is
+ * below the match threshold: just over it, below a slip of one letter in a long word, since a
+ * contraction fits every word with those letters in that order.
+ */
+export const CONTRACTION_MATCH_CREDIT = 0.9;
+
+/**
+ * True when `short` is a contraction of `long`: at least three letters, the same first and last
+ * letters, and the letters between found in `long` in the same order ("intl" for
+ * "international", "saml" for "samuel", "ldg" for "landing").
+ */
+export function isContraction(short: string, long: string): boolean {
+  if (short.length < 3 || short.length >= long.length) return false;
+  if (short[0] !== long[0] || short[short.length - 1] !== long[long.length - 1]) return false;
+  let j = 1;
+  for (let i = 1; i < long.length - 1 && j < short.length - 1; i++) if (long[i] === short[j]) j++;
+  return j === short.length - 1;
+}
+
 /** Similarity of two tokens as `tokenSetSimilarity` counts it: 0 below the match threshold. */
 function tokenPairScore(x: string, y: string): number {
   if (x === y) return 1;
@@ -168,7 +189,8 @@ function tokenPairScore(x: string, y: string): number {
     return x.charCodeAt(0) === y.charCodeAt(0) ? INITIAL_MATCH_CREDIT : 0;
   }
   const s = jaroWinkler(x, y);
-  return s >= TOKEN_MATCH_MIN_JW ? s : 0;
+  if (s >= TOKEN_MATCH_MIN_JW) return s;
+  return (lx < ly ? isContraction(x, y) : isContraction(y, x)) ? CONTRACTION_MATCH_CREDIT : 0;
 }
 
 /** Reusable "already matched" flags over the longer token list. */

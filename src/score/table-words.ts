@@ -11,6 +11,7 @@
  * people apart.
  */
 import type { Kb } from "../kb/kb.js";
+import { isContraction } from "./name-similarity.js";
 
 /**
  * Share of the table's entities that must carry a word in a name for it to count as generic: 5%.
@@ -46,15 +47,6 @@ export function genericWordFor(token: string, generic: ReadonlySet<string>): str
   if (generic.has(token)) return token;
   for (const g of generic) if (isContraction(g, token) || isContraction(token, g)) return g;
   return null;
-}
-
-/** True when `short` is a contraction of `long`: 3+ letters, same first and last, in order. */
-export function isContraction(short: string, long: string): boolean {
-  if (short.length < 3 || short.length >= long.length) return false;
-  if (short[0] !== long[0] || short[short.length - 1] !== long[long.length - 1]) return false;
-  let j = 1;
-  for (let i = 1; i < long.length - 1 && j < short.length - 1; i++) if (long[i] === short[j]) j++;
-  return j === short.length - 1;
 }
 
 const found = new WeakMap<Kb, ReadonlySet<string>>();
