@@ -333,6 +333,17 @@ export class HotStore {
     return (word & (1 << (b % 32))) !== 0;
   }
 
+  /** Whether the entity's context (description and attributes) holds the term with this id. */
+  hasTerm(eid: number, termId: number): boolean {
+    const ids = this.termIds;
+    for (let j = this.termStart[eid]!, end = this.termStart[eid + 1]!; j < end; j++) {
+      const id = ids[j]!;
+      if (id === termId) return true;
+      if (id > termId) return false; // sorted ascending
+    }
+    return false;
+  }
+
   /** The context cosine of a mention and an entity (see src/score/context.ts), and the shared terms. */
   contextCosine(mention: IdVector, eid: number, shared?: string[]): number {
     return contextCosine(

@@ -51,6 +51,12 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `equals ${aliasWord} "${alias.text}" once words that many of this table's names carry are set aside`,
       alias: alias.text,
     });
+  } else if (c.name_.keyKind === "attested") {
+    out.push({
+      code: "name-attested",
+      message: `equals ${aliasWord} "${alias.text}" once the words the entry's own record carries (its town, its country) are set aside`,
+      alias: alias.text,
+    });
   } else if (c.name_.keyKind === "ocr") {
     out.push({
       code: "ocr-key",

@@ -59,10 +59,12 @@ export interface NameMatch {
   /** What the abbreviation feature recognised, when it fired. */
   abbreviationKind: "acronym" | "initials" | "acronym-inside" | null;
   /**
-   * What the exactKey feature matched, when it fired: equal keys, equal OCR-folded keys, or equal
-   * names once the table's generic words are set aside ("core", see table-words.ts).
+   * What the exactKey feature matched, when it fired: equal keys, equal OCR-folded keys, equal
+   * names once the table's generic words are set aside ("core", see table-words.ts), or once the
+   * mention's words that the entity's own record carries are ("attested": "Yantai Laishan
+   * Airport" for "Laishan", whose city is Yantai).
    */
-  keyKind: "exact" | "ocr" | "core" | null;
+  keyKind: "exact" | "ocr" | "core" | "attested" | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -81,6 +83,7 @@ export function nameMatch(
   norm: NormalizedName,
   entity: EntityRow,
   generic: ReadonlySet<string> = NO_GENERIC_WORDS,
+  attested: ((token: string) => boolean) | null = null,
 ): NameMatch {
   let jw = 0;
   let lev = 0;
@@ -92,6 +95,7 @@ export function nameMatch(
   let keyKind: NameMatch["keyKind"] = null;
   let wordsAlike = false;
   const personLike = entity.cls === "person";
+  const mentionQualifier = qualifierOf(norm);
   const mentionSplit = !personLike && generic.size > 0 ? splitGeneric(norm.tokens, generic) : null;
   for (const a of entity.aliases) {
     // Qualifiers on both sides that differ tell two apart, so the names are compared with them:
@@ -99,7 +103,7 @@ export function nameMatch(
     // Korea" against "Democratic People's Republic of Korea".
     const conflicting = personLike
       ? norm.suffix !== null && suffixOf(a) !== null && suffixOf(a) !== norm.suffix
-      : norm.full !== norm.key && a.full !== a.key && norm.full !== a.full;
+      : mentionQualifier !== "" && qualifierOf(a) !== "" && qualifierOf(a) !== mentionQualifier;
     if (conflicting) {
       const j = jaroWinkler(norm.full, a.full);
       if (j > jw) {
@@ -159,6 +163,24 @@ export function nameMatch(
         exact = ONE_SIDED_QUALIFIER_CREDIT;
         keyKind = "core";
       }
+    } else if (
+      attested !== null &&
+      !personLike &&
+      exact < ONE_SIDED_QUALIFIER_CREDIT &&
+      sameBeyondAttested(
+        cores ? mentionSplit!.core : norm.tokens,
+        cores ? aliasSplit!.core : a.tokens,
+        attested,
+      )
+    ) {
+      // "Yantai Laishan Airport" / "Laishan" (of Yantai): the words left over are the entity's own.
+      jw = 1;
+      lev = 1;
+      tok = 1;
+      bestAlias = a;
+      wordsAlike = true;
+      exact = ONE_SIDED_QUALIFIER_CREDIT;
+      keyKind = "attested";
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
@@ -225,6 +247,34 @@ function comparableCores(m: GenericSplit, a: GenericSplit): boolean {
   return containsAll(m.generic, a.generic) || containsAll(a.generic, m.generic);
 }
 
+/**
+ * Shortest word of a mention set aside because the candidate's record carries it: shorter ones
+ * are abbreviations and particles ("Sr.", "St.", "de") that records carry in passing.
+ */
+export const MIN_ATTESTED_WORD_LENGTH = 3;
+
+/**
+ * True when the mention's words are the alias's words led by words its candidate's own record
+ * carries (`attested`: in its description or attributes, such as its town): "Yantai Laishan"
+ * for "Laishan" of Yantai, "Stockholm-Arlanda" for "Arlanda" of Stockholm. Only leading words
+ * are set aside, as a town is put before a name; trailing ones ("Wickinock Cooperage" for the
+ * coopers "Wickinock & Sons") more often name something else of the same stem.
+ */
+function sameBeyondAttested(
+  mention: readonly string[],
+  alias: readonly string[],
+  attested: (token: string) => boolean,
+): boolean {
+  const lead = mention.length - alias.length;
+  if (alias.length === 0 || lead <= 0) return false;
+  for (let i = 0; i < alias.length; i++) if (mention[lead + i] !== alias[i]) return false;
+  for (let i = 0; i < lead; i++) {
+    const t = mention[i]!;
+    if (t.length < MIN_ATTESTED_WORD_LENGTH || !attested(t)) return false;
+  }
+  return true;
+}
+
 function sameTokens(x: readonly string[], y: readonly string[]): boolean {
   if (x.length !== y.length) return false;
   for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false;
@@ -270,6 +320,16 @@ function aliasAcronyms(a: AliasRow): string[] {
     out.push(acronymOfTokens([...qualifier, ...a.tokens]), acronymOfTokens([...a.tokens, ...qualifier]));
   }
   return out;
+}
+
+/**
+ * A name's qualifier words (legal form, place designator): what its full form holds beyond its
+ * key, or "" when it has none. The full form holds the core first, then the qualifier words; a
+ * full form that does not start with the key (a reordered name) counts as its own qualifier.
+ */
+function qualifierOf(n: { full: string; key: string }): string {
+  if (n.full === n.key) return "";
+  return n.full.startsWith(n.key) ? n.full.slice(n.key.length).trim() : n.full;
 }
 
 /** A person alias's generational suffix: the token its full form has beyond its key. */
