@@ -57,6 +57,12 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `equals ${aliasWord} "${alias.text}" once the words the entry's own record carries (its town, its country) are set aside`,
       alias: alias.text,
     });
+  } else if (c.name_.keyKind === "part") {
+    out.push({
+      code: "name-unique-part",
+      message: `the first or last words of ${aliasWord} "${alias.text}", words no other entry's names carry`,
+      alias: alias.text,
+    });
   } else if (c.name_.keyKind === "ocr") {
     out.push({
       code: "ocr-key",

@@ -154,6 +154,8 @@ export class Linker {
   private readonly surfaces: SurfaceCache;
   /** The table's generic name words (src/score/table-words.ts). */
   private readonly genericWords: ReadonlySet<string>;
+  /** Whether one entity only carries a word in its names (nameMatch's "part" match). */
+  private readonly uniqueWord: (token: string) => boolean;
   /** The KB's near-name rate once known (see nearNameRate). */
   private nearRate: number | undefined;
 
@@ -205,6 +207,7 @@ export class Linker {
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
     this.priorOf = priorFeatureFor(kb.info.maxPrior);
     this.genericWords = genericWordsOf(kb);
+    this.uniqueWord = (t) => kb.tokenDf(t) === 1;
   }
 
   /**
@@ -289,7 +292,7 @@ export class Linker {
       const id = this.termIdOfWord(p, t);
       return id >= 0 && hot.hasTerm(e.eid, id);
     };
-    const name = nameMatch(form.norm, e, this.genericWords, attested);
+    const name = nameMatch(form.norm, e, this.genericWords, attested, this.uniqueWord);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
     const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior), this.nearNameRate);
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };

@@ -62,9 +62,10 @@ export interface NameMatch {
    * What the exactKey feature matched, when it fired: equal keys, equal OCR-folded keys, equal
    * names once the table's generic words are set aside ("core", see table-words.ts), or once the
    * mention's words that the entity's own record carries are ("attested": "Yantai Laishan
-   * Airport" for "Laishan", whose city is Yantai).
+   * Airport" for "Laishan", whose city is Yantai), or a mention that is the first or last words
+   * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek").
    */
-  keyKind: "exact" | "ocr" | "core" | "attested" | null;
+  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -77,13 +78,16 @@ export interface NameMatch {
 /**
  * The name features of a mention against an entity: each the best over the entity's aliases.
  * `generic` holds the table's generic name words (table-words.ts), set aside as qualifiers are
- * when they make the only difference between two names; persons' names never lose words so.
+ * when they make the only difference between two names; `attested` says whether the entity's
+ * own record carries a word, rarely enough to tell it (see sameBeyondAttested); `unique` whether
+ * a name word is carried by this entity's names only. Persons' names never lose words so.
  */
 export function nameMatch(
   norm: NormalizedName,
   entity: EntityRow,
   generic: ReadonlySet<string> = NO_GENERIC_WORDS,
   attested: ((token: string) => boolean) | null = null,
+  unique: ((token: string) => boolean) | null = null,
 ): NameMatch {
   let jw = 0;
   let lev = 0;
@@ -181,6 +185,23 @@ export function nameMatch(
       wordsAlike = true;
       exact = ONE_SIDED_QUALIFIER_CREDIT;
       keyKind = "attested";
+    } else if (
+      unique !== null &&
+      !personLike &&
+      exact < ONE_SIDED_QUALIFIER_CREDIT &&
+      norm.tokens.length < a.tokens.length &&
+      (isPrefix(norm.tokens, a.tokens) || isSuffix(norm.tokens, a.tokens)) &&
+      norm.tokens.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH && unique(t))
+    ) {
+      // "Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam": a short form made of words no
+      // other entry's names carry names this one as surely as a qualified name does.
+      jw = 1;
+      lev = 1;
+      tok = 1;
+      bestAlias = a;
+      wordsAlike = true;
+      exact = ONE_SIDED_QUALIFIER_CREDIT;
+      keyKind = "part";
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
@@ -272,6 +293,19 @@ function sameBeyondAttested(
     const t = mention[i]!;
     if (t.length < MIN_ATTESTED_WORD_LENGTH || !attested(t)) return false;
   }
+  return true;
+}
+
+/** True when `part` is the first words of `whole`. */
+function isPrefix(part: readonly string[], whole: readonly string[]): boolean {
+  for (let i = 0; i < part.length; i++) if (part[i] !== whole[i]) return false;
+  return true;
+}
+
+/** True when `part` is the last words of `whole`. */
+function isSuffix(part: readonly string[], whole: readonly string[]): boolean {
+  const off = whole.length - part.length;
+  for (let i = 0; i < part.length; i++) if (part[i] !== whole[off + i]) return false;
   return true;
 }
 
