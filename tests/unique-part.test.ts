@@ -20,8 +20,7 @@ const TABLE = [
 let t: ReturnType<typeof tempDir>;
 let kb: Kb;
 let linker: Linker;
-const codes = (text: string, type: string) =>
-  linker.link({ id: "m", text, type }).reasons.map((r) => r.code);
+const codes = (text: string, type: string) => linker.link({ id: "m", text, type }).reasons.map((r) => r.code);
 
 beforeAll(async () => {
   t = tempDir("hawser-part-");
