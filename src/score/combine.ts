@@ -15,8 +15,10 @@ import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
  * - a full normalized-name match with a compatible type scores about 0.99;
  * - an acronym ("USA", "S.G.E.") or initials ("J. H. Aldous") reading links on its own
  *   (abbreviation), although string similarity to the full name is low;
- * - a short form contained in the full name ("Brunei" in "Brunei Darussalam") scores near 0.5,
- *   and links when context supports it (tokenSet counts containment); a mention saying more than
+ * - a short form contained in the full name ("Aldous" in "Josiah Aldous") scores near 0.5,
+ *   and links when context supports it (tokenSet counts containment), unless its words are the
+ *   first or last of a firm's or place's name and no other entry's names carry them ("Brunei" for
+ *   "Brunei Darussalam": a key match, see nameMatch); a mention saying more than
  *   a name ("SS Harrowmouth" against the town "Harrowmouth") scores lower, as it often names
  *   something else;
  * - an OCR-noised full name ("Stenrnouth") links through similarity plus the OCR key;
