@@ -153,13 +153,26 @@ export function nameMatch(
     }
     if (l > lev) lev = l;
     if (t > tok) tok = t;
-    if (norm.key === a.key) {
+    const keyEqual = norm.key === a.key;
+    const coreEqual = !keyEqual && cores && sameTokens(mentionSplit!.core, aliasSplit!.core);
+    const shortForm =
+      keyEqual || coreEqual || personLike || exact >= ONE_SIDED_QUALIFIER_CREDIT
+        ? null
+        : shortFormKind(
+            norm.tokens,
+            a.tokens,
+            cores ? mentionSplit!.core : norm.tokens,
+            cores ? aliasSplit!.core : a.tokens,
+            attested,
+            unique,
+          );
+    if (keyEqual) {
       const credit = keyCredit(norm, a, personLike);
       if (credit > exact || keyKind !== "exact") {
         exact = Math.max(exact, credit);
         keyKind = "exact";
       }
-    } else if (cores && sameTokens(mentionSplit!.core, aliasSplit!.core)) {
+    } else if (coreEqual) {
       // "Goroka Airport" / "Goroka": the same name but for a word many of the table's names carry.
       bestAlias = a;
       wordsAlike = true;
@@ -167,41 +180,15 @@ export function nameMatch(
         exact = ONE_SIDED_QUALIFIER_CREDIT;
         keyKind = "core";
       }
-    } else if (
-      attested !== null &&
-      !personLike &&
-      exact < ONE_SIDED_QUALIFIER_CREDIT &&
-      sameBeyondAttested(
-        cores ? mentionSplit!.core : norm.tokens,
-        cores ? aliasSplit!.core : a.tokens,
-        attested,
-      )
-    ) {
-      // "Yantai Laishan Airport" / "Laishan" (of Yantai): the words left over are the entity's own.
+    } else if (shortForm !== null) {
+      // A name less words that still point at this entry only, as a qualified name does.
       jw = 1;
       lev = 1;
       tok = 1;
       bestAlias = a;
       wordsAlike = true;
       exact = ONE_SIDED_QUALIFIER_CREDIT;
-      keyKind = "attested";
-    } else if (
-      unique !== null &&
-      !personLike &&
-      exact < ONE_SIDED_QUALIFIER_CREDIT &&
-      norm.tokens.length < a.tokens.length &&
-      (isPrefix(norm.tokens, a.tokens) || isSuffix(norm.tokens, a.tokens)) &&
-      norm.tokens.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH && unique(t))
-    ) {
-      // "Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam": a short form made of words no
-      // other entry's names carry names this one as surely as a qualified name does.
-      jw = 1;
-      lev = 1;
-      tok = 1;
-      bestAlias = a;
-      wordsAlike = true;
-      exact = ONE_SIDED_QUALIFIER_CREDIT;
-      keyKind = "part";
+      keyKind = shortForm;
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
@@ -294,6 +281,32 @@ function sameBeyondAttested(
     if (t.length < MIN_ATTESTED_WORD_LENGTH || !attested(t)) return false;
   }
   return true;
+}
+
+/**
+ * How a mention that is an entry's name less some words still names that entry alone, or null:
+ * "attested" when the words left over lead the name and the entry's own record carries them
+ * ("Yantai Laishan Airport" / "Laishan" of Yantai; compared by cores where the table has generic
+ * words), "part" when the mention is the first or last words of the name and no other entry's
+ * names carry them ("Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam").
+ */
+function shortFormKind(
+  mention: readonly string[],
+  alias: readonly string[],
+  mentionCore: readonly string[],
+  aliasCore: readonly string[],
+  attested: ((token: string) => boolean) | null,
+  unique: ((token: string) => boolean) | null,
+): "attested" | "part" | null {
+  if (attested !== null && sameBeyondAttested(mentionCore, aliasCore, attested)) return "attested";
+  if (
+    unique !== null &&
+    mention.length < alias.length &&
+    (isPrefix(mention, alias) || isSuffix(mention, alias)) &&
+    mention.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH && unique(t))
+  )
+    return "part";
+  return null;
 }
 
 /** True when `part` is the first words of `whole`. */
