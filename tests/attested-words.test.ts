@@ -4,10 +4,8 @@
  * ship chandlers, each of one town, the towns named in the descriptions only.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildKb } from "../src/kb/build.js";
-import { type Kb, openKb } from "../src/kb/kb.js";
-import { createLinker, type Linker } from "../src/link/linker.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
+import type { Linker } from "../src/link/linker.js";
+import { openTableKb, type TableKb } from "./helpers/table-kb.js";
 
 const FIRMS: Array<[string, string]> = [
   ["Pellow", "Stenmouth"],
@@ -18,25 +16,19 @@ const FIRMS: Array<[string, string]> = [
   ["Fennick", "Ekerby"],
 ];
 
-let t: ReturnType<typeof tempDir>;
-let kb: Kb;
+let table: TableKb;
 let linker: Linker;
 
 beforeAll(async () => {
-  t = tempDir("hawser-attested-");
   const rows = [
     "id,name,type,description",
     ...FIRMS.map(([firm, town], i) => `F${i},${firm} & Co.,firm,ship chandlers of ${town}`),
   ];
-  await buildKb({ table: writeText(t.file("chandlers.csv"), `${rows.join("\n")}\n`), out: t.file("c.kb") });
-  kb = openKb(t.file("c.kb"));
-  linker = createLinker(kb);
+  table = await openTableKb(`${rows.join("\n")}\n`, "hawser-attested-");
+  linker = table.linker;
 });
 
-afterAll(() => {
-  kb.close();
-  t.cleanup();
-});
+afterAll(() => table.close());
 
 describe("names led by a word of the entity's own record", () => {
   it("links a firm named with its town before its name, citing the record", () => {

@@ -5,12 +5,11 @@
  * name is. Each is small enough to be measured whole, so the rates are exact.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildKb } from "../src/kb/build.js";
-import { type Kb, openKb } from "../src/kb/kb.js";
+import type { Kb } from "../src/kb/kb.js";
 import { sampleEids } from "../src/link/crowding.js";
 import { createLinker, type Linker } from "../src/link/linker.js";
 import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
+import { openTableKb, type TableKb } from "./helpers/table-kb.js";
 
 const SPARSE = [
   "id,name,type,aliases,description,prior",
@@ -35,26 +34,22 @@ const CROWDED = [
   "",
 ].join("\n");
 
-let t: ReturnType<typeof tempDir>;
-let sparseKb: Kb;
+let sparseTable: TableKb;
+let crowdedTable: TableKb;
 let crowdedKb: Kb;
 let sparse: Linker;
 let crowded: Linker;
 
 beforeAll(async () => {
-  t = tempDir("hawser-near-");
-  await buildKb({ table: writeText(t.file("sparse.csv"), SPARSE), out: t.file("sparse.kb") });
-  await buildKb({ table: writeText(t.file("crowded.csv"), CROWDED), out: t.file("crowded.kb") });
-  sparseKb = openKb(t.file("sparse.kb"));
-  crowdedKb = openKb(t.file("crowded.kb"));
-  sparse = createLinker(sparseKb);
-  crowded = createLinker(crowdedKb);
+  sparseTable = await openTableKb(SPARSE, "hawser-near-");
+  crowdedTable = await openTableKb(CROWDED, "hawser-near-");
+  sparse = sparseTable.linker;
+  ({ kb: crowdedKb, linker: crowded } = crowdedTable);
 });
 
 afterAll(() => {
-  sparseKb.close();
-  crowdedKb.close();
-  t.cleanup();
+  sparseTable.close();
+  crowdedTable.close();
 });
 
 describe("sampleEids", () => {

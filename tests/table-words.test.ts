@@ -5,37 +5,31 @@
  * of the names) is generic and "wharf" (40 names, under the 100-entity floor) is not.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildKb } from "../src/kb/build.js";
-import { type Kb, openKb } from "../src/kb/kb.js";
+import type { Kb } from "../src/kb/kb.js";
 import { createLinker, type Linker } from "../src/link/linker.js";
 import { isContraction, jaroWinkler } from "../src/score/name-similarity.js";
 import { genericWordFor, genericWordsOf } from "../src/score/table-words.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
+import { openTableKb, type TableKb } from "./helpers/table-kb.js";
 
 const HEADS = ["Ash", "Brom", "Carr", "Dun", "Eld", "Fen", "Gor", "Hal", "Ick", "Kel", "Lon", "Mor"];
 const TAILS = ["by", "mouth", "ford", "wick", "ham", "ton", "well", "stead", "ley", "more"];
 const TOWNS = HEADS.flatMap((h) => TAILS.map((t) => `${h}${t}`)); // 120 invented towns
 
-let t: ReturnType<typeof tempDir>;
+let table: TableKb;
 let kb: Kb;
 let linker: Linker;
 
 beforeAll(async () => {
-  t = tempDir("hawser-generic-");
   const rows = [
     "id,name,type,description",
     ...TOWNS.map((town, i) => `L${i},${town} Landing,landing,landing stage at ${town}`),
     ...TOWNS.slice(0, 40).map((town, i) => `W${i},${town} Wharf,wharf,wharf at ${town}`),
   ];
-  await buildKb({ table: writeText(t.file("landings.csv"), `${rows.join("\n")}\n`), out: t.file("l.kb") });
-  kb = openKb(t.file("l.kb"));
-  linker = createLinker(kb);
+  table = await openTableKb(`${rows.join("\n")}\n`, "hawser-generic-");
+  ({ kb, linker } = table);
 });
 
-afterAll(() => {
-  kb.close();
-  t.cleanup();
-});
+afterAll(() => table.close());
 
 describe("contractions", () => {
   it("keep the first and last letters and at least three letters, in order", () => {

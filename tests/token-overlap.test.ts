@@ -5,13 +5,11 @@
  * are invented (the gazette scenario).
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildKb } from "../src/kb/build.js";
-import { type Kb, openKb } from "../src/kb/kb.js";
-import { createLinker, type Linker } from "../src/link/linker.js";
+import type { Linker } from "../src/link/linker.js";
 import { normalizeName } from "../src/normalize/name.js";
 import { foldEmbeddedAcronyms } from "../src/score/embedded-acronyms.js";
 import { tokenOverlap } from "../src/score/features.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
+import { openTableKb, type TableKb } from "./helpers/table-kb.js";
 
 const tokens = (name: string) => normalizeName(name, "organization").tokens;
 
@@ -79,20 +77,14 @@ describe("linking with token overlap", () => {
     "T2,Harrowmouth,town,,port at the river mouth,40",
     "",
   ].join("\n");
-  let t: ReturnType<typeof tempDir>;
-  let kb: Kb;
+  let table: TableKb;
   let linker: Linker;
 
   beforeAll(async () => {
-    t = tempDir("hawser-token-overlap-");
-    await buildKb({ table: writeText(t.file("table.csv"), TABLE), out: t.file("t.kb") });
-    kb = openKb(t.file("t.kb"));
-    linker = createLinker(kb);
+    table = await openTableKb(TABLE, "hawser-token-overlap-");
+    linker = table.linker;
   });
-  afterAll(() => {
-    kb.close();
-    t.cleanup();
-  });
+  afterAll(() => table.close());
 
   it("links a name written with an acronym inside it", () => {
     const r = linker.link({ id: "m1", text: "T.V. Railway", type: "ORG" });

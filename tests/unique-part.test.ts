@@ -3,10 +3,8 @@
  * "Brunei Darussalam"): nameMatch's "part" match. An invented table of the gazette's firms.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildKb } from "../src/kb/build.js";
-import { type Kb, openKb } from "../src/kb/kb.js";
-import { createLinker, type Linker } from "../src/link/linker.js";
-import { tempDir, writeText } from "./helpers/gazette.js";
+import type { Linker } from "../src/link/linker.js";
+import { openTableKb, type TableKb } from "./helpers/table-kb.js";
 
 const TABLE = [
   "id,name,type,description",
@@ -17,22 +15,16 @@ const TABLE = [
   "",
 ].join("\n");
 
-let t: ReturnType<typeof tempDir>;
-let kb: Kb;
+let table: TableKb;
 let linker: Linker;
 const codes = (text: string, type: string) => linker.link({ id: "m", text, type }).reasons.map((r) => r.code);
 
 beforeAll(async () => {
-  t = tempDir("hawser-part-");
-  await buildKb({ table: writeText(t.file("firms.csv"), TABLE), out: t.file("f.kb") });
-  kb = openKb(t.file("f.kb"));
-  linker = createLinker(kb);
+  table = await openTableKb(TABLE, "hawser-part-");
+  linker = table.linker;
 });
 
-afterAll(() => {
-  kb.close();
-  t.cleanup();
-});
+afterAll(() => table.close());
 
 describe("short forms of words one entry's names carry", () => {
   it("links the first or the last words of a name", () => {
