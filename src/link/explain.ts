@@ -80,6 +80,13 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `the same words as "${c.name}" once the acronym inside is read`,
     });
   }
+  if (c.name_.keyKind === null && c.name_.abbreviationKind === null && c.name_.apartWords !== null) {
+    out.push({
+      code: "words-apart",
+      message: `"${alias.text}" adds words other entries' names carry too (${c.name_.apartWords.join(", ")}), which this table tells entries apart by: not read as a short form of it`,
+      words: c.name_.apartWords,
+    });
+  }
   if (c.name_.keyKind === null && c.features.jaroWinkler >= SIMILAR_NAME) {
     out.push({
       code: "name-similar",

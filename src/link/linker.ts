@@ -19,7 +19,13 @@ import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
-import { features, type NameMatch, nameMatch, priorFeatureFor } from "../score/features.js";
+import {
+  features,
+  type NameMatch,
+  nameMatch,
+  priorFeatureFor,
+  type WordEvidence,
+} from "../score/features.js";
 import { type IdVector, idVector } from "../score/context.js";
 import { genericWordsOf } from "../score/table-words.js";
 import { contextTerms } from "../score/terms.js";
@@ -46,6 +52,7 @@ import {
 } from "../document/evidence.js";
 import type { Decision } from "../decide/decide.js";
 import { measureNearNameRate, nearNameRateOf } from "./crowding.js";
+import { separatesEntries } from "./separating-words.js";
 import { decisionReason, evidenceReasons } from "./explain.js";
 import { type Surface, SurfaceCache } from "./surface-cache.js";
 
@@ -288,11 +295,21 @@ export class Linker {
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
     const hot = this.kb.hot;
-    const attested = (t: string) => {
-      const id = this.termIdOfWord(p, t);
-      return id >= 0 && hot.hasTerm(e.eid, id);
+    const kb = this.kb;
+    const words: WordEvidence = {
+      attested: (t) => {
+        const id = this.termIdOfWord(p, t);
+        return id >= 0 && hot.hasTerm(e.eid, id);
+      },
+      unique: this.uniqueWord,
+      carried: (t) => {
+        const terms = contextTerms(t);
+        const info = terms.length === 1 ? kb.termInfo(terms[0]!) : null;
+        return info !== null && info.id >= 0 && hot.hasTerm(e.eid, info.id);
+      },
+      separates: (block, atStart) => separatesEntries(kb, block, atStart),
     };
-    const name = nameMatch(form.norm, e, this.genericWords, attested, this.uniqueWord);
+    const name = nameMatch(form.norm, e, this.genericWords, words);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
     const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior), this.nearNameRate);
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };

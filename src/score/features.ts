@@ -73,21 +73,46 @@ export interface NameMatch {
    * evidence rests on near spellings alone ("Stenrnouth", "Rumania"): see the nearSpelling feature.
    */
   spelledAlike: boolean;
+  /**
+   * Words of a longer name of the entity, holding every word of the mention, that the mention may
+   * not leave out (see wordsNotToLeaveOut): "old" of "Old Hungarian" for "Hungarian" in a table
+   * that also lists "Old English" and "English". The name's overlap then gets no credit for
+   * covering the mention. Null when no name was refused so.
+   */
+  apartWords: string[] | null;
+}
+
+/**
+/**
+ * What the linker knows of a candidate's name words beyond its names, for names that lose words
+ * (see shortFormKind and wordsNotToLeaveOut).
+ */
+export interface WordEvidence {
+  /** The entity's own record (description, attributes) carries the word, rarely enough to tell it. */
+  attested(token: string): boolean;
+  /** No other entity's names carry the word. */
+  unique(token: string): boolean;
+  /** The entity's own record carries the word, however many others do. */
+  carried(token: string): boolean;
+  /**
+   * The table holds a name made of these words and another entry's name, before it (`atStart`) or
+   * after: "Old English" beside "English", "Ukrainian Sign Language" beside "Ukrainian".
+   */
+  separates(words: readonly string[], atStart: boolean): boolean;
 }
 
 /**
  * The name features of a mention against an entity: each the best over the entity's aliases.
  * `generic` holds the table's generic name words (table-words.ts), set aside as qualifiers are
- * when they make the only difference between two names; `attested` says whether the entity's
- * own record carries a word, rarely enough to tell it (see sameBeyondAttested); `unique` whether
- * a name word is carried by this entity's names only. Persons' names never lose words so.
+ * when they make the only difference between two names; `words` what the linker knows of the
+ * entity's words, by which a mention may match while lacking some of them (without it, a short
+ * form matches by its overlap alone). Persons' names never lose words so.
  */
 export function nameMatch(
   norm: NormalizedName,
   entity: EntityRow,
   generic: ReadonlySet<string> = NO_GENERIC_WORDS,
-  attested: ((token: string) => boolean) | null = null,
-  unique: ((token: string) => boolean) | null = null,
+  words: WordEvidence | null = null,
 ): NameMatch {
   let jw = 0;
   let lev = 0;
@@ -98,6 +123,7 @@ export function nameMatch(
   let abbreviationKind: NameMatch["abbreviationKind"] = null;
   let keyKind: NameMatch["keyKind"] = null;
   let wordsAlike = false;
+  let apartWords: string[] | null = null;
   const personLike = entity.cls === "person";
   const mentionQualifier = qualifierOf(norm);
   const mentionSplit = !personLike && generic.size > 0 ? splitGeneric(norm.tokens, generic) : null;
@@ -145,7 +171,15 @@ export function nameMatch(
         norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full),
       );
       l = Math.max(levenshteinSimilarity(norm.key, a.key), levenshteinSimilarity(norm.full, a.full));
-      t = tokenOverlap(norm.tokens, a.tokens);
+      // A mention found whole within a longer name that adds words the table tells entries apart
+      // by ("Hungarian" in "Old Hungarian") may name another entry, one the table lacks: the
+      // name's coverage of the mention says nothing then (see wordsNotToLeaveOut).
+      const refused =
+        personLike || words === null || !containsAll(a.tokens, norm.tokens)
+          ? null
+          : wordsNotToLeaveOut(norm.tokens, a.tokens, words);
+      if (refused !== null) apartWords ??= refused;
+      t = tokenOverlap(norm.tokens, a.tokens, refused === null);
     }
     if (j > jw) {
       jw = j;
@@ -163,8 +197,7 @@ export function nameMatch(
             a.tokens,
             cores ? mentionSplit!.core : norm.tokens,
             cores ? aliasSplit!.core : a.tokens,
-            attested,
-            unique,
+            words,
           );
     if (keyEqual) {
       const credit = keyCredit(norm, a, personLike);
@@ -220,6 +253,7 @@ export function nameMatch(
       keyKind === "exact" ||
       abbreviationKind !== null ||
       entity.aliases.some((a) => containsAll(a.tokens, norm.tokens)),
+    apartWords,
   };
 }
 
@@ -288,25 +322,57 @@ function sameBeyondAttested(
  * "attested" when the words left over lead the name and the entry's own record carries them
  * ("Yantai Laishan Airport" / "Laishan" of Yantai; compared by cores where the table has generic
  * words), "part" when the mention is the first or last words of the name and no other entry's
- * names carry them ("Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam").
+ * names carry them ("Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam"), nor the words it
+ * leaves out, unless the entry's own record carries those ("Police Court" / "Harrowmouth Police
+ * Court" of Harrowmouth). A word that other entries' names carry too is one the table tells
+ * entries apart by: in a list of languages "Khmer" and "Northern Khmer", "Catalan" and "Catalan
+ * Sign Language" are different entries, and a mention of the one missing must not take the other.
  */
 function shortFormKind(
   mention: readonly string[],
   alias: readonly string[],
   mentionCore: readonly string[],
   aliasCore: readonly string[],
-  attested: ((token: string) => boolean) | null,
-  unique: ((token: string) => boolean) | null,
+  words: WordEvidence | null,
 ): "attested" | "part" | null {
-  if (attested !== null && sameBeyondAttested(mentionCore, aliasCore, attested)) return "attested";
+  if (words === null) return null;
+  if (sameBeyondAttested(mentionCore, aliasCore, (t) => words.attested(t))) return "attested";
   if (
-    unique !== null &&
     mention.length < alias.length &&
     (isPrefix(mention, alias) || isSuffix(mention, alias)) &&
-    mention.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH && unique(t))
+    mention.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH && words.unique(t)) &&
+    wordsNotToLeaveOut(mention, alias, words) === null
   )
     return "part";
   return null;
+}
+
+/**
+ * Null when a mention whose words `alias` holds may stand for it, lacking the alias's other words;
+ * else the words it lacks that are not the entry's own. It may when each of those is the entry's
+ * own (carried by no other entry's names, or by the entry's own record: "Harrowmouth" of the
+ * Harrowmouth Police Court; or a particle shorter than MIN_ATTESTED_WORD_LENGTH), or when they
+ * lead or end the alias and the table does not tell entries apart by them (separates). In a list of languages "Khmer" and "Northern Khmer", "English" and "Old
+ * English", "Ukrainian" and "Ukrainian Sign Language" are different entries, so a mention of a
+ * language the table lacks must not take its "Old" or "Sign Language" namesake; in a list of
+ * countries nothing is called "Pitcairn" beside "Pitcairn Islands".
+ */
+function wordsNotToLeaveOut(
+  mention: readonly string[],
+  alias: readonly string[],
+  words: WordEvidence,
+): string[] | null {
+  const notOwn = alias.filter(
+    (t) =>
+      t.length >= MIN_ATTESTED_WORD_LENGTH && !mention.includes(t) && !words.unique(t) && !words.carried(t),
+  );
+  if (notOwn.length === 0) return null;
+  if (mention.length < alias.length) {
+    if (isPrefix(mention, alias) && !words.separates(alias.slice(mention.length), false)) return null;
+    if (isSuffix(mention, alias) && !words.separates(alias.slice(0, alias.length - mention.length), true))
+      return null;
+  }
+  return notOwn;
 }
 
 /** True when `part` is the first words of `whole`. */
@@ -342,13 +408,15 @@ function containsAll(whole: readonly string[], part: readonly string[]): boolean
  * Aldous" or "Brunei" in "Brunei Darussalam", is covered fully; a mention saying more than the
  * alias is not: "United Mexican States" holds the alias "United States" but names something
  * else, as "Wexcombe Grain Co." is not the town "Wexcombe". Acronyms inside either name are read
- * first ("U.S." for "United States", see embedded-acronyms.ts).
+ * first ("U.S." for "United States", see embedded-acronyms.ts). With `covers` false the mention's
+ * coverage is not counted: the Dice coefficient alone.
  */
-export function tokenOverlap(mention: readonly string[], alias: readonly string[]): number {
+export function tokenOverlap(mention: readonly string[], alias: readonly string[], covers = true): number {
   if (mention.length === 0 || alias.length === 0) return 0;
   const m = foldEmbeddedAcronyms(mention, alias);
   const a = foldEmbeddedAcronyms(alias, m);
   const dice = tokenSetSimilarity(m, a);
+  if (!covers) return dice;
   const matched = (dice * (m.length + a.length)) / 2;
   const coverage = Math.min(1, matched / m.length);
   return (dice + coverage) / 2;
