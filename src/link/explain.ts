@@ -63,6 +63,12 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `the first or last words of ${aliasWord} "${alias.text}", words no other entry's names carry`,
       alias: alias.text,
     });
+  } else if (c.name_.keyKind === "reordered") {
+    out.push({
+      code: "name-reordered",
+      message: `the same words as ${aliasWord} "${alias.text}", in another order`,
+      alias: alias.text,
+    });
   } else if (c.name_.keyKind === "ocr") {
     out.push({
       code: "ocr-key",

@@ -17,6 +17,13 @@ import {
 /** exactKey credit when only the OCR-folded keys agree: strong evidence, weaker than an exact key. */
 export const OCR_KEY_CREDIT = 0.75;
 /**
+ * exactKey credit, outside persons, when the keys hold the same words in another order: "Virgin
+ * Islands, British" against "British Virgin Islands", a catalogue's inverted heading against the
+ * name as written. As strong as an OCR-key match: the words agree, their order is a convention.
+ * Persons are left out, since "Thomas John" and "John Thomas" are two names.
+ */
+export const REORDERED_KEY_CREDIT = 0.75;
+/**
  * exactKey credit, outside persons, when the keys agree but only one side carries a qualifier
  * (legal form, place designator): "Pell" or "Pell & Co." against the other, "Sweden" against
  * "Kingdom of Sweden". Likely the same; but where a table holds both forms ("China" and "Republic
@@ -63,9 +70,10 @@ export interface NameMatch {
    * names once the table's generic words are set aside ("core", see table-words.ts), or once the
    * mention's words that the entity's own record carries are ("attested": "Yantai Laishan
    * Airport" for "Laishan", whose city is Yantai), or a mention that is the first or last words
-   * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek").
+   * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek"), or the
+   * same words in another order ("reordered": "Virgin Islands, British").
    */
-  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | null;
+  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "reordered" | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -225,6 +233,14 @@ export function nameMatch(
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
+    } else if (!personLike && exact < REORDERED_KEY_CREDIT && sameWordsReordered(norm.tokens, a.tokens)) {
+      // Compared as the same words sorted (a "token sort" comparison), the names are equal.
+      jw = 1;
+      lev = 1;
+      bestAlias = a;
+      wordsAlike = true;
+      exact = REORDERED_KEY_CREDIT;
+      keyKind = "reordered";
     }
     if (abbr < 1) {
       if (norm.acronym !== null && aliasAcronyms(a).includes(norm.acronym)) {
@@ -373,6 +389,18 @@ function wordsNotToLeaveOut(
       return null;
   }
   return notOwn;
+}
+
+/** True when two names of two or more words hold the same words, in another order. */
+function sameWordsReordered(x: readonly string[], y: readonly string[]): boolean {
+  if (x.length < 2 || x.length !== y.length || sameTokens(x, y)) return false;
+  const rest = y.slice();
+  for (const t of x) {
+    const i = rest.indexOf(t);
+    if (i < 0) return false;
+    rest.splice(i, 1);
+  }
+  return true;
 }
 
 /** True when `part` is the first words of `whole`. */
