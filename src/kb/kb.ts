@@ -260,6 +260,16 @@ export class Kb {
     };
   }
 
+  /** Whether one of an entity's names is `words` and more (see NameStore.someNameAround). */
+  someNameAround(
+    eid: number,
+    words: readonly string[],
+    atStart: boolean,
+    test: (rest: string) => boolean,
+  ): boolean {
+    return this.names.someNameAround(eid, words, atStart, test);
+  }
+
   /** The normalized forms of an entity's names, from memory. */
   nameForms(eid: number): StoredForms[] {
     return this.names.forms(eid);
@@ -333,20 +343,22 @@ class KbAlias implements AliasRow {
   readonly aid: number;
   readonly key: string;
   readonly full: string;
-  readonly ocr: string;
   readonly canonical: boolean;
   readonly tokens: string[];
 
   constructor(
     private readonly entity: KbEntity,
-    f: StoredForms,
+    private readonly f: StoredForms,
   ) {
     this.aid = f.aid;
     this.key = f.key;
     this.full = f.full;
-    this.ocr = f.ocr;
     this.canonical = f.canonical;
     this.tokens = f.tokens;
+  }
+  /** Computed when first asked for (see names.ts). */
+  get ocr(): string {
+    return this.f.ocr;
   }
   get text(): string {
     // The canonical name's text is the entity's name, held in memory (display.ts).

@@ -101,6 +101,25 @@ export interface StoredForms {
   tokens: string[];
 }
 
+/**
+ * One name's forms; the OCR key is computed when first asked for, since scoring reads it only
+ * when no better key matched (about one candidate name in several).
+ */
+class NameForms implements StoredForms {
+  private ocrKey: string | undefined;
+  constructor(
+    readonly aid: number,
+    readonly key: string,
+    readonly full: string,
+    readonly canonical: boolean,
+    readonly tokens: string[],
+  ) {}
+  get ocr(): string {
+    this.ocrKey ??= ocrFold(this.key);
+    return this.ocrKey;
+  }
+}
+
 /** A loaded name store. */
 export class NameStore {
   constructor(
@@ -112,6 +131,36 @@ export class NameStore {
     if (a.tokenStart.length !== names + 1 || a.nameStart[a.nameStart.length - 1] !== names)
       throw new Error("name store: arrays of different lengths");
     if (a.tokenStart[names] !== a.tokens.length) throw new Error("name store: token bounds do not match");
+  }
+
+  /**
+   * Whether one of entity `eid`'s names is `words` and more words after them (`atStart`) or
+   * before them, the more words (as a key) passing `test`; asked in table order, stopping at the
+   * first that passes. Reads the token ids in place: only a name that holds `words` there builds
+   * a string.
+   */
+  someNameAround(
+    eid: number,
+    words: readonly string[],
+    atStart: boolean,
+    test: (rest: string) => boolean,
+  ): boolean {
+    const a = this.a;
+    for (let n = a.nameStart[eid]!; n < a.nameStart[eid + 1]!; n++) {
+      const start = a.tokenStart[n]!;
+      const len = a.tokenStart[n + 1]! - start;
+      if (len <= words.length) continue;
+      const off = start + (atStart ? 0 : len - words.length);
+      let same = true;
+      for (let i = 0; i < words.length && same; i++) same = this.vocabTokens[a.tokens[off + i]!] === words[i];
+      if (!same) continue;
+      const from = atStart ? start + words.length : start;
+      const to = atStart ? start + len : off;
+      const rest: string[] = [];
+      for (let i = from; i < to; i++) rest.push(this.vocabTokens[a.tokens[i]!]!);
+      if (test(rest.join(" "))) return true;
+    }
+    return false;
   }
 
   /** The forms of entity `eid`'s names, in the order the table gave them. */
@@ -127,14 +176,7 @@ export class NameStore {
       const key = tokens.join(" ");
       const info = a.info[n]!;
       const tail = a.tails[info >>> 1]!;
-      out.push({
-        aid: n - first,
-        key,
-        full: tail === "" ? key : `${key} ${tail}`,
-        ocr: ocrFold(key),
-        canonical: (info & 1) === 1,
-        tokens,
-      });
+      out.push(new NameForms(n - first, key, tail === "" ? key : `${key} ${tail}`, (info & 1) === 1, tokens));
     }
     return out;
   }

@@ -86,6 +86,21 @@ export class Postings {
   }
 
   /**
+   * Whether `test` holds for one of the entities of the first `limit` rows carrying `word`, asked
+   * most popular first and stopping at the first that holds (see forEachCarrier).
+   */
+  someCarrier(word: string, limit: number, test: (eid: number) => boolean): boolean {
+    let list = -1;
+    this.words.forEach(word, (l) => {
+      list = l;
+    });
+    if (list < 0) return false;
+    const end = Math.min(this.start[list + 1]!, this.start[list]! + limit);
+    for (let i = this.start[list]!; i < end; i++) if (test(this.eids[i]!)) return true;
+    return false;
+  }
+
+  /**
    * Calls `each` with the entities of the first `limit` rows carrying `word` (an entity with two
    * names carrying it comes twice), most popular first: what
    * `SELECT rowid FROM alias_fts WHERE alias_fts MATCH word LIMIT limit` returns, as entities.

@@ -9,15 +9,20 @@
  */
 import type { Kb } from "../kb/kb.js";
 import { ftsWords } from "../kb/postings.js";
+import { GenerationCache } from "../util/generation-cache.js";
 
 /**
- * Entries carrying the sequence's first word that are looked at, most popular first: enough to
- * find a pair where the words do separate entries (such words are carried by many names), and a
- * bound on the work for a word every name carries.
+ * Entries carrying the sequence's first word that are looked at, most popular first: words that
+ * separate entries are carried by many names, and in the tables measured a pair turns up among
+ * the first few dozen when there is one (a list of languages: "old" in 35 names, "sign" in 144);
+ * the bound keeps a word every name carries from costing a scan of the table.
  */
-export const SEPARATING_SCAN_LIMIT = 2000;
+export const SEPARATING_SCAN_LIMIT = 30;
 
-const answers = new WeakMap<Kb, Map<string, boolean>>();
+/** Answers kept per open KB (a bounded cache: a stream of millions of mentions asks anew). */
+const ANSWERS_KEPT = 50_000;
+
+const answers = new WeakMap<Kb, GenerationCache<string, boolean>>();
 
 /**
  * True when some entry's name is `words` followed (`atStart`) or preceded by a sequence that is
@@ -27,7 +32,7 @@ export function separatesEntries(kb: Kb, words: readonly string[], atStart: bool
   if (words.length === 0) return false;
   let known = answers.get(kb);
   if (known === undefined) {
-    known = new Map();
+    known = new GenerationCache(ANSWERS_KEPT);
     answers.set(kb, known);
   }
   const key = `${atStart ? "<" : ">"}${words.join(" ")}`;
@@ -42,23 +47,14 @@ export function separatesEntries(kb: Kb, words: readonly string[], atStart: bool
 function scan(kb: Kb, words: readonly string[], atStart: boolean): boolean {
   const first = ftsWords(words[0]!)[0];
   if (first === undefined) return false;
-  let found = false;
-  kb.hot.postings.forEachCarrier(first, SEPARATING_SCAN_LIMIT, (eid) => {
-    if (found) return;
+  return kb.hot.postings.someCarrier(first, SEPARATING_SCAN_LIMIT, (eid) => {
     const cls = kb.hot.classOf(eid);
-    for (const form of kb.nameForms(eid)) {
-      const t = form.tokens;
-      if (t.length <= words.length) continue;
-      const off = atStart ? 0 : t.length - words.length;
-      let same = true;
-      for (let i = 0; i < words.length && same; i++) same = t[off + i] === words[i];
-      if (!same) continue;
-      const rest = (atStart ? t.slice(words.length) : t.slice(0, off)).join(" ");
-      kb.forEachKeyHit(rest, (c, kind, other) => {
-        if (kind === "exact" && c === cls && other !== eid) found = true;
+    return kb.someNameAround(eid, words, atStart, (rest) => {
+      let other = false;
+      kb.forEachKeyHit(rest, (c, kind, e) => {
+        if (kind === "exact" && c === cls && e !== eid) other = true;
       });
-      if (found) return;
-    }
+      return other;
+    });
   });
-  return found;
 }
