@@ -13,9 +13,10 @@ import { GenerationCache } from "../util/generation-cache.js";
 
 /**
  * Entries carrying the sequence's first word that are looked at, most popular first: words that
- * separate entries are carried by many names, and in the tables measured a pair turns up among
- * the first few dozen when there is one (a list of languages: "old" in 35 names, "sign" in 144);
- * the bound keeps a word every name carries from costing a scan of the table.
+ * separate entries are carried by many names, and a pair turns up early when there is one (the
+ * language and country checks answer the same with 30 as with 300; a list of languages has "old"
+ * in 35 names, "sign" in 144). The bound keeps a word thousands of names carry from costing a
+ * long scan: at a million entities each new sequence costs about 80 us, 4% of linking time.
  */
 export const SEPARATING_SCAN_LIMIT = 30;
 
