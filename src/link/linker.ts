@@ -14,7 +14,7 @@ import {
   type RawCandidate,
 } from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
-import type { EntityRow, Kb } from "../kb/kb.js";
+import type { EntityRow, Kb, TermInfo } from "../kb/kb.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
@@ -140,8 +140,55 @@ interface Prepared {
   surface: Surface;
   /** The mention's context vector by KB term id (null: no context). */
   context: IdVector | null;
-  /** Name words' context term ids, as looked up (see Linker.termIdOfWord). */
-  wordTerms?: Map<string, number>;
+  /** Name words' context terms, as looked up (see CandidateWords.termOf). */
+  wordTerms?: Map<string, TermInfo | null>;
+}
+
+/**
+ * What scoring asks of a candidate's words (WordEvidence): one object per linker, pointed at the
+ * mention and the entity being scored before each call of nameMatch, which keeps no reference.
+ */
+class CandidateWords implements WordEvidence {
+  p: Prepared | null = null;
+  eid = 0;
+  /** Most records that may carry an attested word (see ATTESTED_MAX_SHARE). */
+  private readonly attestedMaxDf: number;
+
+  constructor(private readonly kb: Kb) {
+    this.attestedMaxDf = Math.max(1, ATTESTED_MAX_SHARE * kb.info.entities);
+  }
+
+  attested(t: string): boolean {
+    const info = this.termOf(t);
+    return info !== null && info.df <= this.attestedMaxDf && this.kb.hot.hasTerm(this.eid, info.id);
+  }
+
+  unique(t: string): boolean {
+    return this.kb.tokenDf(t) === 1;
+  }
+
+  carried(t: string): boolean {
+    const info = this.termOf(t);
+    return info !== null && this.kb.hot.hasTerm(this.eid, info.id);
+  }
+
+  separates(words: readonly string[], atStart: boolean): boolean {
+    return separatesEntries(this.kb, words, atStart);
+  }
+
+  /** A name word's context term (stemmed) as the KB knows it, or null; kept per mention. */
+  private termOf(word: string): TermInfo | null {
+    const p = this.p!;
+    p.wordTerms ??= new Map();
+    let info = p.wordTerms.get(word);
+    if (info === undefined) {
+      const terms = contextTerms(word);
+      const known = terms.length === 1 ? this.kb.termInfo(terms[0]!) : null;
+      info = known !== null && known.id >= 0 ? known : null;
+      p.wordTerms.set(word, info);
+    }
+    return info;
+  }
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;
@@ -161,8 +208,8 @@ export class Linker {
   private readonly surfaces: SurfaceCache;
   /** The table's generic name words (src/score/table-words.ts). */
   private readonly genericWords: ReadonlySet<string>;
-  /** Whether one entity only carries a word in its names (nameMatch's "part" match). */
-  private readonly uniqueWord: (token: string) => boolean;
+  /** What scoring asks of a candidate's words (see CandidateWords). */
+  private readonly candidateWords: CandidateWords;
   /** The KB's near-name rate once known (see nearNameRate). */
   private nearRate: number | undefined;
 
@@ -214,7 +261,7 @@ export class Linker {
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
     this.priorOf = priorFeatureFor(kb.info.maxPrior);
     this.genericWords = genericWordsOf(kb);
-    this.uniqueWord = (t) => kb.tokenDf(t) === 1;
+    this.candidateWords = new CandidateWords(kb);
   }
 
   /**
@@ -294,42 +341,13 @@ export class Linker {
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
     const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
-    const hot = this.kb.hot;
-    const kb = this.kb;
-    const words: WordEvidence = {
-      attested: (t) => {
-        const id = this.termIdOfWord(p, t);
-        return id >= 0 && hot.hasTerm(e.eid, id);
-      },
-      unique: this.uniqueWord,
-      carried: (t) => {
-        const terms = contextTerms(t);
-        const info = terms.length === 1 ? kb.termInfo(terms[0]!) : null;
-        return info !== null && info.id >= 0 && hot.hasTerm(e.eid, info.id);
-      },
-      separates: (block, atStart) => separatesEntries(kb, block, atStart),
-    };
+    const words = this.candidateWords;
+    words.p = p;
+    words.eid = e.eid;
     const name = nameMatch(form.norm, e, this.genericWords, words);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
     const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior), this.nearNameRate);
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
-  }
-
-  /**
-   * The KB term id of a name word as a context term (stemmed), or -1 when the table's records do
-   * not hold it or hold it too often to tell one record (see ATTESTED_MAX_SHARE); kept per mention.
-   */
-  private termIdOfWord(p: Prepared, word: string): number {
-    p.wordTerms ??= new Map();
-    let id = p.wordTerms.get(word);
-    if (id === undefined) {
-      const terms = contextTerms(word);
-      const info = terms.length === 1 ? this.kb.termInfo(terms[0]!) : null;
-      const most = Math.max(1, ATTESTED_MAX_SHARE * this.kb.info.entities);
-      id = info !== null && info.df <= most ? info.id : -1;
-      p.wordTerms.set(word, id);
-    }
-    return id;
   }
 
   /**
