@@ -91,7 +91,6 @@ export interface NameMatch {
 }
 
 /**
-/**
  * What the linker knows of a candidate's name words beyond its names, for names that lose words
  * (see shortFormKind and wordsNotToLeaveOut).
  */
@@ -338,11 +337,10 @@ function sameBeyondAttested(
  * "attested" when the words left over lead the name and the entry's own record carries them
  * ("Yantai Laishan Airport" / "Laishan" of Yantai; compared by cores where the table has generic
  * words), "part" when the mention is the first or last words of the name and no other entry's
- * names carry them ("Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam"), nor the words it
- * leaves out, unless the entry's own record carries those ("Police Court" / "Harrowmouth Police
- * Court" of Harrowmouth). A word that other entries' names carry too is one the table tells
- * entries apart by: in a list of languages "Khmer" and "Northern Khmer", "Catalan" and "Catalan
- * Sign Language" are different entries, and a mention of the one missing must not take the other.
+ * names carry them ("Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam"), and the words it
+ * leaves out may be left out (wordsNotToLeaveOut: "Police Court" / "Harrowmouth Police Court" of
+ * Harrowmouth, yes; "Catalan" / "Catalan Sign Language" in a list of languages that also holds
+ * "Ukrainian" and "Ukrainian Sign Language", no).
  */
 function shortFormKind(
   mention: readonly string[],
