@@ -12,6 +12,11 @@ const TABLE = [
   "F2,Pellow Chandlery,firm,ship chandlers",
   "F3,Quarrie Chandlery,firm,ship chandlers",
   "P1,Josiah Aldous,person,harbour master",
+  "L1,Saint Morwen and Carrow Holm,place,parish of two villages",
+  "L2,Saint Brannock,town,market town",
+  "F4,Tolley Valley Railway Sidings,firm,goods yard",
+  "F5,Wexcombe Sidings,firm,goods yard",
+  "L3,Tolley Reach,place,stretch of the river",
   "",
 ].join("\n");
 
@@ -40,6 +45,17 @@ describe("short forms of words one entry's names carry", () => {
     expect(codes("Chandlery", "ORG")).not.toContain("name-unique-part");
     expect(linker.link({ id: "m", text: "Chandlery", type: "ORG" }).entity).toBeNull();
     expect(codes("Rope", "ORG")).not.toContain("name-unique-part");
+  });
+
+  it("links words that only together are one entry's, when the words left out are its own", () => {
+    // "Saint" is carried by two names, "Morwen" by one; the words left out are the entry's own
+    // ("and" joins, "Carrow" and "Holm" no other name carries).
+    const r = linker.link({ id: "m", text: "Saint Morwen", type: "LOC" });
+    expect(r.entity).toBe("L1");
+    expect(codes("Saint Morwen", "LOC")).toContain("name-unique-part");
+    // "Tolley Valley Railway" is one entry's only together, but "Sidings" is another firm's word
+    // too: the railway company itself may be meant, not its sidings.
+    expect(codes("Tolley Valley Railway", "ORG")).not.toContain("name-unique-part");
   });
 
   it("leaves persons' short forms to context and the document", () => {

@@ -260,6 +260,11 @@ export class Kb {
     };
   }
 
+  /** Whether one of an entity's names holds every word of `words`. */
+  hasNameWithAll(eid: number, words: readonly string[]): boolean {
+    return this.names.hasNameWithAll(eid, words);
+  }
+
   /** Whether one of an entity's names is `words` and more (see NameStore.someNameAround). */
   someNameAround(
     eid: number,

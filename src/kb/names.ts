@@ -163,6 +163,25 @@ export class NameStore {
     return false;
   }
 
+  /** Whether one of entity `eid`'s names holds every word of `words` (read in place). */
+  hasNameWithAll(eid: number, words: readonly string[]): boolean {
+    const a = this.a;
+    for (let n = a.nameStart[eid]!; n < a.nameStart[eid + 1]!; n++) {
+      let all = true;
+      for (const w of words) {
+        let found = false;
+        for (let i = a.tokenStart[n]!; i < a.tokenStart[n + 1]! && !found; i++)
+          found = this.vocabTokens[a.tokens[i]!] === w;
+        if (!found) {
+          all = false;
+          break;
+        }
+      }
+      if (all) return true;
+    }
+    return false;
+  }
+
   /** The forms of entity `eid`'s names, in the order the table gave them. */
   forms(eid: number): StoredForms[] {
     const a = this.a;

@@ -15,6 +15,7 @@ import {
 } from "../candidates/generate.js";
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
 import type { EntityRow, Kb, TermInfo } from "../kb/kb.js";
+import { ftsWords } from "../kb/postings.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { normalizeName } from "../normalize/name.js";
@@ -114,6 +115,12 @@ export const DEFAULT_BLOCK_MIN_COMPAT = 0.3;
  * records, "cooperage" by 0.9%), and is no sign that the record is the one meant.
  */
 const ATTESTED_MAX_SHARE = 0.005;
+/**
+ * Most entities carrying a short form's rarest word for which its words are checked to name one
+ * entry alone ("Saint Helena": "helena" is carried by one name, which also holds "saint"); a
+ * short form whose rarest word more carry is no name of one entry.
+ */
+const ALONE_MAX_CARRIERS = 20;
 /** Longest stretch of mention text normalized: a 10,000-character "mention" is noise, not a name. */
 const MAX_NAME_CHARS = 300;
 
@@ -165,6 +172,27 @@ class CandidateWords implements WordEvidence {
 
   unique(t: string): boolean {
     return this.kb.tokenDf(t) === 1;
+  }
+
+  alone(tokens: readonly string[]): boolean {
+    if (tokens.length === 1) return this.unique(tokens[0]!);
+    let rarest = tokens[0]!;
+    let df = this.kb.tokenDf(rarest);
+    for (const t of tokens) {
+      const d = this.kb.tokenDf(t);
+      if (d < df) {
+        rarest = t;
+        df = d;
+      }
+    }
+    if (df > ALONE_MAX_CARRIERS) return false;
+    const words = ftsWords(rarest);
+    if (words.length !== 1) return false;
+    return !this.kb.hot.postings.someCarrier(
+      words[0]!,
+      ALONE_MAX_CARRIERS,
+      (eid) => eid !== this.eid && this.kb.hasNameWithAll(eid, tokens),
+    );
   }
 
   carried(t: string): boolean {

@@ -99,6 +99,8 @@ export interface WordEvidence {
   attested(token: string): boolean;
   /** No other entity's names carry the word. */
   unique(token: string): boolean;
+  /** No other entity has a name holding all these words (for one word: unique). */
+  alone(tokens: readonly string[]): boolean;
   /** The entity's own record carries the word, however many others do. */
   carried(token: string): boolean;
   /**
@@ -336,11 +338,13 @@ function sameBeyondAttested(
  * How a mention that is an entry's name less some words still names that entry alone, or null:
  * "attested" when the words left over lead the name and the entry's own record carries them
  * ("Yantai Laishan Airport" / "Laishan" of Yantai; compared by cores where the table has generic
- * words), "part" when the mention is the first or last words of the name and no other entry's
- * names carry them ("Lek" / "Albanian Lek", "Brunei" / "Brunei Darussalam"), and the words it
- * leaves out may be left out (wordsNotToLeaveOut: "Police Court" / "Harrowmouth Police Court" of
- * Harrowmouth, yes; "Catalan" / "Catalan Sign Language" in a list of languages that also holds
- * "Ukrainian" and "Ukrainian Sign Language", no).
+ * words), "part" when the mention is the first or last words of the name and no other entry has
+ * a name holding them all, the table's generic words aside ("Lek" / "Albanian Lek", "Brunei" /
+ * "Brunei Darussalam", "Saint Helena" / "Saint Helena, Ascension and Tristan da Cunha"; but not
+ * "Castro Airport" / "General Leite de Castro Airport" where another Castro is listed), and the
+ * words it leaves out may be left out (wordsNotToLeaveOut: "Police Court" / "Harrowmouth Police
+ * Court" of Harrowmouth, yes; "Catalan" / "Catalan Sign Language" in a list of languages that
+ * also holds "Ukrainian" and "Ukrainian Sign Language", no).
  */
 function shortFormKind(
   mention: readonly string[],
@@ -354,19 +358,56 @@ function shortFormKind(
   if (
     mention.length < alias.length &&
     (isPrefix(mention, alias) || isSuffix(mention, alias)) &&
-    mention.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH && words.unique(t)) &&
-    wordsNotToLeaveOut(mention, alias, words) === null
-  )
-    return "part";
+    mention.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH) &&
+    mentionCore.length > 0
+  ) {
+    // Words each carried by this entry's names only may leave out what the table does not tell
+    // entries apart by; words that only together are this entry's ("Saint Helena", "United
+    // States") only what is the entry's own, since the rest may name the thing itself ("United
+    // States Minor Outlying Islands" is not the United States).
+    if (mentionCore.every((t) => words.unique(t)))
+      return wordsNotToLeaveOut(mention, alias, words) === null ? "part" : null;
+    if (words.alone(mentionCore) && notOwnWords(mention, alias, words).length === 0) return "part";
+  }
   return null;
+}
+
+/**
+ * Words of three letters or more that join a name's parts rather than name anything: left out of
+ * a name ("Saint Helena, Ascension and Tristan da Cunha") as particles are.
+ */
+const JOINING_WORDS: ReadonlySet<string> = new Set([
+  "and",
+  "the",
+  "for",
+  "del",
+  "des",
+  "les",
+  "los",
+  "las",
+  "van",
+  "von",
+]);
+
+/** The words of `alias` that `mention` lacks and that are not the entry's own (see wordsNotToLeaveOut). */
+function notOwnWords(mention: readonly string[], alias: readonly string[], words: WordEvidence): string[] {
+  return alias.filter(
+    (t) =>
+      t.length >= MIN_ATTESTED_WORD_LENGTH &&
+      !JOINING_WORDS.has(t) &&
+      !mention.includes(t) &&
+      !words.unique(t) &&
+      !words.carried(t),
+  );
 }
 
 /**
  * Null when a mention whose words `alias` holds may stand for it, lacking the alias's other words;
  * else the words it lacks that are not the entry's own. It may when each of those is the entry's
  * own (carried by no other entry's names, or by the entry's own record: "Harrowmouth" of the
- * Harrowmouth Police Court; or a particle shorter than MIN_ATTESTED_WORD_LENGTH), or when they
- * lead or end the alias and the table does not tell entries apart by them (separates). In a list of languages "Khmer" and "Northern Khmer", "English" and "Old
+ * Harrowmouth Police Court; or a particle: shorter than MIN_ATTESTED_WORD_LENGTH, or one of the
+ * JOINING_WORDS), or when they lead or end the alias and the table does not tell entries apart
+ * by them (separates). In a list of languages "Khmer" and "Northern Khmer", "English" and "Old
  * English", "Ukrainian" and "Ukrainian Sign Language" are different entries, so a mention of a
  * language the table lacks must not take its "Old" or "Sign Language" namesake; in a list of
  * countries nothing is called "Pitcairn" beside "Pitcairn Islands".
@@ -376,10 +417,7 @@ function wordsNotToLeaveOut(
   alias: readonly string[],
   words: WordEvidence,
 ): string[] | null {
-  const notOwn = alias.filter(
-    (t) =>
-      t.length >= MIN_ATTESTED_WORD_LENGTH && !mention.includes(t) && !words.unique(t) && !words.carried(t),
-  );
+  const notOwn = notOwnWords(mention, alias, words);
   if (notOwn.length === 0) return null;
   if (mention.length < alias.length) {
     if (isPrefix(mention, alias) && !words.separates(alias.slice(mention.length), false)) return null;
