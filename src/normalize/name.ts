@@ -22,7 +22,7 @@ import {
 import { ocrFold } from "./ocr.js";
 
 /** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
-export const NORMALIZER_VERSION = "2";
+export const NORMALIZER_VERSION = "3";
 
 export interface NormalizedName {
   /** Every folded token of the input, nothing removed. */
@@ -88,6 +88,22 @@ const PARENTHESIZED = /[([{][^()[\]{}]*[)\]}]/g;
 const MAX_ASIDE_NESTING = 3;
 /** Leading articles carry no identity: "The Gambia" is "Gambia", "The Pell Line" is "Pell Line". */
 const LEADING_ARTICLES: ReadonlySet<string> = new Set(["the"]);
+
+/** A closing aside: the last bracketed group of a name, with nothing after it. */
+const CLOSING_ASIDE = /[([{]([^()[\]{}]*)[)\]}]\s*$/;
+
+/**
+ * The words of a name's closing aside, outside persons, which the full form keeps as qualifier
+ * words (the key drops them with every aside): "Virgin Islands (British)" and "Virgin Islands
+ * (U.S.)" share the key "virgin islands" and differ by their qualifiers, as "Pell & Co." and
+ * "Pell Ltd." do; "Veltheim (Kreis 5)" is a qualified Veltheim. An aside of articles only, as
+ * ISO-style lists write "Gambia (the)", adds nothing.
+ */
+function closingAsideWords(raw: string): string[] {
+  const m = CLOSING_ASIDE.exec(raw);
+  if (m === null || m.index === 0) return [];
+  return joinLetterRuns(foldTokens(m[1]!).map(fixOcrDigits)).filter((t) => !LEADING_ARTICLES.has(t));
+}
 
 function dropParenthesized(raw: string): string {
   let stripped = raw;
@@ -319,7 +335,9 @@ export function trailingDesignatorStart(tokens: readonly string[]): number {
  * "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
  */
 export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
-  const bare = dropParenthesized(cls === "person" ? raw : reorderBracketed(raw));
+  const reordered = cls === "person" ? raw : reorderBracketed(raw);
+  const aside = cls === "person" ? [] : closingAsideWords(reordered);
+  const bare = dropParenthesized(reordered);
   const text = cls === "person" ? reorderLastFirst(bare) : reorderInverted(bare);
   const all = foldTokens(text);
   let lead = 0;
@@ -344,6 +362,7 @@ export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
   const fullParts = s.tokens.slice();
   for (const l of s.legal) fullParts.push(l);
   if (s.suffix !== null) fullParts.push(s.suffix);
+  for (const w of aside) fullParts.push(w);
   const acronym = readAcronym(raw);
   // A place's acronym spells its designator too: "USA", "UAE", "DRC".
   const acronymTokens = cls === "location" && s.legal.length > 0 ? folded : s.tokens;

@@ -51,8 +51,17 @@ export const CONFLICTING_QUALIFIER_CREDIT = 0;
  */
 export function keyCredit(norm: NormalizedName, alias: AliasRow, person: boolean): number {
   if (person || norm.full === alias.full) return 1;
-  if (norm.full === norm.key || alias.full === alias.key) return ONE_SIDED_QUALIFIER_CREDIT;
+  if (!qualifiersConflict(qualifierOf(norm), qualifierOf(alias))) return ONE_SIDED_QUALIFIER_CREDIT;
   return CONFLICTING_QUALIFIER_CREDIT;
+}
+
+/**
+ * True when two names' qualifiers tell them apart: both present and different ("& Co." against
+ * "Ltd.", "(British)" against "(U.S.)", "Republic of" against "Democratic People's Republic of",
+ * where the longer one saying more is what tells the two apart).
+ */
+function qualifiersConflict(x: string, y: string): boolean {
+  return x !== "" && y !== "" && x !== y;
 }
 
 export interface NameMatch {
@@ -142,7 +151,7 @@ export function nameMatch(
     // Korea" against "Democratic People's Republic of Korea".
     const conflicting = personLike
       ? norm.suffix !== null && suffixOf(a) !== null && suffixOf(a) !== norm.suffix
-      : mentionQualifier !== "" && qualifierOf(a) !== "" && qualifierOf(a) !== mentionQualifier;
+      : qualifiersConflict(mentionQualifier, qualifierOf(a));
     if (conflicting) {
       const j = jaroWinkler(norm.full, a.full);
       if (j > jw) {
@@ -234,7 +243,19 @@ export function nameMatch(
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
-    } else if (!personLike && exact < REORDERED_KEY_CREDIT && sameWordsReordered(norm.tokens, a.tokens)) {
+    } else if (!personLike && exact < 1 && norm.full === a.full) {
+      // The same words, one side reading some as a qualifier: "Virgin Islands, British" against
+      // "Virgin Islands (British)".
+      bestAlias = a;
+      wordsAlike = true;
+      exact = 1;
+      keyKind = "exact";
+    } else if (
+      !personLike &&
+      exact < REORDERED_KEY_CREDIT &&
+      (sameWordsReordered(norm.tokens, a.tokens) ||
+        sameWordsReordered(norm.full.split(" "), a.full.split(" ")))
+    ) {
       // Compared as the same words sorted (a "token sort" comparison), the names are equal.
       jw = 1;
       lev = 1;
