@@ -184,11 +184,13 @@ export function nameMatch(
       l = ac === "" ? 0 : levenshteinSimilarity(mc, ac);
       t = tokenOverlap(mentionSplit!.core, aliasSplit!.core);
     } else {
-      j = Math.max(
-        jaroWinkler(norm.key, a.key),
-        norm.full === norm.key && a.full === a.key ? 0 : jaroWinkler(norm.full, a.full),
+      // Most names carry no qualifier: their full forms are their keys, compared once.
+      const bare = norm.full === norm.key && a.full === a.key;
+      j = Math.max(jaroWinkler(norm.key, a.key), bare ? 0 : jaroWinkler(norm.full, a.full));
+      l = Math.max(
+        levenshteinSimilarity(norm.key, a.key),
+        bare ? 0 : levenshteinSimilarity(norm.full, a.full),
       );
-      l = Math.max(levenshteinSimilarity(norm.key, a.key), levenshteinSimilarity(norm.full, a.full));
       // A mention found whole within a longer name that adds words the table tells entries apart
       // by ("Hungarian" in "Old Hungarian") may name another entry, one the table lacks: the
       // name's coverage of the mention says nothing then (see wordsNotToLeaveOut).
