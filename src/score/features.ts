@@ -145,7 +145,9 @@ export function nameMatch(
   const personLike = entity.cls === "person";
   const mentionQualifier = qualifierOf(norm);
   const mentionSplit = !personLike && generic.size > 0 ? splitGeneric(norm.tokens, generic) : null;
-  for (const a of entity.aliases) {
+  const aliases = entity.aliases;
+  for (let ai = 0; ai < aliases.length; ai++) {
+    const a = aliases[ai]!;
     // Qualifiers on both sides that differ tell two apart, so the names are compared with them:
     // "Josiah Pell Jr." against "Josiah Pell Sr.", "Pell & Co." against "Pell Ltd.", "Republic of
     // Korea" against "Democratic People's Republic of Korea".
@@ -267,16 +269,17 @@ export function nameMatch(
       keyKind = "reordered";
     }
     if (abbr < 1) {
-      if (norm.acronym !== null && aliasAcronyms(a).includes(norm.acronym)) {
-        abbr = 1;
-        abbreviationKind = "acronym";
-      } else if (personLike && initialsCompatible(norm.tokens, a.tokens)) {
-        abbr = 1;
-        abbreviationKind = "initials";
-      } else if (sameWordsWithEmbeddedAcronyms(norm.tokens, a.tokens)) {
-        abbr = 1;
-        abbreviationKind = "acronym-inside";
+      abbreviationKind = abbreviationOf(norm, a, personLike);
+      if (abbreviationKind !== null) abbr = 1;
+    }
+    // Once a name is spelled as the mention, exactly and with the same qualifiers, no other name
+    // can raise a name feature: only an abbreviation reading is left to find.
+    if (exact === 1 && keyKind === "exact" && jw === 1 && lev === 1 && tok === 1) {
+      for (let i = ai + 1; i < aliases.length && abbr < 1; i++) {
+        abbreviationKind = abbreviationOf(norm, aliases[i]!, personLike);
+        if (abbreviationKind !== null) abbr = 1;
       }
+      break;
     }
   }
   return {
@@ -295,6 +298,18 @@ export function nameMatch(
       entity.aliases.some((a) => containsAll(a.tokens, norm.tokens)),
     apartWords,
   };
+}
+
+/** What abbreviation reading, if any, makes the mention one of the alias's forms. */
+function abbreviationOf(
+  norm: NormalizedName,
+  a: AliasRow,
+  personLike: boolean,
+): NameMatch["abbreviationKind"] {
+  if (norm.acronym !== null && aliasAcronyms(a).includes(norm.acronym)) return "acronym";
+  if (personLike && initialsCompatible(norm.tokens, a.tokens)) return "initials";
+  if (sameWordsWithEmbeddedAcronyms(norm.tokens, a.tokens)) return "acronym-inside";
+  return null;
 }
 
 /** A name's tokens split into its generic words (table-words.ts) and the rest, its core. */
