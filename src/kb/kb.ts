@@ -7,7 +7,7 @@ import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { ftsWords } from "./postings.js";
 import { HotStore } from "./hot.js";
-import { NameStore, type StoredForms } from "./names.js";
+import { NameForms, NameStore, type StoredForms } from "./names.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
 import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, type UnpackedForm, unpackForms } from "./schema.js";
@@ -96,7 +96,7 @@ export class Kb {
   /** Per-entity facts for whole candidate pools, in memory (see hot.ts). */
   readonly hot: HotStore;
   /** Every entity's normalized name forms, in memory (see names.ts). */
-  private readonly names: NameStore;
+  readonly names: NameStore;
 
   constructor(file: string) {
     if (!existsSync(file))
@@ -321,7 +321,10 @@ class KbEntity implements EntityRow {
     readonly prior: number,
     readonly contextNorm: number,
   ) {
-    this.aliases = kb.nameForms(eid).map((f) => new KbAlias(this, f));
+    this.aliases = kb.names.formsWith(
+      eid,
+      (aid, key, full, canonical, tokens) => new KbAlias(this, aid, key, full, canonical, tokens),
+    );
   }
 
   row(): StoredRow {
@@ -344,26 +347,16 @@ class KbEntity implements EntityRow {
 }
 
 /** One name of a KbEntity: forms from memory, the original text from the row when asked for. */
-class KbAlias implements AliasRow {
-  readonly aid: number;
-  readonly key: string;
-  readonly full: string;
-  readonly canonical: boolean;
-  readonly tokens: string[];
-
+class KbAlias extends NameForms implements AliasRow {
   constructor(
     private readonly entity: KbEntity,
-    private readonly f: StoredForms,
+    aid: number,
+    key: string,
+    full: string,
+    canonical: boolean,
+    tokens: string[],
   ) {
-    this.aid = f.aid;
-    this.key = f.key;
-    this.full = f.full;
-    this.canonical = f.canonical;
-    this.tokens = f.tokens;
-  }
-  /** Computed when first asked for (see names.ts). */
-  get ocr(): string {
-    return this.f.ocr;
+    super(aid, key, full, canonical, tokens);
   }
   get text(): string {
     // The canonical name's text is the entity's name, held in memory (display.ts).

@@ -105,7 +105,7 @@ export interface StoredForms {
  * One name's forms; the OCR key is computed when first asked for, since scoring reads it only
  * when no better key matched (about one candidate name in several).
  */
-class NameForms implements StoredForms {
+export class NameForms implements StoredForms {
   private ocrKey: string | undefined;
   constructor(
     readonly aid: number,
@@ -184,8 +184,19 @@ export class NameStore {
 
   /** The forms of entity `eid`'s names, in the order the table gave them. */
   forms(eid: number): StoredForms[] {
+    return this.formsWith(
+      eid,
+      (aid, key, full, canonical, tokens) => new NameForms(aid, key, full, canonical, tokens),
+    );
+  }
+
+  /** The forms of entity `eid`'s names, each made by `make` (a subclass of NameForms, say). */
+  formsWith<T>(
+    eid: number,
+    make: (aid: number, key: string, full: string, canonical: boolean, tokens: string[]) => T,
+  ): T[] {
     const a = this.a;
-    const out: StoredForms[] = [];
+    const out: T[] = [];
     const first = a.nameStart[eid]!;
     const end = a.nameStart[eid + 1]!;
     for (let n = first; n < end; n++) {
@@ -195,7 +206,7 @@ export class NameStore {
       const key = tokens.join(" ");
       const info = a.info[n]!;
       const tail = a.tails[info >>> 1]!;
-      out.push(new NameForms(n - first, key, tail === "" ? key : `${key} ${tail}`, (info & 1) === 1, tokens));
+      out.push(make(n - first, key, tail === "" ? key : `${key} ${tail}`, (info & 1) === 1, tokens));
     }
     return out;
   }
