@@ -17,6 +17,8 @@ const TABLE = [
   "F4,Tolley Valley Railway Sidings,firm,goods yard",
   "F5,Wexcombe Sidings,firm,goods yard",
   "L3,Tolley Reach,place,stretch of the river",
+  "L4,Upper Pool of the Tolley and Gannet Sands,place,anchorage below the town",
+  "L5,Carrow Pool,place,mill pond",
   "",
 ].join("\n");
 
@@ -56,6 +58,11 @@ describe("short forms of words one entry's names carry", () => {
     // "Tolley Valley Railway" is one entry's only together, but "Sidings" is another firm's word
     // too: the railway company itself may be meant, not its sidings.
     expect(codes("Tolley Valley Railway", "ORG")).not.toContain("name-unique-part");
+    // A name's head before "of" or "and" names the whole, whatever its complement carries
+    // ("Pool" ends another name, "Tolley" starts two).
+    const pool = linker.link({ id: "m", text: "Upper Pool", type: "LOC" });
+    expect(pool.entity).toBe("L4");
+    expect(codes("Upper Pool", "LOC")).toContain("name-unique-part");
   });
 
   it("leaves persons' short forms to context and the document", () => {

@@ -405,7 +405,11 @@ function shortFormKind(
     // States Minor Outlying Islands" is not the United States).
     if (mentionCore.every((t) => words.unique(t)))
       return wordsNotToLeaveOut(mention, alias, words) === null ? "part" : null;
-    if (words.alone(mentionCore) && notOwnWords(mention, alias, words).length === 0) return "part";
+    if (
+      words.alone(mentionCore) &&
+      (notOwnWords(mention, alias, words).length === 0 || complementFollows(mention, alias))
+    )
+      return "part";
   }
   return null;
 }
@@ -426,6 +430,21 @@ const JOINING_WORDS: ReadonlySet<string> = new Set([
   "van",
   "von",
 ]);
+
+/**
+ * Words that open a complement after a name's head: what follows them adds to the name rather
+ * than naming the thing ("United Kingdom of Great Britain and Northern Ireland", "Svalbard and Jan
+ * Mayen").
+ */
+const COMPLEMENT_OPENERS: ReadonlySet<string> = new Set(["of", "and"]);
+
+/**
+ * True when `mention` is the first words of `alias` and the rest opens with "of" or "and": the
+ * mention is the name's head ("United Kingdom"), the rest its complement.
+ */
+function complementFollows(mention: readonly string[], alias: readonly string[]): boolean {
+  return isPrefix(mention, alias) && COMPLEMENT_OPENERS.has(alias[mention.length] ?? "");
+}
 
 /** The words of `alias` that `mention` lacks and that are not the entry's own (see wordsNotToLeaveOut). */
 function notOwnWords(mention: readonly string[], alias: readonly string[], words: WordEvidence): string[] {
