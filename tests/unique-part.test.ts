@@ -65,6 +65,15 @@ describe("short forms of words one entry's names carry", () => {
     expect(codes("Upper Pool", "LOC")).toContain("name-unique-part");
   });
 
+  it("links a name the mention gives with a complement after it", () => {
+    // "Saint Brannock" is one entry's alone ("Saint" starts another name); "and the Downs" adds to it.
+    const r = linker.link({ id: "m", text: "Saint Brannock and the Downs", type: "LOC" });
+    expect(r.entity).toBe("L2");
+    expect(codes("Saint Brannock and the Downs", "LOC")).toContain("name-head");
+    // A firm's "& Co." read as words is no complement.
+    expect(codes("Saint Brannock & Co.", "ORG")).not.toContain("name-head");
+  });
+
   it("leaves persons' short forms to context and the document", () => {
     // A surname alone may be any member of a family the table does not list.
     expect(codes("Aldous", "PER")).not.toContain("name-unique-part");

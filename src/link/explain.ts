@@ -63,6 +63,12 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `the first or last words of ${aliasWord} "${alias.text}", words no other entry's names carry`,
       alias: alias.text,
     });
+  } else if (c.name_.keyKind === "head") {
+    out.push({
+      code: "name-head",
+      message: `${aliasWord} "${alias.text}", followed in the mention by a complement ("of ...", "and ...")`,
+      alias: alias.text,
+    });
   } else if (c.name_.keyKind === "reordered") {
     out.push({
       code: "name-reordered",

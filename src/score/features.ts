@@ -3,6 +3,7 @@
  * in types.ts for what each measures. Name features are the best over the entity's aliases.
  */
 import type { AliasRow, EntityRow } from "../kb/kb.js";
+import { LEGAL_FORMS } from "../normalize/lexicon.js";
 import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
@@ -82,7 +83,7 @@ export interface NameMatch {
    * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek"), or the
    * same words in another order ("reordered": "Virgin Islands, British").
    */
-  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "reordered" | null;
+  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "head" | "reordered" | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -390,9 +391,22 @@ function shortFormKind(
   mentionCore: readonly string[],
   aliasCore: readonly string[],
   words: WordEvidence | null,
-): "attested" | "part" | null {
+): "attested" | "part" | "head" | null {
   if (words === null) return null;
   if (sameBeyondAttested(mentionCore, aliasCore, (t) => words.attested(t))) return "attested";
+  // The mirror of a head before "of" or "and": the mention says more, after a name of the table
+  // that is one entry's alone ("United Kingdom of Great Britain and Northern Ireland" for "United
+  // Kingdom", "Svalbard and Jan Mayen" for "Svalbard"); a firm's "& Co." or "& Sons" read as
+  // words (as a place's name reads them) is no complement.
+  if (
+    alias.length < mention.length &&
+    aliasCore.length > 0 &&
+    complementFollows(alias, mention) &&
+    !mention.slice(alias.length + 1).every((t) => LEGAL_FORMS[t] !== undefined) &&
+    alias.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH) &&
+    words.alone(aliasCore)
+  )
+    return "head";
   if (
     mention.length < alias.length &&
     (isPrefix(mention, alias) || isSuffix(mention, alias)) &&
