@@ -80,8 +80,10 @@ export interface NameMatch {
    * names once the table's generic words are set aside ("core", see table-words.ts), or once the
    * mention's words that the entity's own record carries are ("attested": "Yantai Laishan
    * Airport" for "Laishan", whose city is Yantai), or a mention that is the first or last words
-   * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek"), or the
-   * same words in another order ("reordered": "Virgin Islands, British").
+   * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek"), a name
+   * followed in the mention by a complement ("head": "United Kingdom of Great Britain and
+   * Northern Ireland" for "United Kingdom"), or the same words in another order ("reordered":
+   * "Virgin Islands, British").
    */
   keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "head" | "reordered" | null;
   /**
@@ -383,7 +385,8 @@ function sameBeyondAttested(
  * "Castro Airport" / "General Leite de Castro Airport" where another Castro is listed), and the
  * words it leaves out may be left out (wordsNotToLeaveOut: "Police Court" / "Harrowmouth Police
  * Court" of Harrowmouth, yes; "Catalan" / "Catalan Sign Language" in a list of languages that
- * also holds "Ukrainian" and "Ukrainian Sign Language", no).
+ * also holds "Ukrainian" and "Ukrainian Sign Language", no); "head" when the mention is the name,
+ * one entry's alone, followed by a complement after "of" or "and".
  */
 function shortFormKind(
   mention: readonly string[],
