@@ -376,7 +376,8 @@ function sameBeyondAttested(
 }
 
 /**
- * How a mention that is an entry's name less some words still names that entry alone, or null:
+ * How a mention that is an entry's name less some words (or more) still names that entry alone,
+ * or null:
  * "attested" when the words left over lead the name and the entry's own record carries them
  * ("Yantai Laishan Airport" / "Laishan" of Yantai; compared by cores where the table has generic
  * words), "part" when the mention is the first or last words of the name and no other entry has
