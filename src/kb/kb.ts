@@ -7,7 +7,7 @@ import Database from "better-sqlite3";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { ftsWords } from "./postings.js";
 import { HotStore } from "./hot.js";
-import { NameForms, NameStore, type StoredForms } from "./names.js";
+import { NameForms, NameStore } from "./names.js";
 import type { EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
 import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, type UnpackedForm, unpackForms } from "./schema.js";
@@ -258,26 +258,6 @@ export class Kb {
       attributes: JSON.parse(r.attributes) as Record<string, string>,
       texts: unpackForms(r.forms).map((f) => f.text),
     };
-  }
-
-  /** Whether one of an entity's names holds every word of `words`. */
-  hasNameWithAll(eid: number, words: readonly string[]): boolean {
-    return this.names.hasNameWithAll(eid, words);
-  }
-
-  /** Whether one of an entity's names is `words` and more (see NameStore.someNameAround). */
-  someNameAround(
-    eid: number,
-    words: readonly string[],
-    atStart: boolean,
-    test: (rest: string) => boolean,
-  ): boolean {
-    return this.names.someNameAround(eid, words, atStart, test);
-  }
-
-  /** The normalized forms of an entity's names, from memory. */
-  nameForms(eid: number): StoredForms[] {
-    return this.names.forms(eid);
   }
 
   /** The description and attributes of an entity (the description is not needed for linking, so stored apart). */

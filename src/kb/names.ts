@@ -182,15 +182,7 @@ export class NameStore {
     return false;
   }
 
-  /** The forms of entity `eid`'s names, in the order the table gave them. */
-  forms(eid: number): StoredForms[] {
-    return this.formsWith(
-      eid,
-      (aid, key, full, canonical, tokens) => new NameForms(aid, key, full, canonical, tokens),
-    );
-  }
-
-  /** The forms of entity `eid`'s names, each made by `make` (a subclass of NameForms, say). */
+  /** The forms of entity `eid`'s names, in table order, each made by `make` (a NameForms or a subclass). */
   formsWith<T>(
     eid: number,
     make: (aid: number, key: string, full: string, canonical: boolean, tokens: string[]) => T,

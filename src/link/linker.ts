@@ -191,7 +191,7 @@ class CandidateWords implements WordEvidence {
     return !this.kb.hot.postings.someCarrier(
       words[0]!,
       ALONE_MAX_CARRIERS,
-      (eid) => eid !== this.eid && this.kb.hasNameWithAll(eid, tokens),
+      (eid) => eid !== this.eid && this.kb.names.hasNameWithAll(eid, tokens),
     );
   }
 

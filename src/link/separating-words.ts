@@ -50,7 +50,7 @@ function scan(kb: Kb, words: readonly string[], atStart: boolean): boolean {
   if (first === undefined) return false;
   return kb.hot.postings.someCarrier(first, SEPARATING_SCAN_LIMIT, (eid) => {
     const cls = kb.hot.classOf(eid);
-    return kb.someNameAround(eid, words, atStart, (rest) => {
+    return kb.names.someNameAround(eid, words, atStart, (rest) => {
       let other = false;
       kb.forEachKeyHit(rest, (c, kind, e) => {
         if (kind === "exact" && c === cls && e !== eid) other = true;
