@@ -261,7 +261,9 @@ export function nameMatch(
       !personLike &&
       exact < REORDERED_KEY_CREDIT &&
       (sameWordsReordered(norm.tokens, a.tokens) ||
-        sameWordsReordered(norm.full.split(" "), a.full.split(" ")))
+        // The full forms hold more words than the keys only where a side carries a qualifier.
+        ((norm.full !== norm.key || a.full !== a.key) &&
+          sameWordsReordered(norm.full.split(" "), a.full.split(" "))))
     ) {
       // Compared as the same words sorted (a "token sort" comparison), the names are equal.
       jw = 1;
