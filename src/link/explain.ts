@@ -27,6 +27,35 @@ export interface Explained {
   mentionType: string | null;
 }
 
+/**
+ * The reason cited for each key match but an exact one (see NameMatch.keyKind): its code and its
+ * sentence, given how the alias is called ("the name", "an alias") and its text.
+ */
+const KEY_MATCH_REASONS: Record<
+  Exclude<NonNullable<NameMatch["keyKind"]>, "exact">,
+  { code: string; message: (aliasWord: string, text: string) => string }
+> = {
+  core: {
+    code: "name-core",
+    message: (w, t) => `equals ${w} "${t}" once words that many of this table's names carry are set aside`,
+  },
+  attested: {
+    code: "name-attested",
+    message: (w, t) =>
+      `equals ${w} "${t}" once the words the entry's own record carries (its town, its country) are set aside`,
+  },
+  part: {
+    code: "name-unique-part",
+    message: (w, t) => `the first or last words of ${w} "${t}", words no other entry's names carry`,
+  },
+  head: {
+    code: "name-head",
+    message: (w, t) => `${w} "${t}", followed in the mention by a complement ("of ...", "and ...")`,
+  },
+  reordered: { code: "name-reordered", message: (w, t) => `the same words as ${w} "${t}", in another order` },
+  ocr: { code: "ocr-key", message: (_w, t) => `matches "${t}" once common OCR confusions are folded` },
+};
+
 /** Reasons about the evidence for one candidate. */
 export function evidenceReasons(c: Explained): Reason[] {
   const out: Reason[] = [];
@@ -45,42 +74,9 @@ export function evidenceReasons(c: Explained): Reason[] {
         exactKey: r3(c.features.exactKey),
       });
     }
-  } else if (c.name_.keyKind === "core") {
-    out.push({
-      code: "name-core",
-      message: `equals ${aliasWord} "${alias.text}" once words that many of this table's names carry are set aside`,
-      alias: alias.text,
-    });
-  } else if (c.name_.keyKind === "attested") {
-    out.push({
-      code: "name-attested",
-      message: `equals ${aliasWord} "${alias.text}" once the words the entry's own record carries (its town, its country) are set aside`,
-      alias: alias.text,
-    });
-  } else if (c.name_.keyKind === "part") {
-    out.push({
-      code: "name-unique-part",
-      message: `the first or last words of ${aliasWord} "${alias.text}", words no other entry's names carry`,
-      alias: alias.text,
-    });
-  } else if (c.name_.keyKind === "head") {
-    out.push({
-      code: "name-head",
-      message: `${aliasWord} "${alias.text}", followed in the mention by a complement ("of ...", "and ...")`,
-      alias: alias.text,
-    });
-  } else if (c.name_.keyKind === "reordered") {
-    out.push({
-      code: "name-reordered",
-      message: `the same words as ${aliasWord} "${alias.text}", in another order`,
-      alias: alias.text,
-    });
-  } else if (c.name_.keyKind === "ocr") {
-    out.push({
-      code: "ocr-key",
-      message: `matches "${alias.text}" once common OCR confusions are folded`,
-      alias: alias.text,
-    });
+  } else if (c.name_.keyKind !== null) {
+    const r = KEY_MATCH_REASONS[c.name_.keyKind];
+    out.push({ code: r.code, message: r.message(aliasWord, alias.text), alias: alias.text });
   }
   if (c.name_.abbreviationKind === "acronym") {
     out.push({ code: "acronym", message: `reads as the acronym of "${c.name}"` });
