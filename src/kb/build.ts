@@ -123,6 +123,8 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       context_docs: summary.entities,
       max_prior: summary.maxPrior,
       by_class: JSON.stringify(summary.byClass),
+      kind_columns: JSON.stringify(summary.kinds.kindColumns),
+      place_category_columns: JSON.stringify(summary.kinds.placeCategoryColumns),
       created: new Date().toISOString(),
     };
     db.transaction(() => {
@@ -169,6 +171,8 @@ interface LoadSummary {
   maxPrior: number;
   byClass: Record<string, number>;
   unknownTypes: Record<string, number>;
+  /** Attribute columns whose values sort the rows into kinds, and the categories of places among them (see kind-columns.ts). */
+  kinds: { kindColumns: string[]; placeCategoryColumns: string[] };
   /** Seconds spent in each phase of the build, in order. */
   phases: Record<string, number>;
   /** SHA-256 of the table file, hex. */
@@ -246,6 +250,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     maxPrior: writer.maxPrior,
     byClass: writer.byClass,
     unknownTypes: writer.unknownTypes,
+    kinds: writer.kinds.result(),
     phases,
     sourceSha256,
   };

@@ -31,6 +31,13 @@ export interface KbInfo {
   contextDocs: number;
   maxPrior: number;
   byClass: Record<string, number>;
+  /**
+   * Attribute columns whose values sort the rows into kinds (see kind-columns.ts); empty for KBs
+   * built before they were recorded.
+   */
+  kindColumns: string[];
+  /** The kind columns whose values are kinds of places ("District", "Province"). */
+  placeCategoryColumns: string[];
   created: string;
 }
 
@@ -444,6 +451,8 @@ function readInfo(db: Database.Database, file: string): KbInfo {
     contextDocs: num("context_docs"),
     maxPrior: num("max_prior"),
     byClass: JSON.parse(m.get("by_class") ?? "{}") as Record<string, number>,
+    kindColumns: JSON.parse(m.get("kind_columns") ?? "[]") as string[],
+    placeCategoryColumns: JSON.parse(m.get("place_category_columns") ?? "[]") as string[],
     created: m.get("created") ?? "",
   };
 }

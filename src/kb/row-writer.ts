@@ -12,6 +12,7 @@ import type { EntityRecord } from "../types.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FtsRows } from "./fts-load.js";
 import { HotStoreBuilder } from "./hot.js";
+import { KindColumnsBuilder } from "./kind-columns.js";
 import { type StoredName, storedName } from "./names.js";
 import { type KeyKind, type PackedForm, packForms } from "./schema.js";
 
@@ -35,6 +36,8 @@ export class RowWriter {
   /** Class, prior, context terms and name-token signature of every entity (see hot.ts). */
   readonly hot = new HotStoreBuilder();
   readonly fts = new FtsRows();
+  /** Statistics of the attribute columns, for the table's kind columns (see kind-columns.ts). */
+  readonly kinds = new KindColumnsBuilder();
 
   private readonly insEntity: BatchInsert;
   private readonly insDetails: BatchInsert;
@@ -68,6 +71,7 @@ export class RowWriter {
     if (!this.labels.knowsTableType(r.type)) this.unknownTypes[r.type] = (this.unknownTypes[r.type] ?? 0) + 1;
     this.byClass[cls] = (this.byClass[cls] ?? 0) + 1;
     if (r.prior > this.maxPrior) this.maxPrior = r.prior;
+    this.kinds.observe(r.attributes);
     const attrValues = Object.values(r.attributes);
     const attrText = attrValues.join(" ");
     const terms = contextTerms(`${r.description} ${attrText}`);

@@ -52,6 +52,10 @@ const KEY_MATCH_REASONS: Record<
     code: "name-head",
     message: (w, t) => `${w} "${t}", followed in the mention by a complement ("of ...", "and ...")`,
   },
+  kind: {
+    code: "name-kind",
+    message: (w, t) => `${w} "${t}" with the kind the entry's record gives it (its type or category)`,
+  },
   reordered: { code: "name-reordered", message: (w, t) => `the same words as ${w} "${t}", in another order` },
   ocr: { code: "ocr-key", message: (_w, t) => `matches "${t}" once common OCR confusions are folded` },
 };

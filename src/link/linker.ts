@@ -18,6 +18,8 @@ import type { EntityRow, Kb, TermInfo } from "../kb/kb.js";
 import { ftsWords } from "../kb/postings.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
+import { foldTokens } from "../normalize/fold.js";
+import { GENERIC_PLACE_TYPES, PARTICULAR_PLACE_KINDS, PLACE_KIND_WORDS } from "../normalize/lexicon.js";
 import { normalizeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import {
@@ -160,6 +162,9 @@ class CandidateWords implements WordEvidence {
   eid = 0;
   /** Most records that may carry an attested word (see ATTESTED_MAX_SHARE). */
   private readonly attestedMaxDf: number;
+  /** The entity whose kind words `kinds` holds (0: none yet). */
+  private kindsOf = 0;
+  private kinds: KindWords = { words: new Set(), open: false };
 
   constructor(private readonly kb: Kb) {
     this.attestedMaxDf = Math.max(1, ATTESTED_MAX_SHARE * kb.info.entities);
@@ -204,6 +209,14 @@ class CandidateWords implements WordEvidence {
     return separatesEntries(this.kb, words, atStart);
   }
 
+  kind(t: string): boolean {
+    if (this.kindsOf !== this.eid) {
+      this.kindsOf = this.eid;
+      this.kinds = kindWordsOf(this.kb, this.eid);
+    }
+    return this.kinds.words.has(t) || (this.kinds.open && PLACE_KIND_WORDS.has(t));
+  }
+
   /** A name word's context term (stemmed) as the KB knows it, or null; kept per mention. */
   private termOf(word: string): TermInfo | null {
     const p = this.p!;
@@ -217,6 +230,41 @@ class CandidateWords implements WordEvidence {
     }
     return info;
   }
+}
+
+/**
+ * The words with which an entity's record gives its kind: those of its values in the table's
+ * kind columns (src/kb/kind-columns.ts) and of its table type, unless a generic one
+ * (GENERIC_PLACE_TYPES: "region" says nothing of a row's kind). A place whose record names no
+ * kind of place of its own (typed "region" or "place", with a country column but no category)
+ * may take any of the usual words for the kind of an administrative area (PLACE_KIND_WORDS:
+ * "Bhola District", "Ivanovo Oblast"); one typed "town" (PARTICULAR_PLACE_KINDS), or given a
+ * value in a category of places, only its own ("Kindia Region" is no name of the prefecture
+ * Kindia, nor "Ambry Parish" of the hundred Ambry).
+ */
+interface KindWords {
+  words: ReadonlySet<string>;
+  /** Any of PLACE_KIND_WORDS counts too. */
+  open: boolean;
+}
+
+function kindWordsOf(kb: Kb, eid: number): KindWords {
+  const e = kb.entity(eid);
+  const words = new Set<string>();
+  let open = e.cls === "location";
+  const { kindColumns, placeCategoryColumns } = kb.info;
+  for (const column of kindColumns) {
+    const value = e.attributes[column];
+    if (value === undefined || value.trim() === "") continue;
+    for (const t of foldTokens(value)) words.add(t);
+    if (placeCategoryColumns.includes(column)) open = false;
+  }
+  for (const t of foldTokens(e.type)) {
+    if (GENERIC_PLACE_TYPES.has(t)) continue;
+    words.add(t);
+    if (PARTICULAR_PLACE_KINDS.has(t)) open = false;
+  }
+  return { words, open };
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;

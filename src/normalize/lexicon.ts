@@ -237,6 +237,81 @@ export const PLACE_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
 ]);
 
 /**
+ * Words that give the kind of an administrative area after its name ("Bhola District", "Ivanovo
+ * Oblast", "Najaf Governorate"), in English and as English texts carry them over from other
+ * languages (oblast, krai, okrug, raion/rayon, voivodeship: from memory).
+ * Not "city" or "town", which end names ("Mexico City", "Cape Town"). Common practice of
+ * gazetteers, which list the name and give the kind apart. Read by the "kind" match of
+ * src/score/features.ts, for places whose record gives no kind of its own.
+ */
+export const PLACE_KIND_WORDS: ReadonlySet<string> = new Set([
+  "district",
+  "province",
+  "county",
+  "parish",
+  "municipality",
+  "department",
+  "governorate",
+  "prefecture",
+  "region",
+  "state",
+  "territory",
+  "canton",
+  "commune",
+  "division",
+  "zone",
+  "emirate",
+  "oblast",
+  "krai",
+  "kray",
+  "okrug",
+  "raion",
+  "rayon",
+  "voivodeship",
+]);
+
+/**
+ * Words for a particular kind of place: PLACE_KIND_WORDS and the kinds of settlements and lands.
+ * A place whose record gives one of them (its type "town", its category "Province") has a kind
+ * of its own, and takes no other from PLACE_KIND_WORDS.
+ */
+export const PARTICULAR_PLACE_KINDS: ReadonlySet<string> = new Set([
+  ...PLACE_KIND_WORDS,
+  "city",
+  "town",
+  "village",
+  "hamlet",
+  "township",
+  "settlement",
+  "borough",
+  "country",
+  "nation",
+  "island",
+  "port",
+  "capital",
+]);
+
+/**
+ * Table types that name no particular kind of place: a table of "region" or "subdivision" rows
+ * holds districts and provinces alike, so such a type says nothing of a row's kind.
+ */
+export const GENERIC_PLACE_TYPES: ReadonlySet<string> = new Set([
+  "region",
+  "place",
+  "location",
+  "loc",
+  "gpe",
+  "geo",
+  "area",
+  "subdivision",
+  "division",
+  "territory",
+  "administrative",
+  "admin",
+  "unit",
+]);
+
+/**
  * Heads of a trailing place designator, the "Federation" of "Russian Federation" and the
  * "Republic" of "Czech Republic": set aside like a leading one, so "Russia" meets "russian" and
  * "Czechia" meets "czech" by similarity. Only these three: a trailing "Kingdom" or "States" is

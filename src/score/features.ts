@@ -82,10 +82,11 @@ export interface NameMatch {
    * Airport" for "Laishan", whose city is Yantai), or a mention that is the first or last words
    * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek"), a name
    * followed in the mention by a complement ("head": "United Kingdom of Great Britain and
-   * Northern Ireland" for "United Kingdom"), or the same words in another order ("reordered":
-   * "Virgin Islands, British").
+   * Northern Ireland" for "United Kingdom"), the name with the kind its record gives it ("kind":
+   * "Bhola District" for the district Bhola, "Metropolitan City of Bologna"), or the same words in
+   * another order ("reordered": "Virgin Islands, British").
    */
-  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "head" | "reordered" | null;
+  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "head" | "kind" | "reordered" | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -115,6 +116,11 @@ export interface WordEvidence {
   alone(tokens: readonly string[]): boolean;
   /** The entity's own record carries the word, however many others do. */
   carried(token: string): boolean;
+  /**
+   * The entity's record gives its kind with the word: the value of one of the table's kind
+   * columns (src/kb/kind-columns.ts: a category such as "District", a country), or its table type.
+   */
+  kind(token: string): boolean;
   /**
    * The table holds a name made of these words and another entry's name, before it (`atStart`) or
    * after: "Old English" beside "English", "Ukrainian Sign Language" beside "Ukrainian".
@@ -378,6 +384,26 @@ function sameBeyondAttested(
 }
 
 /**
+ * True when the mention is the alias followed by words its record gives as its kind ("Bhola
+ * District" for Bhola, a district; "Ivanovo Oblast"), or such words and "of" before the alias
+ * ("Metropolitan City of Bologna" for Bologna, a metropolitan city). Gazetteers, directories and
+ * registers name a place or a body by its name alone and give its kind in a column of its own;
+ * texts put the two together.
+ */
+function withKindWords(mention: readonly string[], alias: readonly string[], words: WordEvidence): boolean {
+  const extra = mention.length - alias.length;
+  if (extra <= 0) return false;
+  const isKind = (t: string) => t.length >= MIN_ATTESTED_WORD_LENGTH && words.kind(t);
+  if (isPrefix(alias, mention) && mention.slice(alias.length).every(isKind)) return true;
+  return (
+    extra >= 2 &&
+    mention[extra - 1] === "of" &&
+    isSuffix(alias, mention) &&
+    mention.slice(0, extra - 1).every(isKind)
+  );
+}
+
+/**
  * How a mention that is an entry's name less some words (or more) still names that entry alone,
  * or null:
  * "attested" when the words left over lead the name and the entry's own record carries them
@@ -397,9 +423,10 @@ function shortFormKind(
   mentionCore: readonly string[],
   aliasCore: readonly string[],
   words: WordEvidence | null,
-): "attested" | "part" | "head" | null {
+): "attested" | "part" | "head" | "kind" | null {
   if (words === null) return null;
   if (sameBeyondAttested(mentionCore, aliasCore, (t) => words.attested(t))) return "attested";
+  if (aliasCore.length > 0 && withKindWords(mention, alias, words)) return "kind";
   // The mirror of a head before "of" or "and": the mention says more, after a name of the table
   // that is one entry's alone ("United Kingdom of Great Britain and Northern Ireland" for "United
   // Kingdom", "Svalbard and Jan Mayen" for "Svalbard"); a firm's "& Co." or "& Sons" read as
