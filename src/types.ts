@@ -88,6 +88,13 @@ export interface Features {
    * places) a name one letter off is often another place, in a small one it is a misspelling.
    */
   nearSpelling: number;
+  /**
+   * 1 when the mention's context names a value of one of the table's kind columns (a country, a
+   * county: src/kb/kind-columns.ts) that the entity's record does not carry, names none it does,
+   * and the record carries such values: "Kara" in a text about Nigeria against a region of Togo.
+   * Else 0. Its weight is negative.
+   */
+  contextConflict: number;
 }
 
 export type FeatureName = keyof Features;
@@ -102,6 +109,7 @@ export const FEATURE_NAMES: readonly FeatureName[] = [
   "typeMatch",
   "prior",
   "nearSpelling",
+  "contextConflict",
 ];
 
 /** Which generation path found a candidate. */

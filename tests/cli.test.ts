@@ -198,6 +198,9 @@ describe("hawser info", () => {
     // Measured on the table: the gazette's few hundred names are not crowded.
     expect(info.nearNameRate).toBeGreaterThanOrEqual(0);
     expect(info.nearNameRate).toBeLessThan(0.05);
+    // The kind columns are listed; their values only counted.
+    expect(Array.isArray(info.kindColumns)).toBe(true);
+    expect(typeof info.kindValues).toBe("number");
   });
 
   it("exits 1 on a missing KB", () => {

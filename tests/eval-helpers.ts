@@ -11,6 +11,7 @@ export const ZERO_FEATURES: Features = {
   typeMatch: 0,
   prior: 0,
   nearSpelling: 0,
+  contextConflict: 0,
 };
 
 export function gold(

@@ -75,7 +75,12 @@ describe("kind columns", () => {
       b.observe({
         country: i === 0 ? "Macedonia, the Former Yugoslav Republic Of" : i % 2 ? "Wendland" : "Ambry Vale",
       });
-    expect(b.result()).toEqual({ kindColumns: ["country"], placeCategoryColumns: [] });
+    // Its short values are kept, lower case, for the contextConflict feature.
+    expect(b.result()).toEqual({
+      kindColumns: ["country"],
+      placeCategoryColumns: [],
+      kindValues: ["wendland", "ambry vale"],
+    });
   });
 });
 

@@ -31,6 +31,7 @@ function features(random: () => number, base: number, noise: number, exact: bool
     typeMatch: random() < 0.9 ? 1 : 0.5,
     prior: clamp(random()),
     nearSpelling: 0,
+    contextConflict: 0,
   };
 }
 

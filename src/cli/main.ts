@@ -325,7 +325,15 @@ export function program(): Command {
       const kb = openKb(file);
       try {
         // The near-name rate is measured, not stored (src/link/crowding.ts): up to a second at 1M.
-        out(JSON.stringify({ ...kb.info, nearNameRate: createLinker(kb).nearNameRate }, null, 2));
+        // The kind values (a table's countries, counties) are counted, not listed: there may be thousands.
+        const { kindValues, ...info } = kb.info;
+        out(
+          JSON.stringify(
+            { ...info, kindValues: kindValues.length, nearNameRate: createLinker(kb).nearNameRate },
+            null,
+            2,
+          ),
+        );
       } finally {
         kb.close();
       }

@@ -9,6 +9,7 @@ import { basename, dirname, join } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
+import { contextTerms } from "../score/terms.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
@@ -125,6 +126,11 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       by_class: JSON.stringify(summary.byClass),
       kind_columns: JSON.stringify(summary.kinds.kindColumns),
       place_category_columns: JSON.stringify(summary.kinds.placeCategoryColumns),
+      kind_values: JSON.stringify(
+        summary.kinds.kindValues
+          .map((value) => ({ value, terms: contextTerms(value) }))
+          .filter((v) => v.terms.length > 0),
+      ),
       created: new Date().toISOString(),
     };
     db.transaction(() => {
@@ -172,7 +178,7 @@ interface LoadSummary {
   byClass: Record<string, number>;
   unknownTypes: Record<string, number>;
   /** Attribute columns whose values sort the rows into kinds, and the categories of places among them (see kind-columns.ts). */
-  kinds: { kindColumns: string[]; placeCategoryColumns: string[] };
+  kinds: { kindColumns: string[]; placeCategoryColumns: string[]; kindValues: string[] };
   /** Seconds spent in each phase of the build, in order. */
   phases: Record<string, number>;
   /** SHA-256 of the table file, hex. */

@@ -38,6 +38,11 @@ export interface KbInfo {
   kindColumns: string[];
   /** The kind columns whose values are kinds of places ("District", "Province"). */
   placeCategoryColumns: string[];
+  /**
+   * The values of the kind columns that are not categories of places (its rows' countries,
+   * counties), each (folded to lower case) with its context terms: see the contextConflict feature.
+   */
+  kindValues: Array<{ value: string; terms: string[] }>;
   created: string;
 }
 
@@ -453,6 +458,7 @@ function readInfo(db: Database.Database, file: string): KbInfo {
     byClass: JSON.parse(m.get("by_class") ?? "{}") as Record<string, number>,
     kindColumns: JSON.parse(m.get("kind_columns") ?? "[]") as string[],
     placeCategoryColumns: JSON.parse(m.get("place_category_columns") ?? "[]") as string[],
+    kindValues: JSON.parse(m.get("kind_values") ?? "[]") as Array<{ value: string; terms: string[] }>,
     created: m.get("created") ?? "",
   };
 }

@@ -37,6 +37,13 @@ export const KIND_MAX_OTHER_SHARE = 0.1;
  */
 export const PLACE_CATEGORY_SHARE = 0.25;
 
+/**
+ * Most distinct values of one kind column kept among the table's kind values (the countries, the
+ * counties its rows lie in; see contextConflict in src/types.ts): a column of more is no short
+ * list of kinds.
+ */
+export const MAX_KIND_VALUES = 5_000;
+
 /** A value that is a number (a year, a tonnage, a code of digits): never a kind. */
 const NUMERIC = /^[\d\s.,:/+-]+$/;
 
@@ -81,9 +88,10 @@ export class KindColumnsBuilder {
    * The kind columns, in order of first appearance; and of them the categories of places, whose
    * values are kinds of places more often than not (see PLACE_CATEGORY_SHARE).
    */
-  result(): { kindColumns: string[]; placeCategoryColumns: string[] } {
+  result(): { kindColumns: string[]; placeCategoryColumns: string[]; kindValues: string[] } {
     const kindColumns: string[] = [];
     const placeCategoryColumns: string[] = [];
+    const kindValues: string[] = [];
     for (const [column, { rows, other, values }] of this.columns) {
       if (values === null || rows < KIND_MIN_ROWS || other > KIND_MAX_OTHER_SHARE * rows) continue;
       if (values.size > KIND_MAX_DISTINCT_SHARE * rows) continue;
@@ -91,7 +99,8 @@ export class KindColumnsBuilder {
       let kinds = 0;
       for (const v of values) if (foldTokens(v).some((t) => PARTICULAR_PLACE_KINDS.has(t))) kinds++;
       if (kinds >= PLACE_CATEGORY_SHARE * values.size) placeCategoryColumns.push(column);
+      else if (values.size <= MAX_KIND_VALUES) kindValues.push(...values);
     }
-    return { kindColumns, placeCategoryColumns };
+    return { kindColumns, placeCategoryColumns, kindValues };
   }
 }

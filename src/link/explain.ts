@@ -22,6 +22,8 @@ export interface Explained {
   name_: NameMatch;
   paths: Set<CandidatePath>;
   sharedTerms: string[];
+  /** The values of the table's kind columns the context names (cited when contextConflict fires). */
+  contextKinds: () => string[];
   /** The entity's table type, asked for only when a type mismatch is cited (it may cost a row read). */
   entityType: () => string;
   mentionType: string | null;
@@ -115,6 +117,14 @@ export function evidenceReasons(c: Explained): Reason[] {
       code: "near-spelling",
       message: `spelled only near the entry's names, in a table where ${pct}% of names have another entry's near spelling: counts less`,
       nearNameRate: r3(c.features.nearSpelling),
+    });
+  }
+  if (c.features.contextConflict > 0) {
+    const named = c.contextKinds();
+    out.push({
+      code: "context-conflict",
+      message: `the context names ${named.map((v) => `"${v}"`).join(", ")} but not the value the entry's record gives in the same column (its country, its county...): counts against`,
+      values: named,
     });
   }
   if (c.features.context >= CONTEXT_CITED) {

@@ -55,6 +55,7 @@ import {
 } from "../document/evidence.js";
 import type { Decision } from "../decide/decide.js";
 import { measureNearNameRate, nearNameRateOf } from "./crowding.js";
+import { KindValues } from "./kind-values.js";
 import { separatesEntries } from "./separating-words.js";
 import { decisionReason, evidenceReasons } from "./explain.js";
 import { type Surface, SurfaceCache } from "./surface-cache.js";
@@ -151,6 +152,8 @@ interface Prepared {
   context: IdVector | null;
   /** Name words' context terms, as looked up (see CandidateWords.termOf). */
   wordTerms?: Map<string, TermInfo | null>;
+  /** The values of the table's kind columns the context names (see KindValues). */
+  contextKinds: number[] | null;
 }
 
 /**
@@ -284,6 +287,8 @@ export class Linker {
   private readonly surfaces: SurfaceCache;
   /** The table's generic name words (src/score/table-words.ts). */
   private readonly genericWords: ReadonlySet<string>;
+  /** The values of the table's kind columns (countries, counties), for contextConflict. */
+  private readonly kindValues: KindValues;
   /** What scoring asks of a candidate's words (see CandidateWords). */
   private readonly candidateWords: CandidateWords;
   /** The KB's near-name rate once known (see nearNameRate). */
@@ -337,6 +342,7 @@ export class Linker {
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
     this.priorOf = priorFeatureFor(kb.info.maxPrior);
     this.genericWords = genericWordsOf(kb);
+    this.kindValues = new KindValues(kb);
     this.candidateWords = new CandidateWords(kb);
   }
 
@@ -375,6 +381,7 @@ export class Linker {
       forms,
       surface: { forms, own: undefined, pool: undefined, weight: 0, held: false },
       context: null,
+      contextKinds: null,
     };
     return this.scorePrepared(p).some(
       (s) => s.entity.eid !== eid && !s.name.spelledAlike && s.score >= this.config.threshold,
@@ -412,7 +419,9 @@ export class Linker {
         context = idVector(v, this.idfOf, (t) => this.kb.termInfo(t).id);
       }
     }
-    return { mention: m, info, forms: surface.forms, surface, context };
+    const contextKinds =
+      context === null || !this.kindValues.any ? null : this.kindValues.namedIn(context.ids);
+    return { mention: m, info, forms: surface.forms, surface, context, contextKinds };
   }
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
@@ -422,8 +431,20 @@ export class Linker {
     words.eid = e.eid;
     const name = nameMatch(form.norm, e, this.genericWords, words);
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
-    const f = features(name, context, p.info.compat[e.cls], this.priorOf(e.prior), this.nearNameRate);
+    const f = features(
+      name,
+      context,
+      p.info.compat[e.cls],
+      this.priorOf(e.prior),
+      this.nearNameRate,
+      this.contextConflictOf(p, e.eid),
+    );
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
+  }
+
+  /** The contextConflict feature (see KindValues.conflict). */
+  private contextConflictOf(p: Prepared, eid: number): number {
+    return p.contextKinds === null ? 0 : this.kindValues.conflict(p.contextKinds, eid);
   }
 
   /**
@@ -649,6 +670,7 @@ export class Linker {
       name_: c.name,
       paths: c.paths,
       sharedTerms: this.sharedTerms(p, c.entity),
+      contextKinds: () => this.kindValues.textsOf(p.contextKinds ?? []),
       entityType: () => c.entity.type,
       // An unknown label is compared at a neutral weight (and warned about), not a mismatch.
       mentionType: this.labels.knows(m.type) ? (m.type ?? null) : null,

@@ -33,6 +33,12 @@ import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
  *   6, 8, 10 and 14 were tried on the open cities check, the synthetic 100k and 1M tables, the
  *   sample archive and the country checks; 8 is in the middle of the range that helps all of
  *   them (benchmarks/README.md, "Near spellings in crowded tables").
+ * - contextConflict (the context names another country or county than the record gives) costs
+ *   3 log-odds: a name spelled as the table spells it still links (about 4.5 -> 1.5), a near
+ *   spelling or a short form, which scores lower, does not. Measured, not fitted: -2, -3, -4 and
+ *   -6 on the subdivision and airfield checks and the sample archive; -4 and beyond lose
+ *   mentions of the archive, whose articles name counties in passing (benchmarks/README.md,
+ *   "Real open data: country subdivisions").
  */
 export const DEFAULT_WEIGHTS: Weights = {
   bias: -10,
@@ -46,6 +52,7 @@ export const DEFAULT_WEIGHTS: Weights = {
     typeMatch: 2,
     prior: 0.5,
     nearSpelling: -8,
+    contextConflict: -3,
   },
 };
 

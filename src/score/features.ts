@@ -641,6 +641,7 @@ export function features(
   typeMatch: number,
   prior: number,
   nearNameRate: number,
+  contextConflict = 0,
 ): Features {
   return {
     jaroWinkler: name.jaroWinkler,
@@ -652,5 +653,6 @@ export function features(
     typeMatch,
     prior,
     nearSpelling: name.spelledAlike ? 0 : nearNameRate,
+    contextConflict,
   };
 }
