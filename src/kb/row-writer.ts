@@ -6,7 +6,7 @@
  */
 import type Database from "better-sqlite3";
 import type { LabelMap } from "../labels/label-map.js";
-import { normalizeName } from "../normalize/name.js";
+import { normalizeName, splitTradeName } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
 import type { EntityRecord } from "../types.js";
 import { BatchInsert } from "./batch-insert.js";
@@ -91,8 +91,14 @@ export class RowWriter {
       this.hot.addKey(key, cls, kind, eid);
       this.keys++;
     };
-    for (let i = 0; i <= r.aliases.length; i++) {
-      const text = i === 0 ? r.name : r.aliases[i - 1]!;
+    // A name given with another ("X d/b/a Y") adds the other as an alias (see splitTradeName).
+    const texts = [r.name, ...r.aliases];
+    for (let i = 0, n = texts.length; i < n; i++) {
+      const other = splitTradeName(texts[i]!)?.alsoNamed;
+      if (other !== undefined) texts.push(other);
+    }
+    for (let i = 0; i < texts.length; i++) {
+      const text = texts[i]!;
       const n = normalizeName(text, cls);
       if (n.key === "") continue;
       this.aliases++;

@@ -20,7 +20,7 @@ import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { foldTokens } from "../normalize/fold.js";
 import { GENERIC_PLACE_TYPES, PARTICULAR_PLACE_KINDS, PLACE_KIND_WORDS } from "../normalize/lexicon.js";
-import { normalizeName } from "../normalize/name.js";
+import { normalizeName, splitTradeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import {
   features,
@@ -401,9 +401,13 @@ export class Linker {
     const surface = this.surfaces.get(key, () => {
       const forms: MentionForm[] = [];
       if (info.linkable) {
+        // A mention given with another name ("X d/b/a Y") is compared under both (see scoreOne).
+        const other = splitTradeName(text)?.alsoNamed;
         for (const cls of ENTITY_CLASSES) {
           const compat = info.compat[cls];
-          if (compat >= this.blockMinCompat) forms.push({ cls, norm: normalizeName(text, cls), compat });
+          if (compat < this.blockMinCompat) continue;
+          forms.push({ cls, norm: normalizeName(text, cls), compat });
+          if (other !== undefined) forms.push({ cls, norm: normalizeName(other, cls), compat });
         }
       }
       return forms;
@@ -425,7 +429,23 @@ export class Linker {
   }
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
-    const form = p.forms.find((f) => f.cls === cls) ?? p.forms[0]!;
+    let best: ScoredCandidate | null = null;
+    // Most mentions have one form per class; one given with another name has two, and the
+    // better comparison counts.
+    for (const form of p.forms) {
+      if (form.cls !== cls) continue;
+      const scored = this.scoreForm(p, form, e, paths);
+      if (best === null || scored.score > best.score) best = scored;
+    }
+    return best ?? this.scoreForm(p, p.forms[0]!, e, paths);
+  }
+
+  private scoreForm(
+    p: Prepared,
+    form: MentionForm,
+    e: EntityRow,
+    paths: Set<CandidatePath>,
+  ): ScoredCandidate {
     const words = this.candidateWords;
     words.p = p;
     words.eid = e.eid;

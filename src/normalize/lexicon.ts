@@ -119,7 +119,14 @@ export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = {
 
 /**
  * Legal-form and firm-structure words. Each maps to a canonical spelling; all are removed from the
- * matching key of an organization and kept (canonical) in its full form.
+ * matching key of an organization (after its first word) and kept (canonical) in its full form.
+ * Besides the English ones, the forms registers and filings of other countries give after a firm's
+ * name (from memory; common practice of company-name matching): German GmbH, AG, KG, OHG, UG;
+ * French SARL, SAS, SASU, EURL; Spanish and Portuguese S.L., S.L.U., S.A.U., Ltda., Cía.; Italian
+ * S.p.A., S.r.l.; Dutch and Belgian N.V., B.V., BVBA; Nordic AB, Oy, Oyj, ASA, hf.; Czech and
+ * Slovak s.r.o., a.s.; Hungarian Kft., Zrt., Nyrt.; Balkan d.o.o., d.d., OOD, EOOD; Baltic SIA,
+ * UAB; Russian and neighbouring OOO, OAO, ZAO, PAO, JSC and its variants; Malaysian Bhd.,
+ * Indonesian Tbk., Japanese K.K.; Australian, Singaporean and Indian Pty, Pte, Pvt.
  */
 export const LEGAL_FORMS: Readonly<Record<string, string>> = {
   co: "co",
@@ -147,8 +154,96 @@ export const LEGAL_FORMS: Readonly<Record<string, string>> = {
   sa: "sa",
   nv: "nv",
   bv: "bv",
+  lp: "lp",
+  pllc: "pllc",
+  pty: "pty",
+  pvt: "pvt",
+  kg: "kg",
+  ohg: "ohg",
+  ug: "ug",
+  sarl: "sarl",
+  sas: "sas",
+  sasu: "sasu",
+  eurl: "eurl",
+  sl: "sl",
+  slu: "slu",
+  sau: "sau",
+  ltda: "ltda",
+  cia: "co",
+  spa: "spa",
+  srl: "srl",
+  bvba: "bvba",
+  ab: "ab",
+  abp: "abp",
+  oy: "oy",
+  oyj: "oyj",
+  asa: "asa",
+  hf: "hf",
+  ehf: "ehf",
+  sro: "sro",
+  kft: "kft",
+  zrt: "zrt",
+  nyrt: "nyrt",
+  doo: "doo",
+  dd: "dd",
+  ood: "ood",
+  eood: "eood",
+  sia: "sia",
+  uab: "uab",
+  ooo: "ooo",
+  oao: "oao",
+  zao: "zao",
+  pao: "pao",
+  jsc: "jsc",
+  ojsc: "ojsc",
+  cjsc: "cjsc",
+  pjsc: "pjsc",
+  bhd: "bhd",
+  tbk: "tbk",
+  kk: "kk",
+  ltee: "ltd",
   and: "and",
 };
+
+/**
+ * Legal forms of several words as a name's tokens spell them once folded ("Sp. z o.o." ->
+ * "sp zoo", "S.A. de C.V." -> "sa de cv", "Sdn. Bhd."), each with its canonical form: removed
+ * from an organization's key after its first word, as LEGAL_FORMS are. "Pte" is read as a legal
+ * form only so, before "Ltd" (elsewhere it is "Pointe").
+ */
+export const LEGAL_FORM_PHRASES: ReadonlyArray<readonly [readonly string[], string]> = [
+  [["sa", "de", "cv"], "sadecv"],
+  [["de", "cv"], "cv"],
+  [["s", "de", "rl"], "sderl"],
+  [["sp", "zoo"], "spzoo"],
+  [["spol", "sro"], "sro"],
+  [["sh", "pk"], "shpk"],
+  [["sdn", "bhd"], "sdnbhd"],
+  [["pte", "ltd"], "pte"],
+  [["pte", "limited"], "pte"],
+  [["gmbh", "co", "kg"], "gmbhcokg"],
+  [["open", "joint", "stock", "company"], "ojsc"],
+  [["closed", "joint", "stock", "company"], "cjsc"],
+  [["public", "joint", "stock", "company"], "pjsc"],
+  [["joint", "stock", "company"], "jsc"],
+  [["limited", "liability", "company"], "llc"],
+  [["public", "limited", "company"], "plc"],
+];
+
+/**
+ * Legal forms written before a firm's name (Russian and neighbouring registers: OJSC "Tajik Air",
+ * OOO "Romashka"; the phrases spelled out): removed from the key when a name follows.
+ */
+export const LEADING_LEGAL_FORMS: ReadonlySet<string> = new Set([
+  "ooo",
+  "oao",
+  "zao",
+  "pao",
+  "jsc",
+  "ojsc",
+  "cjsc",
+  "pjsc",
+]);
 
 /** Place-name abbreviations, expanded for locations (and for organizations named after places). */
 export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = {

@@ -11,6 +11,8 @@ import {
   GENERATIONAL,
   GIVEN_NAME_ABBREVIATIONS,
   HONORIFICS,
+  LEADING_LEGAL_FORMS,
+  LEGAL_FORM_PHRASES,
   LEGAL_FORMS,
   PLACE_ABBREVIATIONS,
   PLACE_DESIGNATOR_HEADS,
@@ -22,7 +24,7 @@ import {
 import { ocrFold } from "./ocr.js";
 
 /** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
-export const NORMALIZER_VERSION = "3";
+export const NORMALIZER_VERSION = "4";
 
 export interface NormalizedName {
   /** Every folded token of the input, nothing removed. */
@@ -181,6 +183,30 @@ function stripPerson(tokens: string[]): Stripped {
   return { tokens: core.length > 0 ? core : tokens.slice(), suffix, legal: [] };
 }
 
+/**
+ * Words that join a name to another name of the same firm or person in registers and filings:
+ * "doing business as", "trading as", "also known as", "formerly known as" and their
+ * abbreviations (common practice of company filings).
+ */
+const TRADE_NAME_MARKER =
+  /\s*,?\s+(?:d\/b\/a|d\.b\.a\.?|dba|t\/a|trading\s+as|doing\s+business\s+as|a\/k\/a|a\.k\.a\.?|also\s+known\s+as|f\/k\/a|f\.k\.a\.?|fka|formerly\s+known\s+as|formerly)\s+/i;
+
+/**
+ * A name given with another name of the same firm ("Jubba Airways Limited d/b/a Jubba Airways",
+ * "Springjet, S.A. t/a HiFly", "Kell Bros. formerly Kell & Sons"), split in two: the name before
+ * the marker and the other after it; null when the text has no marker with words on both sides.
+ * normalizeName reads the first; the index keeps the second as an alias and the linker compares
+ * a mention under both.
+ */
+export function splitTradeName(text: string): { name: string; alsoNamed: string } | null {
+  const m = TRADE_NAME_MARKER.exec(text);
+  if (m === null) return null;
+  const name = text.slice(0, m.index).replace(/[\s,;]+$/, "");
+  const alsoNamed = text.slice(m.index + m[0].length).trim();
+  if (!/[\p{L}\p{N}]/u.test(name) || !/[\p{L}\p{N}]/u.test(alsoNamed)) return null;
+  return { name, alsoNamed };
+}
+
 /** Legal forms long enough that one OCR slip cannot turn another word into them. */
 const LONG_LEGAL_FORMS = Object.keys(LEGAL_FORMS).filter((f) => f.length >= 7);
 
@@ -213,16 +239,52 @@ function withinOneEdit(a: string, b: string): boolean {
   return a.length > b.length ? a.slice(i + 1) === b.slice(i) : a.slice(i) === b.slice(i + 1);
 }
 
+/** The length and canonical form of a legal-form phrase starting at tokens[i], or null. */
+function legalPhraseAt(tokens: readonly string[], i: number): readonly [number, string] | null {
+  for (const [words, form] of LEGAL_FORM_PHRASES) {
+    if (i + words.length > tokens.length) continue;
+    let all = true;
+    for (let k = 0; k < words.length && all; k++) all = tokens[i + k] === words[k];
+    if (all) return [words.length, form];
+  }
+  return null;
+}
+
+/**
+ * The number of tokens a legal form written before the name takes (OJSC "Tajik Air", "Open
+ * Joint Stock Company Angara Airlines"), 0 when none or when nothing would be left.
+ */
+function leadingLegalForm(tokens: readonly string[]): number {
+  const phrase = legalPhraseAt(tokens, 0);
+  const n =
+    phrase !== null && LEADING_LEGAL_FORMS.has(phrase[1])
+      ? phrase[0]
+      : LEADING_LEGAL_FORMS.has(tokens[0]!)
+        ? 1
+        : 0;
+  return n < tokens.length ? n : 0;
+}
+
 function stripOrganization(tokens: string[]): Stripped {
   const core: string[] = [];
   const legal: string[] = [];
-  for (let i = 0; i < tokens.length; i++) {
+  const lead = leadingLegalForm(tokens);
+  if (lead > 0) legal.push(legalPhraseAt(tokens, 0)?.[1] ?? tokens[0]!);
+  for (let i = lead; i < tokens.length; i++) {
     const t = tokens[i]!;
-    const form = legalFormOf(t);
     // Legal forms are only stripped after the first core word ("Company of Watermen" keeps its head).
-    if (form !== undefined && core.length > 0) {
-      if (form !== "and") legal.push(form);
-      continue;
+    if (core.length > 0) {
+      const phrase = legalPhraseAt(tokens, i);
+      if (phrase !== null) {
+        legal.push(phrase[1]);
+        i += phrase[0] - 1;
+        continue;
+      }
+      const form = legalFormOf(t);
+      if (form !== undefined) {
+        if (form !== "and") legal.push(form);
+        continue;
+      }
     }
     core.push(PLACE_ABBREVIATIONS[t] ?? t);
   }
@@ -334,7 +396,9 @@ export function trailingDesignatorStart(tokens: readonly string[]): number {
  * Every class: digits inside words are read as the letters OCR mistakes them for ("A1dous" ->
  * "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
  */
-export function normalizeName(raw: string, cls: EntityClass): NormalizedName {
+export function normalizeName(name: string, cls: EntityClass): NormalizedName {
+  // "X d/b/a Y" is normalized as X; Y is the name's other name (see splitTradeName).
+  const raw = splitTradeName(name)?.name ?? name;
   const reordered = cls === "person" ? raw : reorderBracketed(raw);
   const aside = cls === "person" ? [] : closingAsideWords(reordered);
   const bare = dropParenthesized(reordered);
