@@ -278,6 +278,16 @@ describe("LabelMap", () => {
     expect(m.knowsTableType("sluice")).toBe(false);
     expect(m.classOfTableType("sluice")).toBe("other");
   });
+
+  it("reads a table type through its plural and its head word", () => {
+    const m = new LabelMap();
+    expect(m.classOfTableType("Towns")).toBe("location");
+    expect(m.classOfTableType("companies")).toBe("organization");
+    expect(m.classOfTableType("Shipping Company")).toBe("organization");
+    expect(m.classOfTableType("river_port")).toBe("location");
+    expect(m.knowsTableType("Barge Owners")).toBe(false);
+    expect(m.knowsTableType("lock keeper")).toBe(false);
+  });
 });
 
 describe("readLabelMapFile", () => {

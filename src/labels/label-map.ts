@@ -16,6 +16,14 @@ export function foldLabel(label: string): string {
     .replace(/[\s-]+/g, "_");
 }
 
+/** An English plural's singular, by the regular endings ("companies", "towns", "churches"). */
+function singular(word: string): string {
+  if (word.length > 4 && word.endsWith("ies")) return `${word.slice(0, -3)}y`;
+  if (word.length > 4 && /(?:ches|shes|sses|xes)$/.test(word)) return word.slice(0, -2);
+  if (word.length > 3 && word.endsWith("s") && !word.endsWith("ss")) return word.slice(0, -1);
+  return word;
+}
+
 /** Every class compatible with an unknown label at the neutral weight. */
 const UNKNOWN_INFO: LabelInfo = {
   cls: "other",
@@ -64,12 +72,30 @@ export class LabelMap {
 
   /** Class of a table type; unknown table types are "other". */
   classOfTableType(type: string): EntityClass {
-    return this.labels.get(foldLabel(type))?.cls ?? "other";
+    return this.tableTypeInfo(type)?.cls ?? "other";
   }
 
-  /** Whether a table type is known to the map. */
+  /** Whether a table type is known to the map, as written or through its words (tableTypeInfo). */
   knowsTableType(type: string): boolean {
-    return this.labels.has(foldLabel(type));
+    return this.tableTypeInfo(type) !== undefined;
+  }
+
+  /**
+   * The info of a table type: the type's own, or its singular's ("towns", "companies"), or that
+   * of its last word that the map knows, English putting the head of a compound last ("shipping
+   * company", "river port", "county_town"); undefined when no word of it is known.
+   */
+  private tableTypeInfo(type: string): LabelInfo | undefined {
+    const folded = foldLabel(type);
+    const known = (word: string) => this.labels.get(word) ?? this.labels.get(singular(word));
+    const whole = known(folded);
+    if (whole !== undefined) return whole;
+    const words = folded.split("_").filter((w) => w.length > 0);
+    for (let i = words.length - 1; i >= 0; i--) {
+      const info = known(words[i]!);
+      if (info !== undefined) return info;
+    }
+    return undefined;
   }
 
   /** Warnings for the run's unknown and skipped labels, one sentence each. */
