@@ -293,3 +293,34 @@ describe("readMentions", () => {
     expect(mention!.gold).toBeNull();
   });
 });
+
+describe("fields named otherwise", () => {
+  it("name the look-alike of a missing text column or field in the error", async () => {
+    const csv = await failure(readMentions(fixture(".csv", "mention,type\nPell & Co.,ORG\n")));
+    expect(csv).toBeInstanceOf(InputError);
+    expect((csv as InputError).message).toMatch(/found "mention"/);
+    const json = await failure(readMentions(fixture(".jsonl", jsonl([{ surface: "Pell & Co." }]))));
+    expect((json as InputError).message).toMatch(/the row has "surface"/);
+    expect((json as InputError).field).toBe("text");
+  });
+
+  it("report a look-alike of an optional field once, as not read", async () => {
+    const warnings: Array<{ code: string; message: string; line?: number | undefined }> = [];
+    const file = fixture(".csv", "text,label,sentence\nPell & Co.,ORG,At Harrowmouth.\nKell,ORG,x\n");
+    const rows = await collect(readMentions(file, { onWarning: (w) => warnings.push(w) }));
+    expect(rows).toHaveLength(2);
+    expect(rows[0]?.type).toBeUndefined();
+    expect(warnings.map((w) => w.code)).toEqual(["unread-field", "unread-field"]);
+    expect(warnings[0]?.message).toMatch(/"label" is not read.*"type"/);
+    expect(warnings[1]?.message).toMatch(/"sentence" is not read.*"context"/);
+    expect(warnings[0]?.line).toBe(2);
+    // A file that gives the field itself draws no warning, whatever else it carries.
+    const quiet: unknown[] = [];
+    await collect(
+      readMentions(fixture(".jsonl", jsonl([{ text: "Kell", type: "ORG", label: "x" }])), {
+        onWarning: (w) => quiet.push(w),
+      }),
+    );
+    expect(quiet).toEqual([]);
+  });
+});

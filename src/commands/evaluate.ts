@@ -4,6 +4,7 @@ import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
+import type { ReadWarning } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
@@ -42,9 +43,13 @@ export interface EvalOptions
 export async function readLabeled(
   file: string,
   options: Parameters<typeof readerOptions>[0] = {},
+  warn: (message: string) => void = (m) => process.stderr.write(`hawser: warning: ${m}\n`),
 ): Promise<LabeledMention[]> {
   const out: LabeledMention[] = [];
-  for await (const m of readMentions(file, { ...readerOptions(options), labeled: true })) out.push(m);
+  const onWarning = (w: ReadWarning) =>
+    warn(`${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`);
+  for await (const m of readMentions(file, { ...readerOptions(options), labeled: true, onWarning }))
+    out.push(m);
   if (out.length === 0) throw new InputError({ file }, "the labeled set is empty");
   return out;
 }

@@ -7,6 +7,7 @@ import { extname } from "node:path";
 import { UsageError } from "../util/errors.js";
 import { readConll } from "./conll.js";
 import type { ContextWindow } from "./context-window.js";
+import { lookalikeOf } from "./field-hints.js";
 import type { ReadLabeledMention, ReadMention } from "./mention-row.js";
 import { readMentionsCsv } from "./mentions-csv.js";
 import { readMentionsJsonl } from "./mentions-jsonl.js";
@@ -120,6 +121,36 @@ export function resolveFormat(file: string, options: ReadMentionsOptions): Menti
   return format;
 }
 
+/**
+ * Passes the mentions on; on the first, reports each optional field of the format that the file
+ * lacks while carrying a look-alike ("label" for "type"): that field is not read.
+ */
+async function* warnUnreadFields<M extends ReadMention>(
+  file: string,
+  mentions: AsyncGenerator<M>,
+  onWarning: WarningHandler | undefined,
+): AsyncGenerator<M> {
+  let first = true;
+  for await (const m of mentions) {
+    if (first && onWarning !== undefined) {
+      first = false;
+      const extra = Object.keys(m.extra);
+      for (const field of ["type", "context", "doc"] as const) {
+        const like = m[field] === undefined ? lookalikeOf(field, extra) : undefined;
+        if (like === undefined) continue;
+        onWarning({
+          code: "unread-field",
+          file,
+          line: m.source?.line,
+          count: 1,
+          message: `field "${like}" is not read: hawser takes the mention's ${field} from "${field}" (rename it to use it)`,
+        });
+      }
+    }
+    yield m;
+  }
+}
+
 export function readMentions(
   file: string,
   options: ReadMentionsOptions & { labeled: true },
@@ -134,11 +165,12 @@ export async function* readMentions(
   const labeled = options.labeled ?? false;
   switch (format) {
     case "jsonl":
-      yield* readMentionsJsonl(file, { labeled });
+      yield* warnUnreadFields(file, readMentionsJsonl(file, { labeled }), options.onWarning);
       return;
     case "csv": {
       const tsv = extname(file).toLowerCase() === ".tsv";
-      yield* readMentionsCsv(file, tsv ? { labeled, delimiter: "\t", quoted: false } : { labeled });
+      const rows = readMentionsCsv(file, tsv ? { labeled, delimiter: "\t", quoted: false } : { labeled });
+      yield* warnUnreadFields(file, rows, options.onWarning);
       return;
     }
     case "conll":

@@ -5,6 +5,7 @@
 
 import type { LabeledMention, Mention } from "../types.js";
 import { InputError } from "../util/errors.js";
+import { lookalikeOf } from "./field-hints.js";
 import {
   extraFields,
   goldField,
@@ -61,6 +62,14 @@ export function mentionFromRow(
   options: MentionRowOptions = {},
 ): ReadMention | ReadLabeledMention {
   const id = optionalId(ctx, row, "id") ?? generatedId(ctx.line);
+  if (row.text === undefined) {
+    const like = lookalikeOf("text", Object.keys(row));
+    if (like !== undefined)
+      throw new InputError(
+        { file: ctx.file, line: ctx.line, field: "text" },
+        `is required (the row has "${like}": hawser reads the mention's text from "text")`,
+      );
+  }
   const text = requiredString(ctx, row, "text");
   const start = optionalOffset(ctx, row, "start");
   const end = optionalOffset(ctx, row, "end");

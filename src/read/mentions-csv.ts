@@ -2,6 +2,7 @@
 
 import { InputError } from "../util/errors.js";
 import { type CsvOptions, readCsvRows } from "./csv.js";
+import { lookalikeOf } from "./field-hints.js";
 import { UniqueIds } from "./fields.js";
 import {
   type MentionRowOptions,
@@ -30,8 +31,14 @@ export async function* readMentionsCsv(
   const required = options.labeled ? ["text", "gold"] : ["text"];
   const checkHeader = ({ line, columns }: { line: number; columns: string[] }): void => {
     for (const name of required) {
-      if (!columns.includes(name))
-        throw new InputError({ file, line, field: name }, "missing column in header");
+      if (columns.includes(name)) continue;
+      const like = lookalikeOf(name, columns);
+      throw new InputError(
+        { file, line, field: name },
+        like === undefined
+          ? "missing column in header"
+          : `missing column in header (found "${like}": hawser reads the mention's ${name} from "${name}")`,
+      );
     }
   };
   for await (const { line, values } of readCsvRows(file, options, checkHeader)) {

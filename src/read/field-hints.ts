@@ -1,0 +1,22 @@
+/**
+ * Names people give the mention format's fields in their own files ("label" for the NER label,
+ * "mention" for its text): a missing field's look-alike is named in the error, and a look-alike
+ * of an optional field the file lacks is reported once as not read, instead of being silently
+ * carried along as an extra field.
+ */
+
+/** Field of the mentions format -> names that likely mean it (compared in lower case). */
+export const LOOKALIKE_FIELDS: Readonly<Record<string, readonly string[]>> = {
+  text: ["mention", "surface", "name", "span", "string", "mention_text", "entity_text", "word"],
+  type: ["label", "ner", "ner_label", "ner_type", "tag", "entity_type", "entity_label", "category", "class"],
+  context: ["sentence", "snippet", "passage", "window", "context_text", "left_context"],
+  doc: ["document", "doc_id", "document_id", "docid", "article", "article_id"],
+};
+
+/** The field of `present` that looks like `field`, or undefined. */
+export function lookalikeOf(field: string, present: Iterable<string>): string | undefined {
+  const names = LOOKALIKE_FIELDS[field];
+  if (names === undefined) return undefined;
+  for (const p of present) if (names.includes(p.toLowerCase())) return p;
+  return undefined;
+}
