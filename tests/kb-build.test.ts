@@ -108,6 +108,20 @@ describe("buildKb on a good table", () => {
     expect(s.unknownTypes).toEqual({ sluice: 1 });
     expect(s.byClass).toEqual({ other: 1 });
   });
+
+  it("warns of an attribute column that looks like an optional column the table leaves empty", async () => {
+    const table = writeText(
+      t.file("towns.csv"),
+      "id,name,type,population,synonyms\nT1,Harrowmouth,town,48210,Harrow Mouth\nT2,Stenmouth,town,6240,\n",
+    );
+    const s = await buildKb({ table, out: t.file("towns.kb") });
+    expect(s.columnWarnings).toHaveLength(2);
+    expect(s.columnWarnings.join(" ")).toMatch(/"synonyms".*"aliases"/);
+    expect(s.columnWarnings.join(" ")).toMatch(/"population".*"prior"/);
+    // The gazette fills its aliases, prior and description: nothing to say.
+    const gazette = await buildKb({ table: writeText(t.file("g.csv"), GAZETTE_CSV), out: t.file("g.kb") });
+    expect(gazette.columnWarnings).toEqual([]);
+  });
 });
 
 describe("buildKb validation: each error names file, line and column", () => {

@@ -195,6 +195,7 @@ export function program(): Command {
       );
       for (const [t, n] of Object.entries(s.unknownTypes))
         err(`hawser: warning: table type "${t}" is not a known type (${n} rows): indexed as class "other"`);
+      for (const w of s.columnWarnings) err(`hawser: warning: ${table}: ${w}`);
     });
 
   linkerOptions(

@@ -10,6 +10,7 @@ import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
+import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
@@ -47,6 +48,11 @@ export interface BuildSummary {
   byClass: Record<string, number>;
   /** Table types the label map does not know (they were indexed as class "other"), with counts. */
   unknownTypes: Record<string, number>;
+  /**
+   * Attribute columns that look like an optional column the table does not fill ("population"
+   * for `prior`, "synonyms" for `aliases`), one sentence each: read as attributes only.
+   */
+  columnWarnings: string[];
   fingerprint: string;
   seconds: number;
   /** Seconds per phase of the build (reading and inserting rows, full-text index, ...). */
@@ -154,6 +160,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       contextTerms: summary.contextTerms,
       byClass: summary.byClass,
       unknownTypes: summary.unknownTypes,
+      columnWarnings: summary.columnWarnings,
       fingerprint,
       seconds,
       phases: summary.phases,
@@ -177,6 +184,7 @@ interface LoadSummary {
   maxPrior: number;
   byClass: Record<string, number>;
   unknownTypes: Record<string, number>;
+  columnWarnings: string[];
   /** Attribute columns whose values sort the rows into kinds, and the categories of places among them (see kind-columns.ts). */
   kinds: { kindColumns: string[]; placeCategoryColumns: string[]; kindValues: string[] };
   /** Seconds spent in each phase of the build, in order. */
@@ -187,6 +195,21 @@ interface LoadSummary {
 
 /** Rows written per transaction: enough that commits cost nothing next to the rows themselves. */
 const ROWS_PER_TRANSACTION = 20_000;
+
+/** See BuildSummary.columnWarnings. */
+function columnWarnings(writer: RowWriter): string[] {
+  const out: string[] = [];
+  const columns = writer.kinds.columnNames();
+  for (const [field, names] of Object.entries(TABLE_LOOKALIKE_COLUMNS)) {
+    if (writer.given[field as keyof RowWriter["given"]]) continue;
+    const like = columns.find((c) => names.includes(c.toLowerCase()));
+    if (like !== undefined)
+      out.push(
+        `column "${like}" is read as an attribute (context words), not as "${field}": rename it "${field}" to have it read so`,
+      );
+  }
+  return out;
+}
 
 async function load(db: Database.Database, options: BuildKbOptions, labels: LabelMap): Promise<LoadSummary> {
   const phases: Record<string, number> = {};
@@ -257,6 +280,7 @@ async function load(db: Database.Database, options: BuildKbOptions, labels: Labe
     byClass: writer.byClass,
     unknownTypes: writer.unknownTypes,
     kinds: writer.kinds.result(),
+    columnWarnings: columnWarnings(writer),
     phases,
     sourceSha256,
   };

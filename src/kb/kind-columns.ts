@@ -84,6 +84,11 @@ export class KindColumnsBuilder {
     }
   }
 
+  /** Every attribute column seen, in order of first appearance. */
+  columnNames(): string[] {
+    return [...this.columns.keys()];
+  }
+
   /**
    * The kind columns, in order of first appearance; and of them the categories of places, whose
    * values are kinds of places more often than not (see PLACE_CATEGORY_SHARE).

@@ -24,6 +24,8 @@ export class RowWriter {
   /** Blocking keys written (rows of the keys view). */
   keys = 0;
   maxPrior = 0;
+  /** Whether any row gave aliases, a prior above 0, a description (see tableWarnings). */
+  readonly given = { aliases: false, prior: false, description: false };
   readonly byClass: Record<string, number> = {};
   /** Table types the label map does not know, with counts. */
   readonly unknownTypes: Record<string, number> = {};
@@ -71,6 +73,9 @@ export class RowWriter {
     if (!this.labels.knowsTableType(r.type)) this.unknownTypes[r.type] = (this.unknownTypes[r.type] ?? 0) + 1;
     this.byClass[cls] = (this.byClass[cls] ?? 0) + 1;
     if (r.prior > this.maxPrior) this.maxPrior = r.prior;
+    if (r.prior > 0) this.given.prior = true;
+    if (r.aliases.length > 0) this.given.aliases = true;
+    if (r.description !== "") this.given.description = true;
     this.kinds.observe(r.attributes);
     const attrValues = Object.values(r.attributes);
     const attrText = attrValues.join(" ");

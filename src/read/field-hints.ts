@@ -20,3 +20,20 @@ export function lookalikeOf(field: string, present: Iterable<string>): string | 
   for (const p of present) if (names.includes(p.toLowerCase())) return p;
   return undefined;
 }
+
+/** Optional column of the knowledge table -> names that likely mean it (compared in lower case). */
+export const TABLE_LOOKALIKE_COLUMNS: Readonly<Record<string, readonly string[]>> = {
+  aliases: [
+    "alias",
+    "alt_names",
+    "altnames",
+    "alternate_names",
+    "alternative_names",
+    "other_names",
+    "synonyms",
+    "variants",
+    "also_known_as",
+  ],
+  prior: ["population", "popularity", "frequency", "mention_count", "pop"],
+  description: ["desc", "abstract", "summary", "about", "bio", "biography"],
+};
