@@ -1,12 +1,18 @@
 /**
- * The values of a table's kind columns that are not categories of places (its rows' countries,
- * counties: src/kb/kind-columns.ts), as the context terms they are made of: what the
- * contextConflict feature reads. A mention's context names a value when it holds all its terms
- * ("Ambry Vale" needs both words: "Port Ambry" is no mention of the county); a record carries a
- * value when its description and attributes hold all its terms.
+ * What a table's kind columns (src/kb/kind-columns.ts) say of its rows: the kind words of one
+ * record (kindWordsOf, read by the "kind" name match), and the values a mention's context may
+ * name (KindValues, read by the contextConflict feature).
  */
 import type { Kb } from "../kb/kb.js";
+import { foldTokens } from "../normalize/fold.js";
+import { GENERIC_PLACE_TYPES, PARTICULAR_PLACE_KINDS } from "../normalize/lexicon.js";
 
+/**
+ * The values of a table's kind columns that are not categories of places (its rows' countries,
+ * counties), as the context terms they are made of. A mention's context names a value when it
+ * holds all its terms ("Ambry Vale" needs both words: "Port Ambry" is no mention of the county);
+ * a record carries a value when its description and attributes hold all its terms.
+ */
 export class KindValues {
   /** Each value's term ids. */
   private readonly values: Uint32Array[] = [];
@@ -68,4 +74,39 @@ export class KindValues {
     const hot = this.kb.hot;
     return this.values[v]!.every((id) => hot.hasTerm(eid, id));
   }
+}
+
+/**
+ * The words with which an entity's record gives its kind: those of its values in the table's
+ * kind columns (src/kb/kind-columns.ts) and of its table type, unless a generic one
+ * (GENERIC_PLACE_TYPES: "region" says nothing of a row's kind). A place whose record names no
+ * kind of place of its own (typed "region" or "place", with a country column but no category)
+ * may take any of the usual words for the kind of an administrative area (PLACE_KIND_WORDS:
+ * "Bhola District", "Ivanovo Oblast"); one typed "town" (PARTICULAR_PLACE_KINDS), or given a
+ * value in a category of places, only its own ("Kindia Region" is no name of the prefecture
+ * Kindia, nor "Ambry Parish" of the hundred Ambry).
+ */
+export interface KindWords {
+  words: ReadonlySet<string>;
+  /** Any of PLACE_KIND_WORDS counts too. */
+  open: boolean;
+}
+
+export function kindWordsOf(kb: Kb, eid: number): KindWords {
+  const e = kb.entity(eid);
+  const words = new Set<string>();
+  let open = e.cls === "location";
+  const { kindColumns, placeCategoryColumns } = kb.info;
+  for (const column of kindColumns) {
+    const value = e.attributes[column];
+    if (value === undefined || value.trim() === "") continue;
+    for (const t of foldTokens(value)) words.add(t);
+    if (placeCategoryColumns.includes(column)) open = false;
+  }
+  for (const t of foldTokens(e.type)) {
+    if (GENERIC_PLACE_TYPES.has(t)) continue;
+    words.add(t);
+    if (PARTICULAR_PLACE_KINDS.has(t)) open = false;
+  }
+  return { words, open };
 }

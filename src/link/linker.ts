@@ -18,8 +18,7 @@ import type { EntityRow, Kb, TermInfo } from "../kb/kb.js";
 import { ftsWords } from "../kb/postings.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
-import { foldTokens } from "../normalize/fold.js";
-import { GENERIC_PLACE_TYPES, PARTICULAR_PLACE_KINDS, PLACE_KIND_WORDS } from "../normalize/lexicon.js";
+import { PLACE_KIND_WORDS } from "../normalize/lexicon.js";
 import { normalizeName, splitTradeName } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import {
@@ -55,7 +54,7 @@ import {
 } from "../document/evidence.js";
 import type { Decision } from "../decide/decide.js";
 import { measureNearNameRate, nearNameRateOf } from "./crowding.js";
-import { KindValues } from "./kind-values.js";
+import { type KindWords, KindValues, kindWordsOf } from "./kind-values.js";
 import { separatesEntries } from "./separating-words.js";
 import { decisionReason, evidenceReasons } from "./explain.js";
 import { type Surface, SurfaceCache } from "./surface-cache.js";
@@ -233,41 +232,6 @@ class CandidateWords implements WordEvidence {
     }
     return info;
   }
-}
-
-/**
- * The words with which an entity's record gives its kind: those of its values in the table's
- * kind columns (src/kb/kind-columns.ts) and of its table type, unless a generic one
- * (GENERIC_PLACE_TYPES: "region" says nothing of a row's kind). A place whose record names no
- * kind of place of its own (typed "region" or "place", with a country column but no category)
- * may take any of the usual words for the kind of an administrative area (PLACE_KIND_WORDS:
- * "Bhola District", "Ivanovo Oblast"); one typed "town" (PARTICULAR_PLACE_KINDS), or given a
- * value in a category of places, only its own ("Kindia Region" is no name of the prefecture
- * Kindia, nor "Ambry Parish" of the hundred Ambry).
- */
-interface KindWords {
-  words: ReadonlySet<string>;
-  /** Any of PLACE_KIND_WORDS counts too. */
-  open: boolean;
-}
-
-function kindWordsOf(kb: Kb, eid: number): KindWords {
-  const e = kb.entity(eid);
-  const words = new Set<string>();
-  let open = e.cls === "location";
-  const { kindColumns, placeCategoryColumns } = kb.info;
-  for (const column of kindColumns) {
-    const value = e.attributes[column];
-    if (value === undefined || value.trim() === "") continue;
-    for (const t of foldTokens(value)) words.add(t);
-    if (placeCategoryColumns.includes(column)) open = false;
-  }
-  for (const t of foldTokens(e.type)) {
-    if (GENERIC_PLACE_TYPES.has(t)) continue;
-    words.add(t);
-    if (PARTICULAR_PLACE_KINDS.has(t)) open = false;
-  }
-  return { words, open };
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;
