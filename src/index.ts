@@ -20,7 +20,7 @@ export { type CandidateOptions, DEFAULT_CANDIDATE_OPTIONS } from "./candidates/g
 export { csvRow, jsonlRow } from "./link/write.js";
 export { type ReadMentionsOptions, readMentions } from "./read/index.js";
 export { LabelMap, readLabelMapFile } from "./labels/label-map.js";
-export { normalizeName, NORMALIZER_VERSION, type NormalizedName } from "./normalize/name.js";
+export { normalizeName, NORMALIZER_VERSION, type NormalizedName, splitTradeName } from "./normalize/name.js";
 export { foldText } from "./normalize/fold.js";
 export { combine, DEFAULT_WEIGHTS } from "./score/combine.js";
 export { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide } from "./decide/decide.js";
