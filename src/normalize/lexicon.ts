@@ -487,3 +487,38 @@ export const VESSEL_PREFIXES: ReadonlySet<string> = new Set([
   "tug",
   "yacht",
 ]);
+
+/**
+ * Words that set a name against another that differs from it by a word of the same kind: a
+ * compass point ("Matabeleland South" / "Matabeleland North", "Sud-Est" / "Sud-Ouest"), a level
+ * ("Upper" / "Lower", "Haut-Rhin" / "Bas-Rhin", "Alta" / "Baja Verapaz"), a size ("Great" /
+ * "Little Ashcombe"), an age ("Old" / "New"), "Inner" / "Outer". Such names are two places or
+ * two bodies, never a slip of one for the other. Each word maps to its kind and its value, so that
+ * spellings of one value ("Centre", "Central") do not contrast. English and the words English
+ * texts carry over from French, Spanish, Portuguese, Italian and German place names (from
+ * memory); French "sur" (on) is left out.
+ */
+export const CONTRASTING_WORDS: Readonly<Record<string, readonly [string, string]>> = (() => {
+  const out: Record<string, readonly [string, string]> = {};
+  const put = (kind: string, value: string, words: string[]) => {
+    for (const w of words) out[w] = [kind, value];
+  };
+  put("compass", "n", ["north", "northern", "nord", "norte", "norden", "settentrionale"]);
+  put("compass", "s", ["south", "southern", "sud", "meridionale"]);
+  put("compass", "e", ["east", "eastern", "est", "este", "oriental", "orientale", "ost"]);
+  put("compass", "w", ["west", "western", "ouest", "oeste", "occidental", "occidentale"]);
+  put("compass", "c", ["central", "centre", "center", "centro", "middle", "mid"]);
+  put("compass", "ne", ["northeast", "northeastern"]);
+  put("compass", "nw", ["northwest", "northwestern"]);
+  put("compass", "se", ["southeast", "southeastern"]);
+  put("compass", "sw", ["southwest", "southwestern"]);
+  put("level", "upper", ["upper", "haut", "haute", "alta", "alto", "superior", "ober"]);
+  put("level", "lower", ["lower", "bas", "basse", "baja", "bajo", "inferior", "unter", "nieder"]);
+  put("size", "great", ["great", "greater", "grand", "grande", "big"]);
+  put("size", "little", ["little", "lesser", "petit", "petite", "small"]);
+  put("age", "old", ["old"]);
+  put("age", "new", ["new", "nouveau", "nouvelle", "nuevo", "nueva", "neu", "novo", "nova"]);
+  put("ring", "inner", ["inner"]);
+  put("ring", "outer", ["outer"]);
+  return out;
+})();

@@ -3,7 +3,7 @@
  * in types.ts for what each measures. Name features are the best over the entity's aliases.
  */
 import type { AliasRow, EntityRow } from "../kb/kb.js";
-import { LEGAL_FORMS } from "../normalize/lexicon.js";
+import { CONTRASTING_WORDS, LEGAL_FORMS } from "../normalize/lexicon.js";
 import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
@@ -157,6 +157,8 @@ export function nameMatch(
   const aliases = entity.aliases;
   for (let ai = 0; ai < aliases.length; ai++) {
     const a = aliases[ai]!;
+    // "Matabeleland South" is not a slip for "Matabeleland North": such a name gives no credit.
+    if (!personLike && namesContrast(norm.tokens, a.tokens)) continue;
     // Qualifiers on both sides that differ tell two apart, so the names are compared with them:
     // "Josiah Pell Jr." against "Josiah Pell Sr.", "Pell & Co." against "Pell Ltd.", "Republic of
     // Korea" against "Democratic People's Republic of Korea".
@@ -309,6 +311,34 @@ export function nameMatch(
       entity.aliases.some((a) => containsAll(a.tokens, norm.tokens)),
     apartWords,
   };
+}
+
+/** A token of digits only: "District 1" and "District 2" are two districts. */
+const NUMBER = /^\d+$/;
+
+/**
+ * True when two names set themselves against each other: a word of one that the other lacks
+ * and a word of the other that the first lacks are of one kind but differ in value
+ * (CONTRASTING_WORDS: "South" / "North", "Upper" / "Lower", "Great" / "Little"), or are two
+ * different numbers.
+ */
+export function namesContrast(x: readonly string[], y: readonly string[]): boolean {
+  for (const a of x) {
+    const ka = CONTRASTING_WORDS[a];
+    const na = NUMBER.test(a);
+    if (ka === undefined && !na) continue;
+    if (y.includes(a)) continue;
+    for (const b of y) {
+      if (x.includes(b)) continue;
+      if (na) {
+        if (NUMBER.test(b)) return true;
+        continue;
+      }
+      const kb = CONTRASTING_WORDS[b];
+      if (kb !== undefined && kb[0] === ka![0] && kb[1] !== ka![1]) return true;
+    }
+  }
+  return false;
 }
 
 /** What abbreviation reading, if any, makes the mention one of the alias's forms. */
