@@ -16,8 +16,11 @@
  * - Baselines a practitioner writes by hand: folded exact name, most populous place when several
  *   match; and the same restricted to places whose country the context names.
  *
- *   npx tsc -p tsconfig.bench.json && node dist-bench/benchmarks/open-cities.js [--mentions 3000] [--seed 1] [--keep DIR] [--no-context]
+ *   npx tsc -p tsconfig.bench.json && node dist-bench/benchmarks/open-cities.js [--mentions 3000] [--seed 1] [--keep DIR] [--no-context] [--min-population N]
  *
+ * `--min-population N` keeps only the mentions whose gold place has at least N inhabitants (so
+ * none is NIL): the large places an archive's texts name most, where a name's most populous
+ * bearer is most often the one meant.
  * Prints one JSON line per method. `--keep DIR` leaves the table (cities.csv), the KB
  * (cities.kb) and the labeled mentions (cities-gold.jsonl) in DIR, for `hawser eval` and
  * `hawser tune`. `--no-context` gives the mentions no context (the country-restricted baseline
@@ -103,6 +106,8 @@ async function main(): Promise<void> {
           best = c;
         }
       }
+      // With --min-population, only mentions of places that large (a news archive names them most).
+      if (options.minPopulation > 0 && (best === null || best.population < options.minPopulation)) continue;
       mentions.push({ id: `c${i}`, text: s.name, type: "GPE", context: placeOf(s.country, s.admin1) });
       gold.push(best === null ? null : String(best.cityId));
     }

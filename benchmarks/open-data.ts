@@ -45,6 +45,8 @@ export function openDataOptions() {
       seed: { type: "string", default: "1" },
       keep: { type: "string" },
       "no-context": { type: "boolean", default: false },
+      // open-cities only: keep the mentions whose gold place has at least this many inhabitants.
+      "min-population": { type: "string", default: "0" },
     },
   });
   return {
@@ -52,6 +54,7 @@ export function openDataOptions() {
     seed: Number(values.seed),
     keep: values.keep,
     withContext: !values["no-context"],
+    minPopulation: Number(values["min-population"]),
   };
 }
 

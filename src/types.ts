@@ -95,6 +95,15 @@ export interface Features {
    * Else 0. Its weight is negative.
    */
   contextConflict: number;
+  /**
+   * For a firm, place or thing spelled as a name of its own, when other candidates match the
+   * mention exactly as well on every other feature (namesakes that the name, the type and the
+   * context cannot tell apart): the log of its prior's lead over theirs, 1 at a thousandfold
+   * lead (link/linker.ts, prominenceOf); else 0. It breaks the tie towards the far more popular
+   * namesake ("London" with no context: the capital, not a village of 400), by the log of the
+   * lead at the default weight. Never for persons.
+   */
+  prominence: number;
 }
 
 export type FeatureName = keyof Features;
@@ -110,6 +119,7 @@ export const FEATURE_NAMES: readonly FeatureName[] = [
   "prior",
   "nearSpelling",
   "contextConflict",
+  "prominence",
 ];
 
 /** Which generation path found a candidate. */

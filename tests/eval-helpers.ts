@@ -12,6 +12,7 @@ export const ZERO_FEATURES: Features = {
   prior: 0,
   nearSpelling: 0,
   contextConflict: 0,
+  prominence: 0,
 };
 
 export function gold(

@@ -32,6 +32,7 @@ function features(random: () => number, base: number, noise: number, exact: bool
     prior: clamp(random()),
     nearSpelling: 0,
     contextConflict: 0,
+    prominence: 0,
   };
 }
 

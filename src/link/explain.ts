@@ -3,7 +3,7 @@
  * candidate (why it won) and for the decision (why a link, or why NIL).
  */
 import type { Decision } from "../decide/decide.js";
-import type { NameMatch } from "../score/features.js";
+import { type NameMatch, PROMINENCE_FULL_LEAD } from "../score/features.js";
 import type { CandidatePath, Features, Reason } from "../types.js";
 
 const r3 = (x: number) => Math.round(x * 1000) / 1000;
@@ -117,6 +117,14 @@ export function evidenceReasons(c: Explained): Reason[] {
       code: "near-spelling",
       message: `spelled only near the entry's names, in a table where ${pct}% of names have another entry's near spelling: counts less`,
       nearNameRate: r3(c.features.nearSpelling),
+    });
+  }
+  if (c.features.prominence > 0) {
+    const lead = Math.round(PROMINENCE_FULL_LEAD ** c.features.prominence);
+    out.push({
+      code: "prominent",
+      message: `the most popular of candidates that name, type and context cannot tell apart: its prior leads theirs about ${lead}-fold`,
+      lead,
     });
   }
   if (c.features.contextConflict > 0) {

@@ -25,6 +25,7 @@ import {
   features,
   type NameMatch,
   nameMatch,
+  prominenceOf,
   priorFeatureFor,
   type WordEvidence,
 } from "../score/features.js";
@@ -37,6 +38,7 @@ import {
   type CandidatePath,
   ENTITY_CLASSES,
   type EntityClass,
+  FEATURE_NAMES,
   type Features,
   type LinkConfig,
   type LinkRow,
@@ -234,6 +236,12 @@ class CandidateWords implements WordEvidence {
   }
 }
 
+/** True when two candidates' features are the same but for the prior (and prominence). */
+function sameEvidenceButPrior(a: Features, b: Features): boolean {
+  for (const f of FEATURE_NAMES) if (f !== "prior" && f !== "prominence" && a[f] !== b[f]) return false;
+  return true;
+}
+
 const r4 = (x: number) => Math.round(x * 10000) / 10000;
 
 export class Linker {
@@ -426,6 +434,30 @@ export class Linker {
     return { entity: e, features: f, score: combine(f, this.config.weights), paths, name };
   }
 
+  /**
+   * The prominence feature (see Features.prominence), which breaks a tie for first place: where
+   * the best candidates match the mention exactly as well on every feature but the prior
+   * (namesakes that the name, the type and the context cannot tell apart) and are firms, places or
+   * things spelled as each of them is named (an exact key match, qualifiers and all), the most popular of them gets the log of
+   * its lead over the next, and is rescored. Persons are left out: how often a man is named is no
+   * evidence that a mention is of him rather than of his namesake.
+   */
+  private addProminence(scored: ScoredCandidate[]): void {
+    if (scored.length < 2 || (this.config.weights.features.prominence ?? 0) === 0) return;
+    let top = scored[0]!;
+    for (const c of scored) if (c.score > top.score) top = c;
+    if (top.entity.cls === "person" || top.features.exactKey < 1) return;
+    // The tie for first place, most popular first.
+    const tied = scored
+      .filter((c) => c === top || sameEvidenceButPrior(c.features, top.features))
+      .sort((a, b) => b.entity.prior - a.entity.prior);
+    if (tied.length < 2) return;
+    const [first, second] = tied as [ScoredCandidate, ScoredCandidate];
+    if (first.entity.prior <= second.entity.prior) return;
+    first.features.prominence = prominenceOf(first.entity.prior, second.entity.prior);
+    first.score = combine(first.features, this.config.weights);
+  }
+
   /** The contextConflict feature (see KindValues.conflict). */
   private contextConflictOf(p: Prepared, eid: number): number {
     return p.contextKinds === null ? 0 : this.kindValues.conflict(p.contextKinds, eid);
@@ -468,6 +500,7 @@ export class Linker {
     const raw = this.candidatesOf(p);
     const rows = this.kb.entities(raw.map((c) => c.eid));
     const out = raw.map((c, i) => this.scoreOne(p, rows[i]!, c.cls, c.paths));
+    this.addProminence(out);
     return out.sort((a, b) => b.score - a.score || a.entity.eid - b.entity.eid);
   }
 

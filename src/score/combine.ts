@@ -39,6 +39,12 @@ import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
  *   -6 on the subdivision and airfield checks and the sample archive; -4 and beyond lose
  *   mentions of the archive, whose articles name counties in passing (benchmarks/README.md,
  *   "Real open data: country subdivisions").
+ * - prominence (a tie for first place between namesakes nothing but the prior tells apart) adds
+ *   half the log of the popular one's lead (ln(1000) / 2 per unit of the feature, which is 1 at a
+ *   thousandfold lead): as if mentions named places in proportion to the square root of their
+ *   population, a reading that leaves "Kellow" 900 against 700 ambiguous and gives "London" to
+ *   the capital. Measured, not fitted: 0, ln(1000) / 2 and ln(1000) on the place checks
+ *   (benchmarks/README.md, "Namesakes told apart by popularity").
  */
 export const DEFAULT_WEIGHTS: Weights = {
   bias: -10,
@@ -53,6 +59,7 @@ export const DEFAULT_WEIGHTS: Weights = {
     prior: 0.5,
     nearSpelling: -8,
     contextConflict: -3,
+    prominence: Math.log(1000) / 2,
   },
 };
 

@@ -313,6 +313,18 @@ export function nameMatch(
   };
 }
 
+/**
+ * Popularity lead at which the prominence feature is 1: a thousandfold. The default weight is its
+ * log (see DEFAULT_WEIGHTS), so that the feature adds the log of the lead itself, as if mentions
+ * named namesakes in proportion to their popularity.
+ */
+export const PROMINENCE_FULL_LEAD = 1000;
+
+/** The prominence feature of a prior over its namesakes' highest: log lead, 1 at PROMINENCE_FULL_LEAD. */
+export function prominenceOf(prior: number, rival: number): number {
+  return Math.min(1, Math.log((1 + prior) / (1 + rival)) / Math.log(PROMINENCE_FULL_LEAD));
+}
+
 /** A token of digits only: "District 1" and "District 2" are two districts. */
 const NUMBER = /^\d+$/;
 
@@ -684,5 +696,6 @@ export function features(
     prior,
     nearSpelling: name.spelledAlike ? 0 : nearNameRate,
     contextConflict,
+    prominence: 0,
   };
 }

@@ -19,7 +19,7 @@ export const CONFIG_VERSION = 1;
  * Features added since config version 1 was first written: a config file without one of these
  * weights still loads, and the feature takes its default weight.
  */
-const ADDED_FEATURES: readonly FeatureName[] = ["nearSpelling", "contextConflict"];
+const ADDED_FEATURES: readonly FeatureName[] = ["nearSpelling", "contextConflict", "prominence"];
 
 /** The figures a config carries: link quality held-out, in-sample, and of the defaults. */
 export interface ConfigFigures {
