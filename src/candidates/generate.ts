@@ -118,6 +118,11 @@ const SUB_KEY_MIN_COMPAT = 0.4;
 /** Surname respellings probed after a naming key match (respellSurnameOnKeyMatch), closest first. */
 const RESPELLINGS_ON_KEY_MATCH = 3;
 /**
+ * Most readings of a word written short looked up (the table's most frequent words it begins or
+ * contracts): "Miss." may be Mississippi or Missouri, not fifty things.
+ */
+export const MAX_ABBREVIATION_READINGS = 20;
+/**
  * Only a surname that at most this many entities carry is respelled after a naming key match. A
  * slip that lands on an existing name mostly lands on a rare one, while a common surname is
  * usually meant: at 1,000,000 entities, respelling only these kept two thirds of the misses
@@ -325,6 +330,17 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
       if (t.length < FUZZY_MIN_TOKEN_LENGTH) continue;
       const fixes = correctToken(kb, t, opts).filter((f) => f !== t);
       if (fixes.length > 0) respelled.set(t, [t, ...fixes]);
+    }
+  }
+  // Words written short ("Calif.", "Tenn.") that the table does not know stand for the words they
+  // begin or contract: read like corrections, as whole keys and for token search.
+  if (search && on.has("fuzzy")) {
+    for (const { norm } of forms) {
+      for (const t of norm.abbreviated) {
+        if (corrected.has(t) || kb.tokenDf(t) > 0) continue;
+        const longer = kb.wordsAbbreviatedBy(t, MAX_ABBREVIATION_READINGS);
+        if (longer.length > 0) corrected.set(t, longer);
+      }
     }
   }
   if (search) {

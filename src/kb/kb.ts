@@ -4,7 +4,7 @@
  */
 import { existsSync } from "node:fs";
 import Database from "better-sqlite3";
-import { NORMALIZER_VERSION } from "../normalize/name.js";
+import { abbreviates, NORMALIZER_VERSION } from "../normalize/name.js";
 import { ftsWords } from "./postings.js";
 import { HotStore } from "./hot.js";
 import { NameForms, NameStore } from "./names.js";
@@ -103,6 +103,8 @@ export class Kb {
   private readonly idfCache = new GenerationCache<string, TermInfo>(IDF_CACHE_SIZE);
   /** Alias token -> number of entities with it in a name (the whole vocabulary, loaded on open). */
   private readonly vocabDf = new Map<string, number>();
+  /** The vocabulary in code-unit order, made on first use (see wordsAbbreviatedBy). */
+  private sortedVocabulary: string[] | undefined;
   /** Alias tokens by vocabulary id (the values of the hot store's deletion-variant index). */
   private readonly vocabTokens: string[] = [];
   /** Per-entity facts for whole candidate pools, in memory (see hot.ts). */
@@ -204,6 +206,28 @@ export class Kb {
   }
 
   /** How many entities have this token in a name or alias (0 when unknown). */
+  /**
+   * The table's name words that `short` may stand for, written short (see abbreviates in
+   * src/normalize/name.ts): at most `limit`, the most frequent first. Read from the vocabulary in
+   * memory, sorted on first use.
+   */
+  wordsAbbreviatedBy(short: string, limit: number): string[] {
+    this.sortedVocabulary ??= [...this.vocabDf.keys()].sort();
+    const sorted = this.sortedVocabulary;
+    const first = short[0]!;
+    let lo = 0;
+    let hi = sorted.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (sorted[mid]! < first) lo = mid + 1;
+      else hi = mid;
+    }
+    const found: string[] = [];
+    for (let i = lo; i < sorted.length && sorted[i]![0] === first; i++)
+      if (abbreviates(short, sorted[i]!)) found.push(sorted[i]!);
+    return found.sort((a, b) => this.tokenDf(b) - this.tokenDf(a) || (a < b ? -1 : 1)).slice(0, limit);
+  }
+
   tokenDf(token: string): number {
     return this.vocabDf.get(token) ?? 0;
   }

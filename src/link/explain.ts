@@ -58,6 +58,10 @@ const KEY_MATCH_REASONS: Record<
     code: "name-kind",
     message: (w, t) => `${w} "${t}" with the kind the entry's record gives it (its type or category)`,
   },
+  abbreviated: {
+    code: "name-abbreviated",
+    message: (w, t) => `${w} "${t}" with words written short ("Calif." for "California")`,
+  },
   reordered: { code: "name-reordered", message: (w, t) => `the same words as ${w} "${t}", in another order` },
   ocr: { code: "ocr-key", message: (_w, t) => `matches "${t}" once common OCR confusions are folded` },
 };

@@ -51,6 +51,24 @@ export interface NormalizedName {
   acronymKey: string | null;
   /** Person names: first initial + surname ("j aldous"); null for other classes or a lone token. */
   initialsKey: string | null;
+  /**
+   * Core tokens written short, as a word of two letters or more cut off by a period ("Calif.",
+   * "Tenn.", "Harrowm."), that the lexicon did not read ("St.", "Co." and the like are read):
+   * candidates and scoring may take them for a longer word they begin, or contract (see
+   * abbreviates in src/score/name-similarity.ts). Empty for persons, whose short given names the
+   * lexicon reads.
+   */
+  abbreviated: string[];
+}
+
+/** A word of two letters or more cut off by a period: "Calif.", "Tenn.", "Md." (not "J." or "S.G.E."). */
+const CUT_WORD = /(?<!\p{L})(\p{L}{2,})\.(?!\p{L})/gu;
+
+/** The folded words of `text` written short (see NormalizedName.abbreviated). */
+function cutWords(text: string): Set<string> {
+  const out = new Set<string>();
+  for (const m of text.matchAll(CUT_WORD)) for (const t of foldTokens(m[1]!)) out.add(t);
+  return out;
 }
 
 /** Longest run of letters an acronym may have; longer all-capital words are headlines, not acronyms. */
@@ -205,6 +223,27 @@ export function splitTradeName(text: string): { name: string; alsoNamed: string 
   const alsoNamed = text.slice(m.index + m[0].length).trim();
   if (!/[\p{L}\p{N}]/u.test(name) || !/[\p{L}\p{N}]/u.test(alsoNamed)) return null;
   return { name, alsoNamed };
+}
+
+/**
+ * True when `short`, a word written short, stands for `long`: the first letters of it ("calif" /
+ * "california", "tenn" / "tennessee"), or a contraction keeping its first and last letters and
+ * some between, in order ("md" / "maryland", "rly" / "railway"). Clerks, directories and postal
+ * lists write both (common practice; the state abbreviations from memory).
+ */
+export function abbreviates(short: string, long: string): boolean {
+  if (short.length < 2 || short.length >= long.length || short[0] !== long[0]) return false;
+  if (long.startsWith(short)) return true;
+  if (short[short.length - 1] !== long[long.length - 1]) return false;
+  let j = 1;
+  for (let i = 1; i < long.length - 1 && j < short.length - 1; i++) if (long[i] === short[j]) j++;
+  return j === short.length - 1;
+}
+
+/** The core tokens written short: each once, in order. */
+function abbreviatedTokens(tokens: readonly string[], cut: ReadonlySet<string>): string[] {
+  if (cut.size === 0) return [];
+  return [...new Set(tokens.filter((t) => cut.has(t)))];
 }
 
 /** Legal forms long enough that one OCR slip cannot turn another word into them. */
@@ -445,5 +484,6 @@ export function normalizeName(name: string, cls: EntityClass): NormalizedName {
     acronym,
     acronymKey: acronymKey !== null && acronymKey.length >= MIN_ACRONYM_LETTERS ? acronymKey : null,
     initialsKey,
+    abbreviated: cls === "person" || !text.includes(".") ? [] : abbreviatedTokens(s.tokens, cutWords(text)),
   };
 }

@@ -4,7 +4,7 @@
  */
 import type { AliasRow, EntityRow } from "../kb/kb.js";
 import { CONTRASTING_WORDS, LEGAL_FORMS } from "../normalize/lexicon.js";
-import { acronymOfTokens, type NormalizedName } from "../normalize/name.js";
+import { abbreviates, acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
 import { genericWordFor, NO_GENERIC_WORDS } from "./table-words.js";
@@ -84,9 +84,20 @@ export interface NameMatch {
    * followed in the mention by a complement ("head": "United Kingdom of Great Britain and
    * Northern Ireland" for "United Kingdom"), the name with the kind its record gives it ("kind":
    * "Bhola District" for the district Bhola, "Metropolitan City of Bologna"), or the same words in
-   * another order ("reordered": "Virgin Islands, British").
+   * another order ("reordered": "Virgin Islands, British"), or the same words some written
+   * short ("abbreviated": "Calif." for "California", "Harrowm. Wharf").
    */
-  keyKind: "exact" | "ocr" | "core" | "attested" | "part" | "head" | "kind" | "reordered" | null;
+  keyKind:
+    | "exact"
+    | "ocr"
+    | "core"
+    | "attested"
+    | "part"
+    | "head"
+    | "kind"
+    | "reordered"
+    | "abbreviated"
+    | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
    * equal keys (whatever the qualifiers), an acronym or initials reading, or every word of the
@@ -255,6 +266,15 @@ export function nameMatch(
       wordsAlike = true;
       exact = ONE_SIDED_QUALIFIER_CREDIT;
       keyKind = shortForm;
+    } else if (!personLike && exact < ONE_SIDED_QUALIFIER_CREDIT && abbreviatedFrom(norm, a.tokens)) {
+      // The same words, some written short: as strong as a name with a one-sided qualifier.
+      jw = 1;
+      lev = 1;
+      tok = 1;
+      bestAlias = a;
+      wordsAlike = true;
+      exact = ONE_SIDED_QUALIFIER_CREDIT;
+      keyKind = "abbreviated";
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
@@ -323,6 +343,22 @@ export const PROMINENCE_FULL_LEAD = 1000;
 /** The prominence feature of a prior over its namesakes' highest: log lead, 1 at PROMINENCE_FULL_LEAD. */
 export function prominenceOf(prior: number, rival: number): number {
   return Math.min(1, Math.log((1 + prior) / (1 + rival)) / Math.log(PROMINENCE_FULL_LEAD));
+}
+
+/**
+ * True when the mention is the alias's words with some written short (NormalizedName.abbreviated:
+ * "Calif." for "California", "Harrowm. Wharf" for "Harrowmouth Wharf"), the others as written.
+ */
+function abbreviatedFrom(norm: NormalizedName, alias: readonly string[]): boolean {
+  const m = norm.tokens;
+  if (norm.abbreviated.length === 0 || m.length !== alias.length) return false;
+  let short = 0;
+  for (let i = 0; i < m.length; i++) {
+    if (m[i] === alias[i]) continue;
+    if (!norm.abbreviated.includes(m[i]!) || !abbreviates(m[i]!, alias[i]!)) return false;
+    short++;
+  }
+  return short > 0;
 }
 
 /** A token of digits only: "District 1" and "District 2" are two districts. */
