@@ -333,18 +333,24 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
     }
   }
   // Words written short ("Calif.", "Tenn.") that the table does not know stand for the words they
-  // begin or contract: read like corrections, as whole keys and for token search.
+  // begin or contract: read like corrections, for whole keys only (as token search terms, twenty
+  // readings of "Co." would bring in half the table).
+  const expanded = new Map<string, readonly string[]>();
   if (search && on.has("fuzzy")) {
-    for (const { norm } of forms) {
+    // In the readings of the label's own class only ("Fcnelworth Bos." is a man, not a firm).
+    let labelCompat = 0;
+    for (const f of forms) labelCompat = Math.max(labelCompat, f.compat ?? 1);
+    for (const { norm, compat } of forms) {
+      if ((compat ?? 1) < labelCompat) continue;
       for (const t of norm.abbreviated) {
-        if (corrected.has(t) || kb.tokenDf(t) > 0) continue;
+        if (expanded.has(t) || kb.tokenDf(t) > 0) continue;
         const longer = kb.wordsAbbreviatedBy(t, MAX_ABBREVIATION_READINGS);
-        if (longer.length > 0) corrected.set(t, longer);
+        if (longer.length > 0) expanded.set(t, [...(corrected.get(t) ?? []), ...longer]);
       }
     }
   }
   if (search) {
-    const options = new Map([...corrected, ...respelled]);
+    const options = new Map([...corrected, ...respelled, ...expanded]);
     for (const { cls, norm } of forms) {
       // Whole keys again, from the corrected tokens (fewest changes first).
       for (const tokens of correctedReadings(norm.tokens, options)) {

@@ -79,6 +79,14 @@ export interface KeyHit {
  * kept alive and turned over (benchmarks/README.md).
  */
 const ENTITY_CACHE_SIZE = 64;
+/**
+ * Longest word written short read as a contraction too ("Md.", "Rly.", "Bldg."): a longer one is
+ * read as the first letters of a word only, which a prefix of the sorted vocabulary answers.
+ */
+const MAX_CONTRACTION_LETTERS = 4;
+/** Words written short whose readings are kept, and readings kept for each. */
+const ABBREVIATION_CACHE_SIZE = 4_096;
+const MAX_CACHED_READINGS = 50;
 /** Context-term and alias-token facts kept in memory. */
 const IDF_CACHE_SIZE = 50_000;
 
@@ -105,6 +113,8 @@ export class Kb {
   private readonly vocabDf = new Map<string, number>();
   /** The vocabulary in code-unit order, made on first use (see wordsAbbreviatedBy). */
   private sortedVocabulary: string[] | undefined;
+  /** Readings of words written short, as found (see wordsAbbreviatedBy). */
+  private readonly abbreviationReadings = new Map<string, string[]>();
   /** Alias tokens by vocabulary id (the values of the hot store's deletion-variant index). */
   private readonly vocabTokens: string[] = [];
   /** Per-entity facts for whole candidate pools, in memory (see hot.ts). */
@@ -212,20 +222,28 @@ export class Kb {
    * memory, sorted on first use.
    */
   wordsAbbreviatedBy(short: string, limit: number): string[] {
+    const cached = this.abbreviationReadings.get(short);
+    if (cached !== undefined) return cached.slice(0, limit);
     this.sortedVocabulary ??= [...this.vocabDf.keys()].sort();
     const sorted = this.sortedVocabulary;
-    const first = short[0]!;
+    // A contraction keeps only the first letter as a prefix, so short words scan every word of
+    // that letter; longer ones are read as the first letters of a word only.
+    const prefix = short.length <= MAX_CONTRACTION_LETTERS ? short[0]! : short;
     let lo = 0;
     let hi = sorted.length;
     while (lo < hi) {
       const mid = (lo + hi) >>> 1;
-      if (sorted[mid]! < first) lo = mid + 1;
+      if (sorted[mid]! < prefix) lo = mid + 1;
       else hi = mid;
     }
     const found: string[] = [];
-    for (let i = lo; i < sorted.length && sorted[i]![0] === first; i++)
+    for (let i = lo; i < sorted.length && sorted[i]!.startsWith(prefix); i++)
       if (abbreviates(short, sorted[i]!)) found.push(sorted[i]!);
-    return found.sort((a, b) => this.tokenDf(b) - this.tokenDf(a) || (a < b ? -1 : 1)).slice(0, limit);
+    found.sort((a, b) => this.tokenDf(b) - this.tokenDf(a) || (a < b ? -1 : 1));
+    const readings = found.slice(0, MAX_CACHED_READINGS);
+    if (this.abbreviationReadings.size >= ABBREVIATION_CACHE_SIZE) this.abbreviationReadings.clear();
+    this.abbreviationReadings.set(short, readings);
+    return readings.slice(0, limit);
   }
 
   tokenDf(token: string): number {

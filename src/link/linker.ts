@@ -238,8 +238,17 @@ class CandidateWords implements WordEvidence {
 
 /** True when two candidates' features are the same but for the prior (and prominence). */
 function sameEvidenceButPrior(a: Features, b: Features): boolean {
-  for (const f of FEATURE_NAMES) if (f !== "prior" && f !== "prominence" && a[f] !== b[f]) return false;
-  return true;
+  return (
+    a.exactKey === b.exactKey &&
+    a.jaroWinkler === b.jaroWinkler &&
+    a.levenshtein === b.levenshtein &&
+    a.tokenSet === b.tokenSet &&
+    a.abbreviation === b.abbreviation &&
+    a.context === b.context &&
+    a.typeMatch === b.typeMatch &&
+    a.nearSpelling === b.nearSpelling &&
+    a.contextConflict === b.contextConflict
+  );
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;
@@ -447,14 +456,19 @@ export class Linker {
     let top = scored[0]!;
     for (const c of scored) if (c.score > top.score) top = c;
     if (top.entity.cls === "person" || top.features.exactKey < 1) return;
-    // The tie for first place, most popular first.
-    const tied = scored
-      .filter((c) => c === top || sameEvidenceButPrior(c.features, top.features))
-      .sort((a, b) => b.entity.prior - a.entity.prior);
-    if (tied.length < 2) return;
-    const [first, second] = tied as [ScoredCandidate, ScoredCandidate];
-    if (first.entity.prior <= second.entity.prior) return;
-    first.features.prominence = prominenceOf(first.entity.prior, second.entity.prior);
+    // The tie for first place: its most popular member, and the next one's prior.
+    let first: ScoredCandidate | null = null;
+    let second = -1;
+    for (const c of scored) {
+      if (c !== top && !sameEvidenceButPrior(c.features, top.features)) continue;
+      const prior = c.entity.prior;
+      if (first === null || prior > first.entity.prior) {
+        if (first !== null) second = Math.max(second, first.entity.prior);
+        first = c;
+      } else second = Math.max(second, prior);
+    }
+    if (first === null || second < 0 || first.entity.prior <= second) return;
+    first.features.prominence = prominenceOf(first.entity.prior, second);
     first.score = combine(first.features, this.config.weights);
   }
 

@@ -64,10 +64,17 @@ export interface NormalizedName {
 /** A word of two letters or more cut off by a period: "Calif.", "Tenn.", "Md." (not "J." or "S.G.E."). */
 const CUT_WORD = /(?<!\p{L})(\p{L}{2,})\.(?!\p{L})/gu;
 
+/** The last text cutWords read, and its answer: a mention is normalized once per class. */
+let lastCutText = "";
+let lastCutWords: ReadonlySet<string> = new Set();
+
 /** The folded words of `text` written short (see NormalizedName.abbreviated). */
-function cutWords(text: string): Set<string> {
+function cutWords(text: string): ReadonlySet<string> {
+  if (text === lastCutText) return lastCutWords;
   const out = new Set<string>();
   for (const m of text.matchAll(CUT_WORD)) for (const t of foldTokens(m[1]!)) out.add(t);
+  lastCutText = text;
+  lastCutWords = out;
   return out;
 }
 
@@ -240,10 +247,23 @@ export function abbreviates(short: string, long: string): boolean {
   return j === short.length - 1;
 }
 
-/** The core tokens written short: each once, in order. */
+/**
+ * Short words the lexicon reads in some class ("Dr.", "Chas.", "Jr.", "Co.", "Pt.", "Dept."): in
+ * another class's reading of a name they are still those words, not short for a table word.
+ */
+const LEXICON_SHORT_WORDS: ReadonlySet<string> = new Set([
+  ...HONORIFICS,
+  ...Object.keys(GIVEN_NAME_ABBREVIATIONS),
+  ...Object.keys(GENERATIONAL),
+  ...Object.keys(LEGAL_FORMS),
+  ...Object.keys(PLACE_ABBREVIATIONS),
+  ...Object.keys(DESIGNATOR_ABBREVIATIONS),
+]);
+
+/** The core tokens written short (not the lexicon's own short words): each once, in order. */
 function abbreviatedTokens(tokens: readonly string[], cut: ReadonlySet<string>): string[] {
   if (cut.size === 0) return [];
-  return [...new Set(tokens.filter((t) => cut.has(t)))];
+  return [...new Set(tokens.filter((t) => cut.has(t) && !LEXICON_SHORT_WORDS.has(t)))];
 }
 
 /** Legal forms long enough that one OCR slip cannot turn another word into them. */
