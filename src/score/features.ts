@@ -243,6 +243,11 @@ export function nameMatch(
             cores ? aliasSplit!.core : a.tokens,
             words,
           );
+    const shortKind =
+      shortForm ??
+      (!keyEqual && !personLike && exact < ONE_SIDED_QUALIFIER_CREDIT && abbreviatedFrom(norm, a.tokens)
+        ? "abbreviated"
+        : null);
     if (keyEqual) {
       const credit = keyCredit(norm, a, personLike);
       if (credit > exact || keyKind !== "exact") {
@@ -257,24 +262,16 @@ export function nameMatch(
         exact = ONE_SIDED_QUALIFIER_CREDIT;
         keyKind = "core";
       }
-    } else if (shortForm !== null) {
-      // A name less words that still point at this entry only, as a qualified name does.
+    } else if (shortKind !== null) {
+      // A name less words that still point at this entry only, or its words some written short:
+      // as strong as a name with a one-sided qualifier.
       jw = 1;
       lev = 1;
       tok = 1;
       bestAlias = a;
       wordsAlike = true;
       exact = ONE_SIDED_QUALIFIER_CREDIT;
-      keyKind = shortForm;
-    } else if (!personLike && exact < ONE_SIDED_QUALIFIER_CREDIT && abbreviatedFrom(norm, a.tokens)) {
-      // The same words, some written short: as strong as a name with a one-sided qualifier.
-      jw = 1;
-      lev = 1;
-      tok = 1;
-      bestAlias = a;
-      wordsAlike = true;
-      exact = ONE_SIDED_QUALIFIER_CREDIT;
-      keyKind = "abbreviated";
+      keyKind = shortKind;
     } else if (exact < OCR_KEY_CREDIT && norm.ocrKey === a.ocr) {
       exact = OCR_KEY_CREDIT;
       keyKind = "ocr";
