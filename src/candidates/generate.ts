@@ -24,6 +24,7 @@ import type { Kb } from "../kb/kb.js";
 import type { KeyKind } from "../kb/schema.js";
 import type { NormalizedName } from "../normalize/name.js";
 import { ocrFold } from "../normalize/ocr.js";
+import { COMPASS_INITIALS } from "../normalize/lexicon.js";
 import { genericWordFor, genericWordsOf } from "../score/table-words.js";
 import type { CandidatePath, EntityClass } from "../types.js";
 import { GenerationCache } from "../util/generation-cache.js";
@@ -347,6 +348,12 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
         const longer = kb.wordsAbbreviatedBy(t, MAX_ABBREVIATION_READINGS);
         if (longer.length > 0) expanded.set(t, [...(corrected.get(t) ?? []), ...longer]);
       }
+      // Beside a word written short, a lone initial may be a compass point ("W. Va.").
+      if (norm.abbreviated.length > 0)
+        for (const t of norm.tokens) {
+          const points = COMPASS_INITIALS[t];
+          if (points !== undefined && !expanded.has(t)) expanded.set(t, points);
+        }
     }
   }
   if (search) {

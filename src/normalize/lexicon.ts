@@ -522,3 +522,15 @@ export const CONTRASTING_WORDS: Readonly<Record<string, readonly [string, string
   put("ring", "outer", ["outer"]);
   return out;
 })();
+
+/**
+ * What a lone initial stands for before a word written short in a place's name: a compass point,
+ * or "New" ("N. Dak." North Dakota, "W. Va." West Virginia, "N. Mex." New Mexico). Common practice
+ * of press and postal abbreviations (from memory). Read only beside a word cut off by a period.
+ */
+export const COMPASS_INITIALS: Readonly<Record<string, readonly string[]>> = {
+  n: ["north", "new"],
+  s: ["south"],
+  e: ["east"],
+  w: ["west"],
+};

@@ -3,7 +3,7 @@
  * in types.ts for what each measures. Name features are the best over the entity's aliases.
  */
 import type { AliasRow, EntityRow } from "../kb/kb.js";
-import { CONTRASTING_WORDS, LEGAL_FORMS } from "../normalize/lexicon.js";
+import { COMPASS_INITIALS, CONTRASTING_WORDS, LEGAL_FORMS } from "../normalize/lexicon.js";
 import { abbreviates, acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
@@ -344,7 +344,8 @@ export function prominenceOf(prior: number, rival: number): number {
 
 /**
  * True when the mention is the alias's words with some written short (NormalizedName.abbreviated:
- * "Calif." for "California", "Harrowm. Wharf" for "Harrowmouth Wharf"), the others as written.
+ * "Calif." for "California", "Harrowm. Wharf" for "Harrowmouth Wharf"), the others as written or,
+ * beside them, a lone initial of a compass point (COMPASS_INITIALS: "W. Va.", "N. Dak.").
  */
 function abbreviatedFrom(norm: NormalizedName, alias: readonly string[]): boolean {
   const m = norm.tokens;
@@ -352,6 +353,7 @@ function abbreviatedFrom(norm: NormalizedName, alias: readonly string[]): boolea
   let short = 0;
   for (let i = 0; i < m.length; i++) {
     if (m[i] === alias[i]) continue;
+    if (COMPASS_INITIALS[m[i]!]?.includes(alias[i]!)) continue;
     if (!norm.abbreviated.includes(m[i]!) || !abbreviates(m[i]!, alias[i]!)) return false;
     short++;
   }
