@@ -4,7 +4,7 @@ import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
-import type { ReadWarning } from "../read/warnings.js";
+import { type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
@@ -46,8 +46,7 @@ export async function readLabeled(
   warn: (message: string) => void = (m) => process.stderr.write(`hawser: warning: ${m}\n`),
 ): Promise<LabeledMention[]> {
   const out: LabeledMention[] = [];
-  const onWarning = (w: ReadWarning) =>
-    warn(`${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`);
+  const onWarning = (w: ReadWarning) => warn(warningLine(w));
   for await (const m of readMentions(file, { ...readerOptions(options), labeled: true, onWarning }))
     out.push(m);
   if (out.length === 0) throw new InputError({ file }, "the labeled set is empty");

@@ -4,6 +4,7 @@ import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
 import { type LinkerOptions, createLinker } from "../link/linker.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
 import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
+import { warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { CandidatePath, LinkRow } from "../types.js";
 import { AtomicWriter } from "../util/atomic-file.js";
@@ -119,7 +120,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const source = readMentions(options.mentions, {
       ...readerOptions(options),
-      onWarning: (w) => note(`${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`),
+      onWarning: (w) => note(warningLine(w)),
     });
     const writer = options.out !== undefined ? new AtomicWriter(options.out) : null;
     const stdout = options.stdout ?? process.stdout;

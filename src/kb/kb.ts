@@ -114,7 +114,7 @@ export class Kb {
   /** The vocabulary in code-unit order, made on first use (see wordsAbbreviatedBy). */
   private sortedVocabulary: string[] | undefined;
   /** Readings of words written short, as found (see wordsAbbreviatedBy). */
-  private readonly abbreviationReadings = new Map<string, string[]>();
+  private readonly abbreviationReadings = new GenerationCache<string, string[]>(ABBREVIATION_CACHE_SIZE);
   /** Alias tokens by vocabulary id (the values of the hot store's deletion-variant index). */
   private readonly vocabTokens: string[] = [];
   /** Per-entity facts for whole candidate pools, in memory (see hot.ts). */
@@ -215,7 +215,6 @@ export class Kb {
     return out.sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1)).map(([t]) => t);
   }
 
-  /** How many entities have this token in a name or alias (0 when unknown). */
   /**
    * The table's name words that `short` may stand for, written short (see abbreviates in
    * src/normalize/name.ts): at most `limit`, the most frequent first. Read from the vocabulary in
@@ -241,11 +240,11 @@ export class Kb {
       if (abbreviates(short, sorted[i]!)) found.push(sorted[i]!);
     found.sort((a, b) => this.tokenDf(b) - this.tokenDf(a) || (a < b ? -1 : 1));
     const readings = found.slice(0, MAX_CACHED_READINGS);
-    if (this.abbreviationReadings.size >= ABBREVIATION_CACHE_SIZE) this.abbreviationReadings.clear();
     this.abbreviationReadings.set(short, readings);
     return readings.slice(0, limit);
   }
 
+  /** How many entities have this token in a name or alias (0 when unknown). */
   tokenDf(token: string): number {
     return this.vocabDf.get(token) ?? 0;
   }

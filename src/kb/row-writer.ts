@@ -24,7 +24,7 @@ export class RowWriter {
   /** Blocking keys written (rows of the keys view). */
   keys = 0;
   maxPrior = 0;
-  /** Whether any row gave aliases, a prior above 0, a description (see tableWarnings). */
+  /** Whether any row gave aliases, a prior above 0, a description (see columnWarnings in build.ts). */
   readonly given = { aliases: false, prior: false, description: false };
   readonly byClass: Record<string, number> = {};
   /** Table types the label map does not know, with counts. */

@@ -238,17 +238,8 @@ class CandidateWords implements WordEvidence {
 
 /** True when two candidates' features are the same but for the prior (and prominence). */
 function sameEvidenceButPrior(a: Features, b: Features): boolean {
-  return (
-    a.exactKey === b.exactKey &&
-    a.jaroWinkler === b.jaroWinkler &&
-    a.levenshtein === b.levenshtein &&
-    a.tokenSet === b.tokenSet &&
-    a.abbreviation === b.abbreviation &&
-    a.context === b.context &&
-    a.typeMatch === b.typeMatch &&
-    a.nearSpelling === b.nearSpelling &&
-    a.contextConflict === b.contextConflict
-  );
+  for (const f of FEATURE_NAMES) if (f !== "prior" && f !== "prominence" && a[f] !== b[f]) return false;
+  return true;
 }
 
 const r4 = (x: number) => Math.round(x * 10000) / 10000;

@@ -55,7 +55,7 @@ export interface NormalizedName {
    * Core tokens written short, as a word of two letters or more cut off by a period ("Calif.",
    * "Tenn.", "Harrowm."), that the lexicon did not read ("St.", "Co." and the like are read):
    * candidates and scoring may take them for a longer word they begin, or contract (see
-   * abbreviates in src/score/name-similarity.ts). Empty for persons, whose short given names the
+   * abbreviates below). Empty for persons, whose short given names the
    * lexicon reads.
    */
   abbreviated: string[];

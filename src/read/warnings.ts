@@ -14,3 +14,8 @@ export interface ReadWarning {
 
 /** Callback receiving warnings as they are found. */
 export type WarningHandler = (warning: ReadWarning) => void;
+
+/** A warning as one line for people: "file:line: message". */
+export function warningLine(w: ReadWarning): string {
+  return `${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`;
+}

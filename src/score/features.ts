@@ -331,9 +331,9 @@ export function nameMatch(
 }
 
 /**
- * Popularity lead at which the prominence feature is 1: a thousandfold. The default weight is its
- * log (see DEFAULT_WEIGHTS), so that the feature adds the log of the lead itself, as if mentions
- * named namesakes in proportion to their popularity.
+ * Popularity lead at which the prominence feature is 1: a thousandfold. The default weight is
+ * half its log (see DEFAULT_WEIGHTS), so that the feature adds half the log of the lead, as if
+ * mentions named namesakes in proportion to the square root of their popularity.
  */
 export const PROMINENCE_FULL_LEAD = 1000;
 
