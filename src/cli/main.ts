@@ -177,7 +177,7 @@ export function program(): Command {
     .description("build a KB file (SQLite) from a knowledge table (CSV, TSV or JSONL)")
     .argument(
       "<table>",
-      "knowledge table: id, name, type, aliases, description, prior, other columns as attributes",
+      "knowledge table: id, name, type, aliases, description, prior, other columns as attributes; - reads stdin (JSONL unless --from)",
     )
     .requiredOption("--out <kb>", "KB file to write (atomically)")
     .addOption(
@@ -205,7 +205,7 @@ export function program(): Command {
         .description("link a file of mentions: one output row per mention, in input order")
         .argument(
           "<mentions>",
-          "mentions: JSONL, CSV, CoNLL (.conll/.bio/.iob) or span rows with --documents",
+          "mentions: JSONL, CSV, CoNLL (.conll/.bio/.iob) or span rows with --documents; - reads stdin (JSONL unless --from)",
         )
         .requiredOption("--kb <kb>", "KB file built by `hawser index`")
         .option("--out <file>", "output file, written atomically (default: stdout)")

@@ -11,6 +11,7 @@ import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
 import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
+import { STDIN } from "../read/lines.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
@@ -20,7 +21,7 @@ import { StringIndexBuilder } from "./string-index.js";
 import { INDEX_SQL, KB_FORMAT, SCHEMA_SQL, SCHEMA_VERSION } from "./schema.js";
 
 export interface BuildKbOptions {
-  /** The knowledge table: CSV (header row), TSV or JSONL. */
+  /** The knowledge table: CSV (header row), TSV or JSONL; `-` reads standard input (JSONL unless `from`). */
   table: string;
   /** Where to write the KB file. An existing file is replaced only when the build succeeds. */
   out: string;
@@ -93,7 +94,7 @@ const FTS_DEFAULT_SETTINGS =
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
-  if (!existsSync(options.table)) throw new InputError({ file: options.table }, "no such file");
+  if (options.table !== STDIN && !existsSync(options.table)) throw new InputError({ file: options.table }, "no such file");
   const labels = options.labels ?? new LabelMap();
   const tmp = join(dirname(options.out), `.${basename(options.out)}.tmp-${process.pid}-${Date.now()}`);
   const db = new Database(tmp);
@@ -118,7 +119,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       format: KB_FORMAT,
       schema_version: SCHEMA_VERSION,
       normalizer_version: NORMALIZER_VERSION,
-      source_file: basename(options.table),
+      source_file: options.table === STDIN ? "stdin" : basename(options.table),
       source_sha256: sourceSha,
       fingerprint,
       entities: summary.entities,

@@ -7,7 +7,7 @@ import { type CsvError, Parser } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { readJsonLines } from "../read/jsonl.js";
-import { type BytesTap, openText } from "../read/lines.js";
+import { type BytesTap, openText, STDIN } from "../read/lines.js";
 
 export type TableFormat = "csv" | "tsv" | "jsonl";
 
@@ -24,7 +24,8 @@ export interface TableRow {
 }
 
 export function tableFormatOf(file: string, from?: string): TableFormat {
-  const f = (from ?? extname(file).slice(1)).toLowerCase();
+  // Standard input has no extension: JSONL unless told, as for mentions (src/read/index.ts).
+  const f = (from ?? (file === STDIN ? "jsonl" : extname(file).slice(1))).toLowerCase();
   if (f === "csv") return "csv";
   if (f === "tsv" || f === "tab") return "tsv";
   if (f === "jsonl" || f === "ndjson") return "jsonl";

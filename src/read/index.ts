@@ -8,6 +8,7 @@ import { UsageError } from "../util/errors.js";
 import { readConll } from "./conll.js";
 import type { ContextWindow } from "./context-window.js";
 import { lookalikeOf } from "./field-hints.js";
+import { STDIN } from "./lines.js";
 import type { ReadLabeledMention, ReadMention } from "./mention-row.js";
 import { readMentionsCsv } from "./mentions-csv.js";
 import { readMentionsJsonl } from "./mentions-jsonl.js";
@@ -51,7 +52,10 @@ const EXTENSIONS: Record<string, { format: MentionFormat; rows?: RowFormat }> = 
 
 /** Options of `readMentions`. Format-specific options given for another format are a UsageError. */
 export interface ReadMentionsOptions {
-  /** Input format. Default: from the extension (`spans` when `documents` is given). */
+  /**
+   * Input format. Default: from the extension (`spans` when `documents` is given; `jsonl` for
+   * standard input, the file name `-`).
+   */
   from?: MentionFormat | undefined;
   /** Spans only (required there): the JSONL documents file the span offsets point into. */
   documents?: string | undefined;
@@ -76,6 +80,7 @@ function extensionChoices(): string {
 }
 
 function rowFormat(file: string, purpose: string): RowFormat {
+  if (file === STDIN) return "jsonl"; // standard input has no extension: rows are JSONL
   const rows = EXTENSIONS[extname(file).toLowerCase()]?.rows;
   if (rows === undefined) {
     throw new UsageError(
@@ -92,6 +97,8 @@ export function resolveFormat(file: string, options: ReadMentionsOptions): Menti
     throw new UsageError(`unknown input format "${format}"; choose one of ${MENTION_FORMATS.join(", ")}`);
   }
   if (format === undefined && options.documents !== undefined) format = "spans";
+  // Standard input has no extension to tell its format by: JSONL, the links' own format, unless told.
+  if (format === undefined && file === STDIN) format = "jsonl";
   if (format === undefined) {
     format = EXTENSIONS[extname(file).toLowerCase()]?.format;
     if (format === undefined) {

@@ -9,6 +9,12 @@ import { pipeline, type Transform } from "node:stream";
 import { InputError } from "../util/errors.js";
 import { strictUtf8 } from "./utf8.js";
 
+/**
+ * The file name that stands for standard input, as Unix tools take it: `hawser link --kb KB -`
+ * reads the mentions a pipeline writes. Errors name it "stdin" (see InputError).
+ */
+export const STDIN = "-";
+
 /** One line of text without its line end. */
 export interface TextLine {
   /** 1-based line number in the file. */
@@ -35,8 +41,8 @@ export type BytesTap = (chunk: Buffer) => void;
  */
 export function openText(file: string, onBytes?: BytesTap): Transform {
   const decoder = strictUtf8(file);
-  const raw = createReadStream(file);
-  if (onBytes) raw.on("data", (chunk) => onBytes(chunk as Buffer));
+  const raw = file === STDIN ? process.stdin : createReadStream(file);
+  if (onBytes) raw.on("data", (chunk: Buffer | string) => onBytes(chunk as Buffer));
   pipeline(raw, decoder, () => {
     // Errors are forwarded to `decoder` by pipeline; its consumer reports them.
   });

@@ -17,7 +17,9 @@ export class InputError extends Error {
   readonly field: string | undefined;
 
   constructor(location: InputLocation, problem: string) {
-    const where = location.line === undefined ? location.file : `${location.file}:${location.line}`;
+    // "-" is standard input (src/read/lines.ts STDIN): a message that starts "-:12:" reads as noise.
+    const file = location.file === "-" ? "stdin" : location.file;
+    const where = location.line === undefined ? file : `${file}:${location.line}`;
     const field = location.field === undefined ? "" : ` field "${location.field}":`;
     super(`${where}:${field} ${problem}`);
     this.name = "InputError";

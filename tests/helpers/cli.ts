@@ -22,13 +22,16 @@ export function requireBuiltCli(): void {
   }
 }
 
-/** Run `hawser ARGS...` in `cwd`, stdin closed, and collect its exit status and output. */
-export function hawser(args: readonly string[], cwd: string): CliResult {
+/**
+ * Run `hawser ARGS...` in `cwd` and collect its exit status and output. Standard input is closed,
+ * or carries `input` when given.
+ */
+export function hawser(args: readonly string[], cwd: string, input?: string): CliResult {
   const r = spawnSync(process.execPath, [CLI, ...args], {
     cwd,
     encoding: "utf8",
     timeout: CLI_TIMEOUT_MS,
-    stdio: ["ignore", "pipe", "pipe"],
+    ...(input === undefined ? { stdio: ["ignore", "pipe", "pipe"] as const } : { input }),
   });
   if (r.error) throw r.error;
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
