@@ -103,8 +103,16 @@ describe("hawser link", () => {
     const csv = `id,text,type\n${MENTIONS.map((m) => `${m.id},"${m.text}",${m.type}`).join("\n")}\n`;
     const pipedCsv = hawser(["link", "--kb", kb, "--from", "csv", "-"], t.dir, csv);
     expect(pipedCsv.status, pipedCsv.stderr).toBe(0);
-    expect(pipedCsv.stdout.trim().split("\n").map((l) => JSON.parse(l).entity)).toEqual(
-      fromFile.stdout.trim().split("\n").map((l) => JSON.parse(l).entity),
+    expect(
+      pipedCsv.stdout
+        .trim()
+        .split("\n")
+        .map((l) => JSON.parse(l).entity),
+    ).toEqual(
+      fromFile.stdout
+        .trim()
+        .split("\n")
+        .map((l) => JSON.parse(l).entity),
     );
   });
 
@@ -113,7 +121,12 @@ describe("hawser link", () => {
     expect(r.status).toBe(1);
     expect(r.stderr).toContain('stdin:3: field "text"');
     // Rows stream to stdout as they are linked: those before the bad line are out already, never a row for it.
-    expect(r.stdout.trim().split("\n").map((l) => JSON.parse(l).mention)).toEqual(["a1", "a2"]);
+    expect(
+      r.stdout
+        .trim()
+        .split("\n")
+        .map((l) => JSON.parse(l).mention),
+    ).toEqual(["a1", "a2"]);
   });
 
   it("links against a KB another process holds open, and the KB can be rebuilt meanwhile", () => {

@@ -94,7 +94,8 @@ const FTS_DEFAULT_SETTINGS =
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
-  if (options.table !== STDIN && !existsSync(options.table)) throw new InputError({ file: options.table }, "no such file");
+  if (options.table !== STDIN && !existsSync(options.table))
+    throw new InputError({ file: options.table }, "no such file");
   const labels = options.labels ?? new LabelMap();
   const tmp = join(dirname(options.out), `.${basename(options.out)}.tmp-${process.pid}-${Date.now()}`);
   const db = new Database(tmp);
