@@ -36,6 +36,7 @@ import {
   unlabeled,
 } from "./measure.js";
 import { RssSampler } from "./rss.js";
+import { buildSimple, SimpleLinker } from "./simple-baseline.js";
 
 /** Default number of mentions linked. */
 const DEFAULT_MENTIONS = 20_000;
@@ -58,8 +59,10 @@ const CHILD_MAX_BUFFER = 16 * 1024 * 1024;
 const MIB = 1024 * 1024;
 /** KB file name inside the data folder. */
 const KB_FILE = "bench.kb";
+/** The simple baseline's SQLite file inside the data folder (see simple-baseline.ts). */
+const SIMPLE_FILE = "simple.sqlite";
 
-type Phase = "generate" | "build" | "link" | "brute";
+type Phase = "generate" | "build" | "link" | "brute" | "simple";
 
 /** Everything a phase needs; passed to the child as JSON. */
 interface RunConfig {
@@ -294,10 +297,52 @@ function phaseBrute(cfg: RunConfig): void {
   kb.close();
 }
 
+/**
+ * The simple baseline (simple-baseline.ts): its build over the same CSV and its linking of the
+ * same mentions, timed the same way (the first WARMUP_MENTIONS linked once untimed).
+ */
+async function phaseSimple(cfg: RunConfig): Promise<void> {
+  collectGarbage();
+  const sampler = new RssSampler().start();
+  const file = join(cfg.dataDir, SIMPLE_FILE);
+  const built = await buildSimple(join(cfg.dataDir, TABLE_FILE), file);
+  emit({
+    measure: "simple-baseline",
+    phase: "build",
+    entities: built.entities,
+    names: built.names,
+    seconds: round(built.seconds, 2),
+    entitiesPerSecond: Math.round(built.entities / built.seconds),
+    fileMb: round(statSync(file).size / MIB, 1),
+  });
+  const mentions = readLabeled(join(cfg.dataDir, MENTIONS_FILE));
+  const linker = new SimpleLinker(file);
+  const warmup = Math.min(WARMUP_MENTIONS, mentions.length);
+  for (let i = 0; i < warmup; i++) linker.link(mentions[i]!.text);
+  const quality = new QualityCounter();
+  const started = process.hrtime.bigint();
+  for (let i = 0; i < mentions.length; i++) {
+    quality.add(mentions[i]!.gold, { entity: linker.link(mentions[i]!.text) });
+    if (i % CHECKPOINT_EVERY === 0) sampler.checkpoint();
+  }
+  const linkSeconds = seconds(started);
+  linker.close();
+  emit({
+    measure: "simple-baseline",
+    phase: "link",
+    mentions: mentions.length,
+    seconds: round(linkSeconds, 3),
+    mentionsPerSecond: Math.round(mentions.length / linkSeconds),
+    ...quality.result(),
+  });
+  emit(rssLine("simple", sampler));
+}
+
 async function runPhase(phase: Phase, cfg: RunConfig): Promise<void> {
   if (phase === "generate") phaseGenerate(cfg);
   else if (phase === "build") await phaseBuild(cfg);
   else if (phase === "link") phaseLink(cfg);
+  else if (phase === "simple") await phaseSimple(cfg);
   else phaseBrute(cfg);
 }
 
@@ -363,9 +408,28 @@ async function orchestrate(o: CliOptions): Promise<void> {
     } else {
       spawnPhase("generate", cfg).forEach(emit);
     }
-    spawnPhase("build", cfg).forEach(emit);
+    const buildLines = spawnPhase("build", cfg);
+    buildLines.forEach(emit);
     const linkLines = spawnPhase("link", cfg);
     linkLines.forEach(emit);
+    // The simple baseline, with hawser's figures of this run beside it: speed ratios (hawser's
+    // throughput over the baseline's; below 1 means hawser is slower) and the F1 each reaches.
+    const ours: Record<string, number | undefined> = {
+      build: buildLines.find((l) => l.measure === "index-build")?.entitiesPerSecond as number | undefined,
+      link: linkLines.find((l) => l.measure === "link")?.mentionsPerSecond as number | undefined,
+    };
+    const oursF1 = linkLines.find((l) => l.measure === "f1-default")?.f1;
+    for (const line of spawnPhase("simple", cfg)) {
+      const phase = line.phase as string;
+      const theirs = (phase === "build" ? line.entitiesPerSecond : line.mentionsPerSecond) as number;
+      const mine = ours[phase];
+      if (line.measure === "simple-baseline" && mine !== undefined && theirs > 0) {
+        line.hawserPerSecond = mine;
+        line.hawserSpeedRatio = round(mine / theirs, 3);
+        if (phase === "link") line.hawserF1 = oursF1;
+      }
+      emit(line);
+    }
     if (cfg.bruteSample > 0) {
       const linkMps = linkLines.find((l) => l.measure === "link")?.mentionsPerSecond;
       const oursAll = linkLines.find((l) => l.measure === "pairs-completeness")?.value;

@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { parse } from "csv-parse/sync";
@@ -7,6 +7,7 @@ import { generate, MENTIONS_FILE, TABLE_FILE } from "../benchmarks/generate.js";
 import { OCR_CONFUSIONS, ocrConfusion } from "../benchmarks/gen/noise.js";
 import { mixSeed, Rng } from "../benchmarks/gen/prng.js";
 import { CompletenessCounter, evenSample, QualityCounter } from "../benchmarks/measure.js";
+import { buildSimple, SimpleLinker } from "../benchmarks/simple-baseline.js";
 import type { LabeledMention } from "../src/types.js";
 
 /** Small sizes keep the test fast on a shared 2-core machine. */
@@ -149,5 +150,37 @@ describe("benchmark measures", () => {
   it("samples evenly and never more than there is", () => {
     expect(evenSample(10, 5)).toEqual([0, 2, 4, 6, 8]);
     expect(evenSample(3, 10)).toEqual([0, 1, 2]);
+  });
+});
+
+describe("the benchmark's simple baseline (folded exact name over SQLite)", () => {
+  it("links a folded exact name or alias to its most popular row, first in table order on a tie, else NIL", async () => {
+    const dir = freshDir();
+    const table = join(dir, "table.csv");
+    writeFileSync(
+      table,
+      [
+        "id,name,type,aliases,description,prior",
+        "t1,Stenmouth,town,Stenmth.|Port Stenmouth,,40",
+        "t2,Stenmouth,town,,,900",
+        "t3,Gréyweld,town,,,",
+        "t4,Greyweld,village,,,",
+        "f1,Pell & Sons,firm,Pell Brothers,,3",
+      ].join("\n"),
+    );
+    const built = await buildSimple(table, join(dir, "simple.sqlite"));
+    expect(built.entities).toBe(5);
+    expect(built.names).toBe(8); // 3 + 1 + 1 + 1 + 2: "Stenmth." folds to "stenmth", a key of its own
+    const linker = new SimpleLinker(join(dir, "simple.sqlite"));
+    try {
+      expect(linker.link("STENMOUTH")).toBe("t2"); // the more popular namesake
+      expect(linker.link("Port Stenmouth")).toBe("t1");
+      expect(linker.link("Greyweld")).toBe("t3"); // diacritics folded; tie on prior: table order
+      expect(linker.link("pell and sons")).toBe("f1"); // & folds to "and"
+      expect(linker.link("Stenmoth")).toBeNull(); // no fuzzy matching
+      expect(linker.link("")).toBeNull();
+    } finally {
+      linker.close();
+    }
   });
 });
