@@ -2,13 +2,14 @@
  * The `hawser` binary: exit status (0 done, 1 bad input naming file and line, 2 bad usage), atomic
  * output, CSV and JSONL rows in input order, `info`, and an empty mentions file.
  */
+import { spawn } from "node:child_process";
 import { existsSync, readdirSync, readFileSync } from "node:fs";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { CSV_COLUMNS } from "../src/link/write.js";
 import { openKb } from "../src/kb/kb.js";
 import { SCHEMA_VERSION } from "../src/kb/schema.js";
-import { hawser, requireBuiltCli } from "./helpers/cli.js";
+import { CLI, hawser, requireBuiltCli } from "./helpers/cli.js";
 import { GAZETTE_CSV, GAZETTE_ROWS, jsonl, tempDir, writeText } from "./helpers/gazette.js";
 
 let t: ReturnType<typeof tempDir>;
@@ -114,6 +115,25 @@ describe("hawser link", () => {
         .split("\n")
         .map((l) => JSON.parse(l).entity),
     );
+  });
+
+  it("stops quietly (exit 0, no stack trace) when the reader of its output closes the pipe early", async () => {
+    // As `hawser link ... | head -1` does: more rows than a pipe buffers, and the reader leaves after the first.
+    const many = Array.from({ length: 3000 }, (_, i) => ({ id: `r${i}`, text: "Stenmoor", type: "LOC" }));
+    writeText(t.file("many.jsonl"), jsonl(many));
+    const child = spawn(process.execPath, [CLI, "link", "--kb", kb, "many.jsonl"], { cwd: t.dir });
+    let stderr = "";
+    child.stderr.on("data", (d) => {
+      stderr += String(d);
+    });
+    const first = await new Promise<string>((resolve) =>
+      child.stdout.once("data", (d) => resolve(String(d))),
+    );
+    child.stdout.destroy();
+    const status = await new Promise<number | null>((resolve) => child.on("close", (code) => resolve(code)));
+    expect(first).toContain('"mention":"r0"');
+    expect(stderr).not.toContain("EPIPE");
+    expect(status).toBe(0);
   });
 
   it("names standard input in the error for a bad line piped in (exit 1)", () => {

@@ -135,6 +135,13 @@ describe("buildKb validation: each error names file, line and column", () => {
     });
   }
 
+  it("says a header read as one column looks separated by another character", async () => {
+    const table = writeText(t.file("semi.csv"), "id;name;type\nP1;Ezra Marsh;person\n");
+    await expect(build(table)).rejects.toThrow(/semi\.csv:1: .*looks separated by ";"/);
+    const plain = writeText(t.file("plain.csv"), "ident,name,type\nP1,Ezra Marsh,person\n");
+    await expect(build(plain)).rejects.not.toThrow(/looks separated/); // several columns: no guess
+  });
+
   it("rejects a row with an empty id, name or type, naming the row's line", async () => {
     const good = "P1,Ezra Marsh,person,,,";
     const cases: Array<[string, string]> = [

@@ -304,6 +304,13 @@ describe("fields named otherwise", () => {
     expect((json as InputError).field).toBe("text");
   });
 
+  it("say a header read as one column looks separated by another character", async () => {
+    const semi = await failure(readMentions(fixture(".csv", "id;text\n1;Pell & Co.\n")));
+    expect((semi as InputError).message).toMatch(/looks separated by ";"/);
+    const commas = await failure(readMentions(fixture(".tsv", "id,text\n1,Pell & Co.\n")));
+    expect((commas as InputError).message).toMatch(/looks separated by ","/);
+  });
+
   it("report a look-alike of an optional field once, as not read", async () => {
     const warnings: Array<{ code: string; message: string; line?: number | undefined }> = [];
     const file = fixture(".csv", "text,label,sentence\nPell & Co.,ORG,At Harrowmouth.\nKell,ORG,x\n");

@@ -376,6 +376,16 @@ export async function main(argv: string[]): Promise<number> {
   }
 }
 
+/**
+ * A reader that stops early (`hawser link ... | head`) closes the pipe: the rest of the output has
+ * nowhere to go, which is no failure of hawser's. Stop quietly, as Unix tools do, instead of
+ * dying of an unhandled EPIPE with a stack trace.
+ */
+process.stdout.on("error", (e: NodeJS.ErrnoException) => {
+  if (e.code === "EPIPE") process.exit(0);
+  throw e;
+});
+
 main(process.argv.slice(2)).then((code) => {
   process.exitCode = code;
 });

@@ -6,6 +6,7 @@ import { extname } from "node:path";
 import { type CsvError, Parser } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
+import { separatorHint } from "../read/field-hints.js";
 import { readJsonLines } from "../read/jsonl.js";
 import { type BytesTap, openText, STDIN } from "../read/lines.js";
 
@@ -145,7 +146,7 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
         if (!cols.includes(c))
           throw new InputError(
             { file, line: 1, field: c },
-            `the header has no "${c}" column (found: ${cols.join(", ")})`,
+            `the header has no "${c}" column (found: ${cols.join(", ")})${separatorHint(cols, delimiter)}`,
           );
       }
       const dup = cols.find((c, i) => cols.indexOf(c) !== i);

@@ -37,3 +37,19 @@ export const TABLE_LOOKALIKE_COLUMNS: Readonly<Record<string, readonly string[]>
   prior: ["population", "popularity", "frequency", "mention_count", "pop"],
   description: ["desc", "abstract", "summary", "about", "bio", "biography"],
 };
+
+/** Separators people use in delimited files besides the one hawser reads (comma for CSV, tab for TSV). */
+const OTHER_SEPARATORS = [";", "\t", "|", ","] as const;
+
+/**
+ * When a header came out as one column that holds another separator ("id;name;type" read as
+ * CSV), the likely cause in a few words: the file is separated by that character. Empty
+ * otherwise. `delimiter` is the one the file was read with.
+ */
+export function separatorHint(columns: readonly string[], delimiter: string): string {
+  if (columns.length !== 1) return "";
+  const other = OTHER_SEPARATORS.find((s) => s !== delimiter && columns[0]!.includes(s));
+  if (other === undefined) return "";
+  const name = other === "\t" ? "tabs" : `"${other}"`;
+  return `; the header reads as one column: the file looks separated by ${name}, and hawser reads CSV separated by commas and TSV by tabs`;
+}

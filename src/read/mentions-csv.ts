@@ -2,7 +2,7 @@
 
 import { InputError } from "../util/errors.js";
 import { type CsvOptions, readCsvRows } from "./csv.js";
-import { lookalikeOf } from "./field-hints.js";
+import { lookalikeOf, separatorHint } from "./field-hints.js";
 import { UniqueIds } from "./fields.js";
 import {
   type MentionRowOptions,
@@ -36,7 +36,7 @@ export async function* readMentionsCsv(
       throw new InputError(
         { file, line, field: name },
         like === undefined
-          ? "missing column in header"
+          ? `missing column in header${separatorHint(columns, options.delimiter ?? ",")}`
           : `missing column in header (found "${like}": hawser reads the mention's ${name} from "${name}")`,
       );
     }
