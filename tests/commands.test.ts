@@ -8,7 +8,7 @@ import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { agree } from "../src/commands/agree.js";
 import { SAMPLES_DIR } from "../src/commands/demo.js";
-import { evaluate } from "../src/commands/evaluate.js";
+import { evaluate, readLabeled, warnUnknownGold } from "../src/commands/evaluate.js";
 import { index } from "../src/commands/index-table.js";
 import { link } from "../src/commands/link.js";
 import { tune } from "../src/commands/tune.js";
@@ -105,6 +105,26 @@ describe("eval", () => {
     const empty = join(dir, "empty.jsonl");
     writeFileSync(empty, "");
     await expect(evaluate({ kb, gold: empty })).rejects.toBeInstanceOf(InputError);
+  });
+});
+
+describe("gold ids the KB lacks", () => {
+  it("are counted in a warning naming the first and their lines; none for the sample set", async () => {
+    const kbFile = openKb(kb);
+    try {
+      const labeled = await readLabeled(gold);
+      const warnings: string[] = [];
+      expect(warnUnknownGold(kbFile, labeled, gold, (m) => warnings.push(m))).toBe(0);
+      expect(warnings).toEqual([]);
+      const first = labeled.find((m) => m.gold !== null)!;
+      const renamed = labeled.map((m) => (m === first ? { ...m, gold: "X-renamed" } : m));
+      expect(warnUnknownGold(kbFile, renamed, "g.jsonl", (m) => warnings.push(m))).toBe(1);
+      expect(warnings[0]).toContain(
+        `g.jsonl: 1 of 1238 gold ids are not in the KB ("X-renamed" on line ${first.source!.line})`,
+      );
+    } finally {
+      kbFile.close();
+    }
   });
 });
 

@@ -1,7 +1,7 @@
 /** `hawser eval` as a library call: link a labeled set (or read predicted rows) and measure. */
 import { type AlignMode, type AlignedEvalReport, alignSpans, evaluateAligned } from "../evaluate/align.js";
 import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
-import { openKb } from "../kb/kb.js";
+import { type Kb, openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
 import { type ReadWarning, warningLine } from "../read/warnings.js";
@@ -40,10 +40,15 @@ export interface EvalOptions
   k?: number;
 }
 
+/** Where eval and tune report what does not stop them: stderr, as the CLI's other warnings. */
+const stderrWarning = (m: string) => {
+  process.stderr.write(`hawser: warning: ${m}\n`);
+};
+
 export async function readLabeled(
   file: string,
   options: Parameters<typeof readerOptions>[0] = {},
-  warn: (message: string) => void = (m) => process.stderr.write(`hawser: warning: ${m}\n`),
+  warn: (message: string) => void = stderrWarning,
 ): Promise<LabeledMention[]> {
   const out: LabeledMention[] = [];
   const onWarning = (w: ReadWarning) => warn(warningLine(w));
@@ -51,6 +56,34 @@ export async function readLabeled(
     out.push(m);
   if (out.length === 0) throw new InputError({ file }, "the labeled set is empty");
   return out;
+}
+
+/** Gold ids named in a warning about ids the KB lacks, at most. */
+const UNKNOWN_GOLD_SHOWN = 3;
+
+/**
+ * Warns when gold ids of the labeled set are not ids of the KB: those mentions can only count as
+ * wrong (a missed or wrong link), and a labeled set made against another table, or a table whose
+ * ids changed since, would otherwise pass for a poor linker. Returns the number of such mentions.
+ */
+export function warnUnknownGold(
+  kb: Kb,
+  gold: readonly LabeledMention[],
+  file: string,
+  warn: (message: string) => void = stderrWarning,
+): number {
+  const unknown = gold.filter((m) => m.gold !== null && kb.eidOf(m.gold) === undefined);
+  if (unknown.length > 0) {
+    const shown = unknown
+      .slice(0, UNKNOWN_GOLD_SHOWN)
+      .map((m) => `"${m.gold}" on line ${m.source?.line ?? "?"}`)
+      .join(", ");
+    warn(
+      `${file}: ${unknown.length} of ${gold.length} gold ids are not in the KB (${shown}${unknown.length > UNKNOWN_GOLD_SHOWN ? ", ..." : ""}): ` +
+        "those mentions cannot be linked right; was the labeled set made against another table?",
+    );
+  }
+  return unknown.length;
 }
 
 async function readLinkRows(file: string): Promise<LinkRow[]> {
@@ -97,6 +130,7 @@ export async function evaluate(options: EvalOptions): Promise<EvalReport | Align
   }
   const kb = openKb(options.kb);
   try {
+    warnUnknownGold(kb, gold, options.gold);
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const pairs = [];
     let i = 0;

@@ -7,7 +7,7 @@ import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
 import { writeFileAtomic } from "../util/atomic-file.js";
 import { UsageError } from "../util/errors.js";
-import { readLabeled } from "./evaluate.js";
+import { readLabeled, warnUnknownGold } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
 
 export interface TuneCommandOptions
@@ -55,6 +55,7 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
   const gold = await readLabeled(options.gold, options);
   const kb = openKb(options.kb);
   try {
+    warnUnknownGold(kb, gold, options.gold);
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const data = scoredMentionsFor(linker, gold);
     const objective: Objective = options.minPrecision !== undefined ? "recall-at-precision" : "f1";
