@@ -71,6 +71,22 @@ describe("hawser index", () => {
     }
   });
 
+  it("exits 2 before any work when --out points into a missing folder or at a folder", () => {
+    const missing = hawser(["index", "gazette.csv", "--out", "no-such-folder/g.kb"], t.dir);
+    expect(missing.status).toBe(2);
+    expect(missing.stderr).toContain("--out no-such-folder/g.kb: the folder no-such-folder does not exist");
+    expect(missing.stderr).not.toContain("internal error");
+    const folder = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "."], t.dir);
+    expect(folder.status).toBe(2);
+    expect(folder.stderr).toContain("--out . is a folder, not a file");
+    const tuneOut = hawser(
+      ["tune", "--kb", kb, "--gold", "mentions.jsonl", "--out", "no-such-folder/c.json"],
+      t.dir,
+    );
+    expect(tuneOut.status).toBe(2); // before the labeled set is read (this file has no gold column)
+    expect(tuneOut.stderr).toContain("the folder no-such-folder does not exist");
+  });
+
   it("exits 2 on a table format it cannot tell, and without --out", () => {
     writeText(t.file("table.txt"), "id,name,type\nL1,Stenmouth,town\n");
     expect(hawser(["index", "table.txt", "--out", "x.kb"], t.dir).status).toBe(2);

@@ -1,6 +1,6 @@
 /** `hawser agree` as a library call: agreement of two labeled files over the same mentions. */
 import { type Agreement, agreement } from "../evaluate/agree.js";
-import { AtomicWriter } from "../util/atomic-file.js";
+import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
 import { readLabeled } from "./evaluate.js";
 
 export interface AgreeOptions {
@@ -17,6 +17,7 @@ export async function agree(options: AgreeOptions): Promise<Agreement> {
   const b = await readLabeled(options.b);
   const result = agreement(a, b, { fileA: options.a, fileB: options.b });
   if (options.out !== undefined) {
+    checkOutputFile(options.out, "--out");
     const w = new AtomicWriter(options.out);
     try {
       for (const d of result.disagreements) await w.write(`${JSON.stringify(d)}\n`);

@@ -3,7 +3,7 @@
  * river-port trade gazette): index the table, link the mentions, measure against the gold set,
  * tune on it, and measure again.
  */
-import { mkdirSync, mkdtempSync, readFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -49,6 +49,8 @@ const pct = (x: number) => `${(100 * x).toFixed(1)}%`;
 
 export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
   const print = options.print ?? ((s: string) => process.stdout.write(`${s}\n`));
+  if (options.out !== undefined && statSync(options.out, { throwIfNoEntry: false })?.isDirectory() === false)
+    throw new UsageError(`--out ${options.out} is a file: the demo writes its files into a folder`);
   const dir = options.out ?? mkdtempSync(join(tmpdir(), "hawser-demo-"));
   mkdirSync(dir, { recursive: true });
   const table = join(SAMPLES_DIR, "gazette-entities.csv");

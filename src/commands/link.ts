@@ -7,7 +7,7 @@ import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/i
 import { warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { CandidatePath, LinkRow } from "../types.js";
-import { AtomicWriter } from "../util/atomic-file.js";
+import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
 import { UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
 
@@ -109,6 +109,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
   const started = Date.now();
   const format = outputFormat(options.out, options.to);
   resolveFormat(options.mentions, readerOptions(options)); // usage errors before any file is opened
+  if (options.out !== undefined) checkOutputFile(options.out, "--out");
   const kb = openKb(options.kb);
   const warnings: string[] = [];
   const warn = options.warn ?? ((m: string) => process.stderr.write(`hawser: warning: ${m}\n`));

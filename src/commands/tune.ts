@@ -5,7 +5,7 @@ import { configFromTune, type TunedConfig, writeConfig } from "../tune/config.js
 import { renderReport } from "../tune/report-html.js";
 import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
-import { writeFileAtomic } from "../util/atomic-file.js";
+import { checkOutputFile, writeFileAtomic } from "../util/atomic-file.js";
 import { UsageError } from "../util/errors.js";
 import { readLabeled, warnUnknownGold } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
@@ -52,6 +52,8 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
   if (options.minPrecision !== undefined && !(options.minPrecision > 0 && options.minPrecision <= 1)) {
     throw new UsageError(`--min-precision must be in (0, 1], got ${options.minPrecision}`);
   }
+  checkOutputFile(options.out, "--out");
+  if (options.report !== undefined) checkOutputFile(options.report, "--report");
   const gold = await readLabeled(options.gold, options);
   const kb = openKb(options.kb);
   try {

@@ -12,6 +12,7 @@ import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
 import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
 import { STDIN } from "../read/lines.js";
+import { checkOutputFile } from "../util/atomic-file.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
@@ -94,6 +95,7 @@ const FTS_DEFAULT_SETTINGS =
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
+  checkOutputFile(options.out, "--out");
   if (options.table !== STDIN && !existsSync(options.table))
     throw new InputError({ file: options.table }, "no such file");
   const labels = options.labels ?? new LabelMap();

@@ -3,9 +3,40 @@
  * A run that fails midway removes the temporary file, so no half-written output is ever left.
  */
 import { randomBytes } from "node:crypto";
-import { createWriteStream, openSync, renameSync, rmSync, type WriteStream, writeFileSync } from "node:fs";
+import {
+  accessSync,
+  constants,
+  createWriteStream,
+  openSync,
+  renameSync,
+  rmSync,
+  statSync,
+  type WriteStream,
+  writeFileSync,
+} from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { once } from "node:events";
+import { UsageError } from "./errors.js";
+
+/**
+ * Checks, before any work, that an output file can be written where asked: its folder exists,
+ * is a folder and is writable, and the file itself is not a folder. Throws a UsageError naming
+ * the option (`what`, e.g. "--out") and the path; otherwise a run would fail at its end, or
+ * with a bare system error.
+ */
+export function checkOutputFile(file: string, what: string): void {
+  const dir = dirname(file);
+  const folder = statSync(dir, { throwIfNoEntry: false });
+  if (folder === undefined) throw new UsageError(`${what} ${file}: the folder ${dir} does not exist`);
+  if (!folder.isDirectory()) throw new UsageError(`${what} ${file}: ${dir} is not a folder`);
+  try {
+    accessSync(dir, constants.W_OK);
+  } catch {
+    throw new UsageError(`${what} ${file}: the folder ${dir} is not writable`);
+  }
+  if (statSync(file, { throwIfNoEntry: false })?.isDirectory())
+    throw new UsageError(`${what} ${file} is a folder, not a file`);
+}
 
 export class AtomicWriter {
   private readonly tmp: string;
