@@ -62,6 +62,10 @@ const KEY_MATCH_REASONS: Record<
     code: "name-abbreviated",
     message: (w, t) => `${w} "${t}" with words written short ("Calif." for "California")`,
   },
+  surname: {
+    code: "name-surname",
+    message: (w, t) => `the surname of ${w} "${t}", alone; no other person's name in the table holds it`,
+  },
   reordered: { code: "name-reordered", message: (w, t) => `the same words as ${w} "${t}", in another order` },
   ocr: { code: "ocr-key", message: (_w, t) => `matches "${t}" once common OCR confusions are folded` },
 };

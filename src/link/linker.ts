@@ -204,6 +204,18 @@ class CandidateWords implements WordEvidence {
     );
   }
 
+  soleBearer(t: string): boolean {
+    if (this.kb.tokenDf(t) > ALONE_MAX_CARRIERS) return false;
+    const words = ftsWords(t);
+    if (words.length !== 1) return false;
+    const hot = this.kb.hot;
+    return !hot.postings.someCarrier(
+      words[0]!,
+      ALONE_MAX_CARRIERS,
+      (eid) => eid !== this.eid && hot.classOf(eid) === "person" && this.kb.names.hasNameWithAll(eid, [t]),
+    );
+  }
+
   carried(t: string): boolean {
     const info = this.termOf(t);
     return info !== null && this.kb.hot.hasTerm(this.eid, info.id);

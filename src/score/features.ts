@@ -44,6 +44,15 @@ export const ONE_SIDED_QUALIFIER_CREDIT = 0.6;
  * open cities and the synthetic 10k / 100k benchmarks unchanged.
  */
 export const CONFLICTING_QUALIFIER_CREDIT = 0;
+/**
+ * exactKey credit of a person's surname given alone ("Lumb", "Mr. Lumb", "Capt. Harland") against
+ * a fuller name of one person, when no other person of the table has a name holding that word:
+ * as strong as a name with a one-sided qualifier, the way a place's unique part counts ("part").
+ * Papers name people by surname once they are known; without this, "Lumb" labeled PER took the
+ * firm "Lumb & Sons" (spelled alike once its "& Sons" is set aside) over the auctioneer James
+ * Thomas Lumb, and a lone surname never reached the threshold.
+ */
+export const SOLE_SURNAME_CREDIT = ONE_SIDED_QUALIFIER_CREDIT;
 
 /**
  * exactKey credit of a mention and an alias whose keys are equal: full credit when their full
@@ -85,7 +94,8 @@ export interface NameMatch {
    * Northern Ireland" for "United Kingdom"), the name with the kind its record gives it ("kind":
    * "Bhola District" for the district Bhola, "Metropolitan City of Bologna"), or the same words in
    * another order ("reordered": "Virgin Islands, British"), or the same words some written
-   * short ("abbreviated": "Calif." for "California", "Harrowm. Wharf").
+   * short ("abbreviated": "Calif." for "California", "Harrowm. Wharf"), or a person's surname
+   * alone, no other person's ("surname": "Lumb" for "James Thomas Lumb").
    */
   keyKind:
     | "exact"
@@ -97,6 +107,7 @@ export interface NameMatch {
     | "kind"
     | "reordered"
     | "abbreviated"
+    | "surname"
     | null;
   /**
    * True when the mention is spelled as one of the entity's names spells it, up to normalization:
@@ -137,6 +148,8 @@ export interface WordEvidence {
    * after: "Old English" beside "English", "Ukrainian Sign Language" beside "Ukrainian".
    */
   separates(words: readonly string[], atStart: boolean): boolean;
+  /** No other person of the table has a name holding the word. */
+  soleBearer(token: string): boolean;
 }
 
 /**
@@ -232,6 +245,17 @@ export function nameMatch(
     if (l > lev) lev = l;
     if (t > tok) tok = t;
     const keyEqual = norm.key === a.key;
+    if (personLike && !keyEqual && exact < SOLE_SURNAME_CREDIT && soleSurname(norm, a, words)) {
+      // "Lumb" for "James Thomas Lumb", the table's only person of that name.
+      jw = 1;
+      lev = 1;
+      tok = 1;
+      bestAlias = a;
+      wordsAlike = true;
+      exact = SOLE_SURNAME_CREDIT;
+      keyKind = "surname";
+      continue;
+    }
     const coreEqual = !keyEqual && cores && sameTokens(mentionSplit!.core, aliasSplit!.core);
     const shortForm =
       keyEqual || coreEqual || personLike || exact >= ONE_SIDED_QUALIFIER_CREDIT
@@ -477,6 +501,21 @@ function withKindWords(mention: readonly string[], alias: readonly string[], wor
     mention[extra - 1] === "of" &&
     isSuffix(alias, mention) &&
     mention.slice(0, extra - 1).every(isKind)
+  );
+}
+
+/**
+ * True when a person's mention is a surname alone (one word, MIN_ATTESTED_WORD_LENGTH letters or
+ * more, no initial) that ends the alias, a name of two words or more, and no other person of the
+ * table has a name holding it (see SOLE_SURNAME_CREDIT).
+ */
+function soleSurname(norm: NormalizedName, alias: AliasRow, words: WordEvidence | null): boolean {
+  if (words === null || norm.tokens.length !== 1 || alias.tokens.length < 2) return false;
+  const surname = norm.tokens[0]!;
+  return (
+    surname.length >= MIN_ATTESTED_WORD_LENGTH &&
+    alias.tokens[alias.tokens.length - 1] === surname &&
+    words.soleBearer(surname)
   );
 }
 
