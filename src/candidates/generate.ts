@@ -188,6 +188,13 @@ export interface MentionForm {
    * only for classes at least SUB_KEY_MIN_COMPAT compatible. Default 1.
    */
   compat?: number;
+  /**
+   * Set on the reading of a mention without its closing possessive ("Harrowmouth" for
+   * "Harrowmouth's", see withoutPossessive): a key match of it earns at most
+   * ONE_SIDED_QUALIFIER_CREDIT, so a name that carries the possessive itself ("St. John's")
+   * outranks one that does not ("Saint John"). Default false.
+   */
+  possessiveDropped?: boolean;
 }
 
 /**

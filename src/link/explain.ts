@@ -81,7 +81,14 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `normalized text equals ${aliasWord} "${alias.text}"`,
       alias: alias.text,
     });
-    if (c.features.exactKey < 1) {
+    if (c.name_.possessiveDropped === true) {
+      out.push({
+        code: "possessive-dropped",
+        message:
+          "matched once the mention's closing possessive (\"'s\") is set aside, so the key counts less",
+        exactKey: r3(c.features.exactKey),
+      });
+    } else if (c.features.exactKey < 1) {
       out.push({
         code: "qualifier-differs",
         message: "same name, but one side lacks the other's legal form or place designator",

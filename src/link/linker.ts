@@ -19,12 +19,13 @@ import { ftsWords } from "../kb/postings.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import { PLACE_KIND_WORDS } from "../normalize/lexicon.js";
-import { normalizeName, splitTradeName } from "../normalize/name.js";
+import { normalizeName, splitTradeName, withoutPossessive } from "../normalize/name.js";
 import { combine, DEFAULT_WEIGHTS } from "../score/combine.js";
 import {
   features,
   type NameMatch,
   nameMatch,
+  ONE_SIDED_QUALIFIER_CREDIT,
   prominenceOf,
   priorFeatureFor,
   type WordEvidence,
@@ -385,13 +386,17 @@ export class Linker {
     const surface = this.surfaces.get(key, () => {
       const forms: MentionForm[] = [];
       if (info.linkable) {
-        // A mention given with another name ("X d/b/a Y") is compared under both (see scoreOne).
-        const other = splitTradeName(text)?.alsoNamed;
+        // A mention given with another name ("X d/b/a Y"), or closed by a possessive ("Lumb's"),
+        // is compared under both readings (see scoreOne).
+        const alsoNamed = splitTradeName(text)?.alsoNamed;
+        const bare = withoutPossessive(text);
         for (const cls of ENTITY_CLASSES) {
           const compat = info.compat[cls];
           if (compat < this.blockMinCompat) continue;
           forms.push({ cls, norm: normalizeName(text, cls), compat });
-          if (other !== undefined) forms.push({ cls, norm: normalizeName(other, cls), compat });
+          if (alsoNamed !== undefined) forms.push({ cls, norm: normalizeName(alsoNamed, cls), compat });
+          if (bare !== null)
+            forms.push({ cls, norm: normalizeName(bare, cls), compat, possessiveDropped: true });
         }
       }
       return forms;
@@ -414,8 +419,8 @@ export class Linker {
 
   private scoreOne(p: Prepared, e: EntityRow, cls: EntityClass, paths: Set<CandidatePath>): ScoredCandidate {
     let best: ScoredCandidate | null = null;
-    // Most mentions have one form per class; one given with another name has two, and the
-    // better comparison counts.
+    // Most mentions have one form per class; one given with another name, or closed by a
+    // possessive, has two, and the better comparison counts.
     for (const form of p.forms) {
       if (form.cls !== cls) continue;
       const scored = this.scoreForm(p, form, e, paths);
@@ -433,7 +438,15 @@ export class Linker {
     const words = this.candidateWords;
     words.p = p;
     words.eid = e.eid;
-    const name = nameMatch(form.norm, e, this.genericWords, words);
+    const matched = nameMatch(form.norm, e, this.genericWords, words);
+    const name =
+      form.possessiveDropped === true
+        ? {
+            ...matched,
+            exactKey: Math.min(matched.exactKey, ONE_SIDED_QUALIFIER_CREDIT),
+            possessiveDropped: true,
+          }
+        : matched;
     const context = p.context === null ? 0 : this.kb.hot.contextCosine(p.context, e.eid);
     const f = features(
       name,

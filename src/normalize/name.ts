@@ -24,7 +24,7 @@ import {
 import { ocrFold } from "./ocr.js";
 
 /** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
-export const NORMALIZER_VERSION = "4";
+export const NORMALIZER_VERSION = "5";
 
 export interface NormalizedName {
   /** Every folded token of the input, nothing removed. */
@@ -115,6 +115,31 @@ const PARENTHESIZED = /[([{][^()[\]{}]*[)\]}]/g;
 const MAX_ASIDE_NESTING = 3;
 /** Leading articles carry no identity: "The Gambia" is "Gambia", "The Pell Line" is "Pell Line". */
 const LEADING_ARTICLES: ReadonlySet<string> = new Set(["the"]);
+/**
+ * Courtesy titles written before a firm's name in running text and directories ("Messrs. Lumb &
+ * Sons", "Messrs. Blamire Bros., Ltd."): not part of the name, dropped for organizations as
+ * honorifics are for persons (common practice of English commercial writing of the period).
+ */
+const FIRM_COURTESY_TITLES: ReadonlySet<string> = new Set(["messrs", "mssrs", "messieurs"]);
+
+/**
+ * A possessive closing the text ("Lumb's", "Harrowmouth’s"): a straight, curly or back quote and
+ * "s" after two letters or more, at the end.
+ */
+const CLOSING_POSSESSIVE = /(?<=\p{L}{2})['’`]s$/u;
+
+/**
+ * The text without the possessive that closes it ("Lumb's" -> "Lumb", "the Stenning Grain
+ * Exchange's" -> "the Stenning Grain Exchange"), or null when it has none. Running text puts the
+ * possessive on names ("Lumb's salerooms") and a recognizer's span may keep it, while a table
+ * keeps the names that carry one as they are written ("St. Aldric's"): the linker compares such
+ * a mention both ways, so neither reading is lost.
+ */
+export function withoutPossessive(text: string): string | null {
+  const trimmed = text.trimEnd();
+  const stripped = trimmed.replace(CLOSING_POSSESSIVE, "");
+  return stripped === trimmed ? null : stripped;
+}
 
 /** A closing aside: the last bracketed group of a name, with nothing after it. */
 const CLOSING_ASIDE = /[([{]([^()[\]{}]*)[)\]}]\s*$/;
@@ -448,7 +473,8 @@ export function trailingDesignatorStart(tokens: readonly string[]): number {
  * Normalize a raw name for the given class.
  * - person: "Last, First" reordered, leading honorifics removed, generational suffix split off,
  *   clerks' given-name abbreviations expanded (Jno. -> john);
- * - organization: legal forms removed from the key (kept canonical in `full`), place abbreviations expanded;
+ * - organization: a leading courtesy title ("Messrs.") dropped, legal forms removed from the key
+ *   (kept canonical in `full`), place abbreviations expanded;
  * - location: place abbreviations expanded (St. -> saint, Ft. -> fort, Pt. -> port, Mt. -> mount),
  *   a leading designator ("Republic of", "City of the") removed from the key (kept in `full`);
  * - other: vessel prefixes (S.S., P.S., H.M.S....) removed from the key.
@@ -464,7 +490,11 @@ export function normalizeName(name: string, cls: EntityClass): NormalizedName {
   const text = cls === "person" ? reorderLastFirst(bare) : reorderInverted(bare);
   const all = foldTokens(text);
   let lead = 0;
-  while (lead < all.length - 1 && LEADING_ARTICLES.has(all[lead]!)) lead++;
+  while (
+    lead < all.length - 1 &&
+    (LEADING_ARTICLES.has(all[lead]!) || (cls === "organization" && FIRM_COURTESY_TITLES.has(all[lead]!)))
+  )
+    lead++;
   const unread = (lead > 0 ? all.slice(lead) : all).map(fixOcrDigits);
   const folded = cls === "person" ? unread : joinLetterRuns(unread);
   let s: Stripped;

@@ -123,6 +123,11 @@ export interface NameMatch {
    * covering the mention. Null when no name was refused so.
    */
   apartWords: string[] | null;
+  /**
+   * True when the match is of the mention read without its closing possessive ("Lumb" for
+   * "Lumb's"; see MentionForm.possessiveDropped), its key credit capped. Absent otherwise.
+   */
+  possessiveDropped?: boolean;
 }
 
 /**
