@@ -57,6 +57,18 @@ describe("normalizeName: persons", () => {
     expect(normalizeName("Ærnst Strøm", "person").key).toBe("aernst strom");
   });
 
+  it("drops post-nominal letters written with their dots, or in capitals after a comma", () => {
+    expect(normalizeName("Capt. W. Harland, R.N.", "person").key).toBe("w harland");
+    expect(normalizeName("Thos. Pell, J.P., M.P.", "person").key).toBe("thomas pell");
+    expect(normalizeName("Thos. Pell, Esq., J.P.", "person").key).toBe("thomas pell");
+    expect(normalizeName("Sir J. Kell, Bart.", "person").key).toBe("j kell");
+    expect(normalizeName("Harland, RN", "person").key).toBe("harland"); // not "Rn Harland"
+    // A surname that spells post-nominal letters stays: no dots, no comma, or all in capitals.
+    expect(normalizeName("John Ma", "person").key).toBe("john ma");
+    expect(normalizeName("JOHN MA", "person").key).toBe("john ma");
+    expect(normalizeName("R.N.", "person").key).toBe("r n"); // nothing name-like would be left
+  });
+
   it("builds an initials key from the first initial and the surname", () => {
     expect(normalizeName("Josiah Hale Aldous", "person").initialsKey).toBe("j aldous");
     expect(normalizeName("J. H. Aldous", "person").initialsKey).toBe("j aldous");

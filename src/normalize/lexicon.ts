@@ -69,6 +69,65 @@ export const HONORIFICS: ReadonlySet<string> = new Set([
   "the",
 ]);
 
+/**
+ * Letters written after a person's name for a service, office, honour or degree ("Capt. W.
+ * Harland, R.N.", "Thos. Pell, J.P.", "E. Moorhouse, M.D.", "Sir J. Kell, Bart."), folded without
+ * their dots: not part of the name. Common practice of period directories, gazettes and lists;
+ * the list from memory.
+ */
+export const POST_NOMINALS: ReadonlySet<string> = new Set([
+  // services
+  "rn",
+  "rnr",
+  "rm",
+  "ra",
+  "re",
+  // offices
+  "mp",
+  "jp",
+  "dl",
+  "kc",
+  "qc",
+  "ws",
+  // honours and ranks of the peerage and orders
+  "bart",
+  "bt",
+  "kg",
+  "kt",
+  "vc",
+  "cb",
+  "kcb",
+  "gcb",
+  "cmg",
+  "kcmg",
+  "cbe",
+  "obe",
+  "mbe",
+  "dso",
+  "mc",
+  // degrees and professional bodies
+  "ba",
+  "ma",
+  "bsc",
+  "msc",
+  "dsc",
+  "phd",
+  "lld",
+  "dd",
+  "md",
+  "mb",
+  "frs",
+  "fsa",
+  "frcs",
+  "mrcs",
+  "lrcp",
+  "mrcp",
+  "mice",
+  "riba",
+  "fras",
+  "frgs",
+]);
+
 /** Generational suffixes: removed from the matching key, kept as a separate field. */
 export const GENERATIONAL: Readonly<Record<string, string>> = {
   jr: "jr",

@@ -17,6 +17,7 @@ import {
   PLACE_ABBREVIATIONS,
   PLACE_DESIGNATOR_HEADS,
   PLACE_DESIGNATOR_MODIFIERS,
+  POST_NOMINALS,
   TRAILING_DESIGNATOR_HEADS,
   TRAILING_DESIGNATOR_MODIFIERS,
   VESSEL_PREFIXES,
@@ -191,6 +192,31 @@ const BRACKETED_INVERSION = /^(.*\S)\s*\(([^()]*\bof(?:\s+the)?)\s*\)\s*$/i;
 function reorderBracketed(raw: string): string {
   const m = BRACKETED_INVERSION.exec(raw);
   return m === null ? raw : `${m[2]!.trim()} ${m[1]!}`;
+}
+
+/** The last word of a text and what goes before it, the separating comma or spaces excluded. */
+const LAST_WORD = /^(.*?)(,\s*|\s+)([\p{L}.]+)\s*$/su;
+
+/**
+ * A person's name without the post-nominal letters that close it ("Capt. W. Harland, R.N." ->
+ * "Capt. W. Harland", "Thos. Pell, J.P., M.P." -> "Thos. Pell"): a word of POST_NOMINALS written
+ * with its dots ("R.N.", "Bart."), or in capitals after a comma in a text that is not all
+ * capitals ("Harland, RN"), so that "John Ma" and "JOHN MA" keep their surname. Something
+ * name-like (two letters) always stays.
+ */
+export function dropPostNominals(raw: string): string {
+  let text = raw.trimEnd();
+  const allCaps = text === text.toUpperCase();
+  for (;;) {
+    const m = LAST_WORD.exec(text);
+    if (m === null) return text;
+    const [, rest, separator, word] = m as unknown as [string, string, string, string];
+    const dotted = word.includes(".");
+    const capitals = separator.startsWith(",") && !allCaps && word === word.toUpperCase();
+    if (!(dotted || capitals) || !POST_NOMINALS.has(word.replace(/\./g, "").toLowerCase())) return text;
+    if (!/\p{L}{2}/u.test(rest)) return text;
+    text = rest.trimEnd();
+  }
 }
 
 /** "Aldous, J. H." -> "J. H. Aldous" when the text is one comma between two non-empty parts. */
@@ -487,7 +513,7 @@ export function normalizeName(name: string, cls: EntityClass): NormalizedName {
   const reordered = cls === "person" ? raw : reorderBracketed(raw);
   const aside = cls === "person" ? [] : closingAsideWords(reordered);
   const bare = dropParenthesized(reordered);
-  const text = cls === "person" ? reorderLastFirst(bare) : reorderInverted(bare);
+  const text = cls === "person" ? reorderLastFirst(dropPostNominals(bare)) : reorderInverted(bare);
   const all = foldTokens(text);
   let lead = 0;
   while (
