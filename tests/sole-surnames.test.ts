@@ -3,7 +3,7 @@
  * name, as a place's unique part names its place (reason `name-surname`); never when another
  * person's name holds the word, nor for a word that is no surname, nor for short words.
  * An invented table: the auctioneer James Thomas Lumb and the millers Lumb & Sons; two men called
- * Pell; a clerk with a two-letter surname.
+ * Pell; a clerk with a two-letter surname; a woman ship owner.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openTableKb, type TableKb } from "./helpers/table-kb.js";
@@ -20,6 +20,7 @@ beforeAll(async () => {
       "P3,Ezra Pell,person,,carter,2",
       "P4,Walter Ng,person,,clerk to the harbour board,3",
       "P5,Herbert Feather,person,,surgeon at Stenmouth,18",
+      "P6,Mary Tattersall,person,,ship owner of Stenmouth,7",
     ].join("\n"),
     "hawser-surnames-",
   );
@@ -38,6 +39,26 @@ describe("a surname alone", () => {
       expect(codes(text, "PER")).toContain("name-surname");
     }
     expect(link("Feather", "PER").entity).toBe("P5");
+  });
+
+  it("gets no credit when the honorific says one sex and the given name the other", () => {
+    expect(link("Miss Tattersall", "PER").entity).toBe("P6");
+    expect(link("Mrs. Tattersall", "PER").entity).toBe("P6");
+    // The auctioneer's wife, or the surgeon's, is not the man himself.
+    for (const [text, eid] of [
+      ["Mrs. Lumb", "P1"],
+      ["Mrs. Feather", "P5"],
+      ["Mr. Tattersall", "P6"],
+    ] as const) {
+      const r = link(text, "PER");
+      expect(
+        r.reasons.map((x) => x.code),
+        text,
+      ).not.toContain("name-surname");
+      expect(r.candidates.find((c) => c.entity === eid)?.features.exactKey ?? 0, text).toBe(0);
+    }
+    expect(link("Mrs. Lumb", "PER").entity).toBeNull();
+    expect(link("Mrs. Feather", "PER").entity).toBeNull();
   });
 
   it("leaves the firm to an organization's mention of the same word", () => {

@@ -128,6 +128,51 @@ export const POST_NOMINALS: ReadonlySet<string> = new Set([
   "frgs",
 ]);
 
+/** Honorifics that say the person named is a woman ("Mrs. Lumb", "Miss Tattersall", "Widow Kell"). */
+export const FEMALE_HONORIFICS: ReadonlySet<string> = new Set([
+  "mrs",
+  "miss",
+  "ms",
+  "madam",
+  "mme",
+  "mlle",
+  "dame",
+  "lady",
+  "widow",
+]);
+
+/** Honorifics that say the person named is a man ("Mr. Lumb", "Sir J. Kell"). */
+export const MALE_HONORIFICS: ReadonlySet<string> = new Set(["mr", "sir", "lord", "master"]);
+
+/**
+ * Common English given names of men and of women in records of 1800-1930, folded, the clerks'
+ * short forms expanded (see GIVEN_NAME_ABBREVIATIONS): enough to tell that "Mrs. Lumb" is not
+ * James Thomas Lumb but may be Ada Lumb. Names given to both (Frances/Francis aside, "Sidney",
+ * "Cecil", "Leslie") are in neither list. From memory; common practice of record linkage of
+ * the period, which compares sexes where the records give them.
+ */
+export const MALE_GIVEN_NAMES: ReadonlySet<string> = new Set(
+  (
+    "john william thomas james george charles joseph henry robert edward samuel richard frederick " +
+    "arthur alfred walter albert harry francis ernest herbert david daniel benjamin isaac peter " +
+    "matthew michael stephen edwin frank fred tom jack jacob josiah ezra tobias abraham enoch jonas " +
+    "amos hugh ralph roger philip lewis louis alexander andrew patrick christopher nathaniel elijah " +
+    "edmund harold percy horace leonard reginald wilfred willie jim ben sam dick bill ned ted nathan " +
+    "simon oliver jonathan timothy anthony mark luke paul silas seth eli caleb moses aaron adam owen " +
+    "evan ebenezer jabez jeremiah zachariah job noah levi reuben joshua gilbert bernard victor"
+  ).split(" "),
+);
+export const FEMALE_GIVEN_NAMES: ReadonlySet<string> = new Set(
+  (
+    "mary elizabeth sarah ann anne annie jane margaret ellen emma alice martha hannah eliza emily " +
+    "ada edith florence agnes catherine kate susan harriet charlotte lucy ruth rose clara louisa " +
+    "fanny frances isabella maria esther rachel rebecca dorothy grace ethel lilian lily maud mabel " +
+    "gertrude amelia caroline matilda julia helen betsy nancy jessie janet bridget phoebe hester " +
+    "priscilla louise minnie nellie winifred beatrice violet ivy elsie doris sophia jemima keziah " +
+    "mercy patience prudence lydia marian marion alma bertha ida olive"
+  ).split(" "),
+);
+
 /** Generational suffixes: removed from the matching key, kept as a separate field. */
 export const GENERATIONAL: Readonly<Record<string, string>> = {
   jr: "jr",

@@ -3,7 +3,15 @@
  * in types.ts for what each measures. Name features are the best over the entity's aliases.
  */
 import type { AliasRow, EntityRow } from "../kb/kb.js";
-import { COMPASS_INITIALS, CONTRASTING_WORDS, LEGAL_FORMS } from "../normalize/lexicon.js";
+import {
+  COMPASS_INITIALS,
+  CONTRASTING_WORDS,
+  FEMALE_GIVEN_NAMES,
+  FEMALE_HONORIFICS,
+  LEGAL_FORMS,
+  MALE_GIVEN_NAMES,
+  MALE_HONORIFICS,
+} from "../normalize/lexicon.js";
 import { abbreviates, acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
@@ -50,7 +58,8 @@ export const CONFLICTING_QUALIFIER_CREDIT = 0;
  * as strong as a name with a one-sided qualifier, the way a place's unique part counts ("part").
  * Papers name people by surname once they are known; without this, "Lumb" labeled PER took the
  * firm "Lumb & Sons" (spelled alike once its "& Sons" is set aside) over the auctioneer James
- * Thomas Lumb, and a lone surname never reached the threshold.
+ * Thomas Lumb, and a lone surname never reached the threshold. Not when the mention's honorific
+ * says one sex and the person's given name the other ("Mrs. Lumb" is not James Thomas Lumb).
  */
 export const SOLE_SURNAME_CREDIT = ONE_SIDED_QUALIFIER_CREDIT;
 
@@ -250,7 +259,7 @@ export function nameMatch(
     if (l > lev) lev = l;
     if (t > tok) tok = t;
     const keyEqual = norm.key === a.key;
-    if (personLike && !keyEqual && exact < SOLE_SURNAME_CREDIT && soleSurname(norm, a, words)) {
+    if (personLike && !keyEqual && exact < SOLE_SURNAME_CREDIT && soleSurname(norm, a, entity, words)) {
       // "Lumb" for "James Thomas Lumb", the table's only person of that name.
       jw = 1;
       lev = 1;
@@ -514,14 +523,37 @@ function withKindWords(mention: readonly string[], alias: readonly string[], wor
  * more, no initial) that ends the alias, a name of two words or more, and no other person of the
  * table has a name holding it (see SOLE_SURNAME_CREDIT).
  */
-function soleSurname(norm: NormalizedName, alias: AliasRow, words: WordEvidence | null): boolean {
+function soleSurname(
+  norm: NormalizedName,
+  alias: AliasRow,
+  entity: EntityRow,
+  words: WordEvidence | null,
+): boolean {
   if (words === null || norm.tokens.length !== 1 || alias.tokens.length < 2) return false;
   const surname = norm.tokens[0]!;
   return (
     surname.length >= MIN_ATTESTED_WORD_LENGTH &&
     alias.tokens[alias.tokens.length - 1] === surname &&
+    !sexesDiffer(norm, entity) &&
     words.soleBearer(surname)
   );
+}
+
+/**
+ * True when the mention's honorific says one sex and the entity's given name the other: "Mrs.
+ * Lumb" is not James Thomas Lumb (but may be his wife), "Mr. Tattersall" not Mary Tattersall.
+ * The given names are the first words of the entity's names (FEMALE_GIVEN_NAMES,
+ * MALE_GIVEN_NAMES); an initial or an unknown name says nothing.
+ */
+function sexesDiffer(norm: NormalizedName, entity: EntityRow): boolean {
+  let said: "female" | "male" | null = null;
+  for (const t of norm.folded) {
+    if (FEMALE_HONORIFICS.has(t)) said = "female";
+    else if (MALE_HONORIFICS.has(t)) said = "male";
+  }
+  if (said === null) return false;
+  const other = said === "female" ? MALE_GIVEN_NAMES : FEMALE_GIVEN_NAMES;
+  return entity.aliases.some((a) => a.tokens.length >= 2 && other.has(a.tokens[0]!));
 }
 
 /**
