@@ -41,7 +41,7 @@ describe("a surname alone", () => {
     expect(link("Feather", "PER").entity).toBe("P5");
   });
 
-  it("gets no credit when the honorific says one sex and the given name the other", () => {
+  it("gets no credit, nor any name evidence, when the honorific says one sex and the given name the other", () => {
     expect(link("Miss Tattersall", "PER").entity).toBe("P6");
     expect(link("Mrs. Tattersall", "PER").entity).toBe("P6");
     // The auctioneer's wife, or the surgeon's, is not the man himself.
@@ -57,8 +57,19 @@ describe("a surname alone", () => {
       ).not.toContain("name-surname");
       expect(r.candidates.find((c) => c.entity === eid)?.features.exactKey ?? 0, text).toBe(0);
     }
-    expect(link("Mrs. Lumb", "PER").entity).toBeNull();
-    expect(link("Mrs. Feather", "PER").entity).toBeNull();
+    expect(link("Mrs. Lumb", "PER").entity).toBeNull(); // nor the firm: a PER mention, "& Sons" aside
+    for (const text of ["Mrs. Feather", "Mr. Tattersall"]) {
+      const r = link(text, "PER");
+      expect(r.entity, text).toBeNull();
+      expect(
+        r.reasons.map((x) => x.code),
+        text,
+      ).toContain("sex-differs");
+    }
+    // A wife named by her husband's full name is not the husband.
+    expect(link("Josiah Pell", "PER").entity).toBe("P2");
+    expect(link("Mrs. Josiah Pell", "PER").entity).toBeNull();
+    expect(link("Widow Pell", "PER").candidates.every((c) => c.features.tokenSet === 0)).toBe(true);
   });
 
   it("leaves the firm to an organization's mention of the same word", () => {

@@ -75,6 +75,12 @@ export function evidenceReasons(c: Explained): Reason[] {
   const out: Reason[] = [];
   const alias = c.name_.bestAlias;
   const aliasWord = alias.canonical ? "the name" : "an alias";
+  if (c.name_.sexDiffers === true) {
+    out.push({
+      code: "sex-differs",
+      message: `the mention's honorific and the given name of "${c.name}" say different sexes: no name evidence`,
+    });
+  }
   if (c.name_.keyKind === "exact") {
     out.push({
       code: alias.canonical ? "name-exact" : "alias-exact",

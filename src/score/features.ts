@@ -58,8 +58,8 @@ export const CONFLICTING_QUALIFIER_CREDIT = 0;
  * as strong as a name with a one-sided qualifier, the way a place's unique part counts ("part").
  * Papers name people by surname once they are known; without this, "Lumb" labeled PER took the
  * firm "Lumb & Sons" (spelled alike once its "& Sons" is set aside) over the auctioneer James
- * Thomas Lumb, and a lone surname never reached the threshold. Not when the mention's honorific
- * says one sex and the person's given name the other ("Mrs. Lumb" is not James Thomas Lumb).
+ * Thomas Lumb, and a lone surname never reached the threshold. ("Mrs. Lumb" is not James Thomas
+ * Lumb: a mention whose honorific says the other sex gets no name evidence, see sexesDiffer.)
  */
 export const SOLE_SURNAME_CREDIT = ONE_SIDED_QUALIFIER_CREDIT;
 
@@ -137,6 +137,12 @@ export interface NameMatch {
    * "Lumb's"; see MentionForm.possessiveDropped), its key credit capped. Absent otherwise.
    */
   possessiveDropped?: boolean;
+  /**
+   * True when the mention's honorific says one sex and the person's given name the other ("Mrs.
+   * John Pell" against John Pell; see sexesDiffer): the name then gives no evidence at all.
+   * Absent otherwise.
+   */
+  sexDiffers?: boolean;
 }
 
 /**
@@ -179,6 +185,23 @@ export function nameMatch(
   generic: ReadonlySet<string> = NO_GENERIC_WORDS,
   words: WordEvidence | null = null,
 ): NameMatch {
+  const personLike = entity.cls === "person";
+  // "Mrs. John Pell" is John Pell's wife, not John Pell: no name evidence for the man.
+  if (personLike && sexesDiffer(norm, entity)) {
+    return {
+      jaroWinkler: 0,
+      levenshtein: 0,
+      tokenSet: 0,
+      abbreviation: 0,
+      exactKey: 0,
+      bestAlias: entity.aliases[0]!,
+      abbreviationKind: null,
+      keyKind: null,
+      spelledAlike: false,
+      apartWords: null,
+      sexDiffers: true,
+    };
+  }
   let jw = 0;
   let lev = 0;
   let tok = 0;
@@ -189,7 +212,6 @@ export function nameMatch(
   let keyKind: NameMatch["keyKind"] = null;
   let wordsAlike = false;
   let apartWords: string[] | null = null;
-  const personLike = entity.cls === "person";
   const mentionQualifier = qualifierOf(norm);
   const mentionSplit = !personLike && generic.size > 0 ? splitGeneric(norm.tokens, generic) : null;
   const aliases = entity.aliases;
@@ -259,7 +281,7 @@ export function nameMatch(
     if (l > lev) lev = l;
     if (t > tok) tok = t;
     const keyEqual = norm.key === a.key;
-    if (personLike && !keyEqual && exact < SOLE_SURNAME_CREDIT && soleSurname(norm, a, entity, words)) {
+    if (personLike && !keyEqual && exact < SOLE_SURNAME_CREDIT && soleSurname(norm, a, words)) {
       // "Lumb" for "James Thomas Lumb", the table's only person of that name.
       jw = 1;
       lev = 1;
@@ -523,25 +545,22 @@ function withKindWords(mention: readonly string[], alias: readonly string[], wor
  * more, no initial) that ends the alias, a name of two words or more, and no other person of the
  * table has a name holding it (see SOLE_SURNAME_CREDIT).
  */
-function soleSurname(
-  norm: NormalizedName,
-  alias: AliasRow,
-  entity: EntityRow,
-  words: WordEvidence | null,
-): boolean {
+function soleSurname(norm: NormalizedName, alias: AliasRow, words: WordEvidence | null): boolean {
   if (words === null || norm.tokens.length !== 1 || alias.tokens.length < 2) return false;
   const surname = norm.tokens[0]!;
   return (
     surname.length >= MIN_ATTESTED_WORD_LENGTH &&
     alias.tokens[alias.tokens.length - 1] === surname &&
-    !sexesDiffer(norm, entity) &&
     words.soleBearer(surname)
   );
 }
 
 /**
  * True when the mention's honorific says one sex and the entity's given name the other: "Mrs.
- * Lumb" is not James Thomas Lumb (but may be his wife), "Mr. Tattersall" not Mary Tattersall.
+ * Lumb" is not James Thomas Lumb (but may be his wife), "Mrs. John Pell" is John Pell's wife,
+ * "Mr. Tattersall" is not Mary Tattersall. Record linkage of the period compares sexes where
+ * the records give them (common practice); a wrong join of a wife to her husband's record is
+ * the kind of harm the README warns of.
  * The given names are the first words of the entity's names (FEMALE_GIVEN_NAMES,
  * MALE_GIVEN_NAMES); an initial or an unknown name says nothing.
  */
