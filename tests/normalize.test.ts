@@ -4,7 +4,7 @@
  */
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { foldLabel, LabelMap, readLabelMapFile } from "../src/labels/label-map.js";
-import { normalizeName, readAcronym } from "../src/normalize/name.js";
+import { joinLineBreaks, normalizeName, readAcronym } from "../src/normalize/name.js";
 import { ocrFold } from "../src/normalize/ocr.js";
 import { throwsInput } from "./helpers/errors.js";
 import { tempDir, writeText } from "./helpers/gazette.js";
@@ -181,6 +181,18 @@ describe("normalizeName: organizations and places", () => {
   it("leaves place abbreviations alone for persons", () => {
     // "St." in a person's name is not a place ("Josiah St. Aldous" keeps "st").
     expect(normalizeName("Josiah St. Aldous", "person").tokens).toContain("st");
+  });
+});
+
+describe("words broken at a line end", () => {
+  it("are joined again when a hyphen and white space part a word that goes on in lower case", () => {
+    expect(joinLineBreaks("Walter Har- land")).toBe("Walter Harland");
+    expect(joinLineBreaks("Sten-\nning Grain Exchange")).toBe("Stenning Grain Exchange");
+    expect(normalizeName("Harrow-  mouth", "location").key).toBe("harrowmouth");
+    // Hyphens between words stay separators; a compound broken at its own hyphen goes on in capitals.
+    expect(joinLineBreaks("Stenby-on-Wend")).toBe("Stenby-on-Wend");
+    expect(joinLineBreaks("Stenby-on- Wend")).toBe("Stenby-on- Wend");
+    expect(normalizeName("Stenby-on- Wend", "location").key).toBe("stenby on wend");
   });
 });
 

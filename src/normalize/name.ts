@@ -124,6 +124,19 @@ const LEADING_ARTICLES: ReadonlySet<string> = new Set(["the"]);
 const FIRM_COURTESY_TITLES: ReadonlySet<string> = new Set(["messrs", "mssrs", "messieurs"]);
 
 /**
+ * A word broken at the end of a printed line and joined again by the OCR with its hyphen and the
+ * line break, or a space, left in: a letter, a hyphen, white space, a lower-case letter ("Har-
+ * land", "Sten-\nning"). A hyphen between words ("Stenby-on-Wend") has no space after it, and a
+ * compound broken at its own hyphen goes on with a capital ("Stenby-on- Wend").
+ */
+const LINE_BREAK_HYPHEN = /(?<=\p{L})-\s+(?=\p{Ll})/gu;
+
+/** The text with words broken at line ends joined again (see LINE_BREAK_HYPHEN). */
+export function joinLineBreaks(text: string): string {
+  return text.includes("-") ? text.replace(LINE_BREAK_HYPHEN, "") : text;
+}
+
+/**
  * A possessive closing the text ("Lumb's", "Harrowmouth’s"): a straight, curly or back quote and
  * "s" after two letters or more, at the end.
  */
@@ -504,12 +517,12 @@ export function trailingDesignatorStart(tokens: readonly string[]): number {
  * - location: place abbreviations expanded (St. -> saint, Ft. -> fort, Pt. -> port, Mt. -> mount),
  *   a leading designator ("Republic of", "City of the") removed from the key (kept in `full`);
  * - other: vessel prefixes (S.S., P.S., H.M.S....) removed from the key.
- * Every class: digits inside words are read as the letters OCR mistakes them for ("A1dous" ->
- * "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
+ * Every class: words broken at a line end joined again ("Har- land"); digits inside words are
+ * read as the letters OCR mistakes them for ("A1dous" -> "aldous"); outside persons, runs of single letters are joined ("S. G. E." -> "sge").
  */
 export function normalizeName(name: string, cls: EntityClass): NormalizedName {
   // "X d/b/a Y" is normalized as X; Y is the name's other name (see splitTradeName).
-  const raw = splitTradeName(name)?.name ?? name;
+  const raw = joinLineBreaks(splitTradeName(name)?.name ?? name);
   const reordered = cls === "person" ? raw : reorderBracketed(raw);
   const aside = cls === "person" ? [] : closingAsideWords(reordered);
   const bare = dropParenthesized(reordered);
