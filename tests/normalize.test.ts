@@ -69,6 +69,13 @@ describe("normalizeName: persons", () => {
     expect(normalizeName("R.N.", "person").key).toBe("r n"); // nothing name-like would be left
   });
 
+  it("puts initials after a surname first, as lists print names without the comma", () => {
+    expect(normalizeName("Aldous J.H.", "person").key).toBe("j h aldous");
+    expect(normalizeName("Aldous J. H.", "person").initialsKey).toBe("j aldous");
+    expect(normalizeName("Walter H.", "person").key).toBe("walter h"); // a given name first stays
+    expect(normalizeName("Aldous", "person").key).toBe("aldous");
+  });
+
   it("builds an initials key from the first initial and the surname", () => {
     expect(normalizeName("Josiah Hale Aldous", "person").initialsKey).toBe("j aldous");
     expect(normalizeName("J. H. Aldous", "person").initialsKey).toBe("j aldous");

@@ -8,12 +8,14 @@ import { foldTokens } from "./fold.js";
 import {
   ACRONYM_SKIP,
   DESIGNATOR_ABBREVIATIONS,
+  FEMALE_GIVEN_NAMES,
   GENERATIONAL,
   GIVEN_NAME_ABBREVIATIONS,
   HONORIFICS,
   LEADING_LEGAL_FORMS,
   LEGAL_FORM_PHRASES,
   LEGAL_FORMS,
+  MALE_GIVEN_NAMES,
   PLACE_ABBREVIATIONS,
   PLACE_DESIGNATOR_HEADS,
   PLACE_DESIGNATOR_MODIFIERS,
@@ -269,7 +271,20 @@ function stripPerson(tokens: string[]): Stripped {
     if ((t === "esq" || t === "esquire") && core.length > 0) continue;
     core.push(GIVEN_NAME_ABBREVIATIONS[t] ?? t);
   }
-  return { tokens: core.length > 0 ? core : tokens.slice(), suffix, legal: [] };
+  return { tokens: core.length > 0 ? initialsFirst(core) : tokens.slice(), suffix, legal: [] };
+}
+
+/**
+ * A surname followed by initials, as indexes and lists print a name without the comma ("Aldous
+ * J. H." -> "j h aldous"): the initials are put first. Not when the first word is a given name
+ * ("Walter H." stays), nor for a name of one word.
+ */
+function initialsFirst(core: string[]): string[] {
+  if (core.length < 2 || core[0]!.length < 2) return core;
+  for (let i = 1; i < core.length; i++) if (core[i]!.length !== 1) return core;
+  const first = core[0]!;
+  if (MALE_GIVEN_NAMES.has(first) || FEMALE_GIVEN_NAMES.has(first)) return core;
+  return [...core.slice(1), first];
 }
 
 /**
