@@ -81,6 +81,12 @@ export function evidenceReasons(c: Explained): Reason[] {
       message: `the mention's honorific and the given name of "${c.name}" say different sexes: no name evidence`,
     });
   }
+  if (c.name_.givenNameDiffers === true) {
+    out.push({
+      code: "given-name-differs",
+      message: `the mention's given name is none of "${c.name}"'s, nor a spelling or pet form of one: no name evidence`,
+    });
+  }
   if (c.name_.keyKind === "exact") {
     out.push({
       code: alias.canonical ? "name-exact" : "alias-exact",

@@ -11,8 +11,10 @@ import {
   LEGAL_FORMS,
   MALE_GIVEN_NAMES,
   MALE_HONORIFICS,
+  PET_NAMES,
 } from "../normalize/lexicon.js";
 import { abbreviates, acronymOfTokens, type NormalizedName } from "../normalize/name.js";
+import { ocrFold } from "../normalize/ocr.js";
 import type { Features } from "../types.js";
 import { foldEmbeddedAcronyms, sameWordsWithEmbeddedAcronyms } from "./embedded-acronyms.js";
 import { genericWordFor, NO_GENERIC_WORDS } from "./table-words.js";
@@ -143,6 +145,12 @@ export interface NameMatch {
    * Absent otherwise.
    */
   sexDiffers?: boolean;
+  /**
+   * True when the mention gives a person's given name in full and the entity's names give
+   * another, neither a spelling, pet form nor shortening of the other ("Josiah Aldous" against
+   * Jabez Harcourt Aldous; see givenNamesDiffer): no name evidence then. Absent otherwise.
+   */
+  givenNameDiffers?: boolean;
 }
 
 /**
@@ -186,8 +194,10 @@ export function nameMatch(
   words: WordEvidence | null = null,
 ): NameMatch {
   const personLike = entity.cls === "person";
-  // "Mrs. John Pell" is John Pell's wife, not John Pell: no name evidence for the man.
-  if (personLike && sexesDiffer(norm, entity)) {
+  // "Mrs. John Pell" is John Pell's wife, not John Pell; "Josiah Aldous" is not Jabez Aldous.
+  const sexDiffers = personLike && sexesDiffer(norm, entity);
+  const givenDiffers = personLike && !sexDiffers && givenNamesDiffer(norm, entity);
+  if (sexDiffers || givenDiffers) {
     return {
       jaroWinkler: 0,
       levenshtein: 0,
@@ -199,7 +209,7 @@ export function nameMatch(
       keyKind: null,
       spelledAlike: false,
       apartWords: null,
-      sexDiffers: true,
+      ...(sexDiffers ? { sexDiffers: true } : { givenNameDiffers: true }),
     };
   }
   let jw = 0;
@@ -553,6 +563,57 @@ function soleSurname(norm: NormalizedName, alias: AliasRow, words: WordEvidence 
     alias.tokens[alias.tokens.length - 1] === surname &&
     words.soleBearer(surname)
   );
+}
+
+/** Least Jaro-Winkler similarity of two given names read as one name misspelled or misread. */
+const GIVEN_NAME_SPELLING_JW = 0.85;
+/**
+ * Shortest given name compared in full: shorter ones are initials, clerks' shortenings ("Geo.",
+ * "Saml.", "Wm."), and these misread ("Gco.", "Sarnl.", "Wrn.") too often to tell anything.
+ */
+const MIN_FULL_GIVEN_NAME = 5;
+
+/** True when two full given names may be one person's: equal, a spelling, shortening or pet form. */
+function givenNamesAgree(a: string, b: string): boolean {
+  if (a === b || a.startsWith(b) || b.startsWith(a)) return true;
+  if (jaroWinkler(a, b) >= GIVEN_NAME_SPELLING_JW) return true;
+  // Misread in print: "Emest" for Ernest, "Eclith" for Edith, "Arnbrose" for Ambrose.
+  if (jaroWinkler(ocrFold(a), ocrFold(b)) >= GIVEN_NAME_SPELLING_JW) return true;
+  const pa = PET_NAMES[a];
+  const pb = PET_NAMES[b];
+  return (
+    (pa?.includes(b) ?? false) ||
+    (pb?.includes(a) ?? false) ||
+    (pa !== undefined && pb !== undefined && pa.some((x) => pb.includes(x)))
+  );
+}
+
+/**
+ * True when the mention names a person by a full given name and surname and the entity's names
+ * give full given names none of which agrees with it (givenNamesAgree), its middle names
+ * included: "Josiah Aldous" is not Jabez Harcourt Aldous, while "Harcourt Aldous", "Jabcz Aldous"
+ * (misread) and "Harry Pell" for Henry Pell are. A mention whose first word is the entity's
+ * surname (a name printed surname first) is not judged.
+ */
+export function givenNamesDiffer(norm: NormalizedName, entity: EntityRow): boolean {
+  const m = norm.tokens;
+  if (m.length < 2 || m[0]!.length < MIN_FULL_GIVEN_NAME) return false;
+  const given = m[0]!;
+  let fullGiven = false;
+  for (const a of entity.aliases) {
+    const t = a.tokens;
+    if (t.length < 2) continue;
+    if (t[t.length - 1] === given) return false;
+    if (t[0]!.length >= MIN_FULL_GIVEN_NAME) fullGiven = true;
+    for (let i = 0; i < t.length - 1; i++) {
+      const w = t[i]!;
+      if (w.length >= MIN_FULL_GIVEN_NAME && givenNamesAgree(given, w)) return false;
+      // The mention's middle names may be the entity's given name ("J. Harcourt Aldous").
+      for (let k = 1; k < m.length - 1; k++)
+        if (m[k]!.length >= MIN_FULL_GIVEN_NAME && givenNamesAgree(m[k]!, w)) return false;
+    }
+  }
+  return fullGiven;
 }
 
 /**
