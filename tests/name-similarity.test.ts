@@ -3,6 +3,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   CONTRACTION_MATCH_CREDIT,
+  PET_NAME_MATCH_CREDIT,
   INITIAL_MATCH_CREDIT,
   initialsCompatible,
   jaro,
@@ -191,6 +192,15 @@ describe("tokenSetSimilarity", () => {
     // Not a contraction: the last letters differ, or the letters are out of order.
     expect(tokenSetSimilarity(["inta"], ["international"])).toBe(0);
     expect(tokenSetSimilarity(["rngl"], ["regional"])).toBe(0);
+  });
+  it("gives a pet form of a given name partial credit", () => {
+    expect(jaroWinkler("peggy", "margaret")).toBeLessThan(TOKEN_MATCH_MIN_JW);
+    expect(tokenSetSimilarity(["peggy", "pell"], ["margaret", "pell"])).toBeCloseTo(
+      (2 * (1 + PET_NAME_MATCH_CREDIT)) / 4,
+      12,
+    );
+    expect(tokenSetSimilarity(["harry"], ["henry"])).toBeCloseTo(PET_NAME_MATCH_CREDIT, 12);
+    expect(tokenSetSimilarity(["peggy"], ["mary"])).toBe(0); // a pet form of another name
   });
   it("uses each partner once (multisets)", () => {
     expect(tokenSetSimilarity(["port", "port"], ["port"])).toBeCloseTo(2 / 3, 12);

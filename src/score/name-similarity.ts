@@ -7,6 +7,7 @@
  * typed arrays that grow on demand and are reused.
  */
 import { distance as levenshteinDistance } from "fastest-levenshtein";
+import { PET_NAMES } from "../normalize/lexicon.js";
 
 // ---------------------------------------------------------------------------------------------
 // Jaro and Jaro-Winkler
@@ -167,6 +168,17 @@ export const INITIAL_MATCH_CREDIT = 0.8;
 export const CONTRACTION_MATCH_CREDIT = 0.9;
 
 /**
+ * Credit for a given name against its pet form ("harry" / "henry", "peggy" / "margaret", see
+ * PET_NAMES): as a contraction's, one person's name though spelled otherwise.
+ */
+export const PET_NAME_MATCH_CREDIT = CONTRACTION_MATCH_CREDIT;
+
+/** True when one token is a pet form of the other (PET_NAMES). */
+function petForms(x: string, y: string): boolean {
+  return (PET_NAMES[x]?.includes(y) ?? false) || (PET_NAMES[y]?.includes(x) ?? false);
+}
+
+/**
  * True when `short` is a contraction of `long`: at least three letters, the same first and last
  * letters, and the letters between found in `long` in the same order ("intl" for
  * "international", "saml" for "samuel", "ldg" for "landing").
@@ -190,7 +202,8 @@ function tokenPairScore(x: string, y: string): number {
   }
   const s = jaroWinkler(x, y);
   if (s >= TOKEN_MATCH_MIN_JW) return s;
-  return (lx < ly ? isContraction(x, y) : isContraction(y, x)) ? CONTRACTION_MATCH_CREDIT : 0;
+  if (lx < ly ? isContraction(x, y) : isContraction(y, x)) return CONTRACTION_MATCH_CREDIT;
+  return petForms(x, y) ? PET_NAME_MATCH_CREDIT : 0;
 }
 
 /** Reusable "already matched" flags over the longer token list. */
