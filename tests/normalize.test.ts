@@ -69,6 +69,20 @@ describe("normalizeName: persons", () => {
     expect(normalizeName("R.N.", "person").key).toBe("r n"); // nothing name-like would be left
   });
 
+  it("reads the words newspapers and lists put around a person's name", () => {
+    expect(normalizeName("the late Mr. Aldous", "person").key).toBe("aldous");
+    expect(normalizeName("Mr. J. H. Aldous, junr.", "person").key).toBe("j h aldous");
+    expect(normalizeName("Mr. J. H. Aldous, junr.", "person").suffix).toBe("jr");
+    // An appositive after a whole name is left out; a given name after a surname is reordered.
+    expect(normalizeName("Jabez Aldous, harbour master", "person").key).toBe("jabez aldous");
+    expect(normalizeName("J. Pell, of Stenmouth", "person").key).toBe("j pell");
+    expect(normalizeName("Aldous, Jabez", "person").key).toBe("jabez aldous");
+    expect(normalizeName("Van Pell, Jan", "person").key).toBe("jan van pell");
+    // A surname with given names in brackets, as some lists print it; other brackets are asides.
+    expect(normalizeName("Aldous (Jabez H.)", "person").key).toBe("jabez h aldous");
+    expect(normalizeName("Aldous (harbour master)", "person").key).toBe("aldous");
+  });
+
   it("puts initials after a surname first, as lists print names without the comma", () => {
     expect(normalizeName("Aldous J.H.", "person").key).toBe("j h aldous");
     expect(normalizeName("Aldous J. H.", "person").initialsKey).toBe("j aldous");

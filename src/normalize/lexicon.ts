@@ -67,6 +67,7 @@ export const HONORIFICS: ReadonlySet<string> = new Set([
   "mayor",
   "widow",
   "the",
+  "late",
 ]);
 
 /**
@@ -247,10 +248,12 @@ export const GENERATIONAL: Readonly<Record<string, string>> = {
   jnr: "jr",
   junior: "jr",
   jun: "jr",
+  junr: "jr",
   sr: "sr",
   snr: "sr",
   senior: "sr",
   sen: "sr",
+  senr: "sr",
   ii: "ii",
   iii: "iii",
   iv: "iv",

@@ -234,7 +234,35 @@ export function dropPostNominals(raw: string): string {
   }
 }
 
-/** "Aldous, J. H." -> "J. H. Aldous" when the text is one comma between two non-empty parts. */
+/** A surname, then given names or initials in brackets, as some lists print a person. */
+const BRACKETED_GIVEN_NAMES = /^\s*([\p{L}'’-]+)\s*\(([^()]+)\)\s*$/u;
+
+/**
+ * True when the words lead with a given name or an initial, honorifics aside: "J. H. Aldous",
+ * "Capt. Jabez Aldous", not "Aldous" or "Van Pell".
+ */
+function leadsWithGivenName(tokens: readonly string[]): boolean {
+  let i = 0;
+  while (i < tokens.length - 1 && HONORIFICS.has(tokens[i]!)) i++;
+  const t = tokens[i];
+  if (t === undefined || i === tokens.length - 1) return false;
+  const given = GIVEN_NAME_ABBREVIATIONS[t] ?? t;
+  return t.length === 1 || MALE_GIVEN_NAMES.has(given) || FEMALE_GIVEN_NAMES.has(given);
+}
+
+/** "Aldous (Jabez)" -> "Jabez Aldous": a surname, then given names or initials in brackets. */
+function reorderBracketedGivenNames(raw: string): string {
+  const m = BRACKETED_GIVEN_NAMES.exec(raw);
+  if (m === null || !leadsWithGivenName(foldTokens(`${m[2]} ${m[1]}`))) return raw;
+  return `${m[2]!.trim()} ${m[1]}`;
+}
+
+/**
+ * "Aldous, J. H." -> "J. H. Aldous" when the text is one comma between two non-empty parts.
+ * When the part before the comma is a whole name already (given name or initial, then surname),
+ * what follows is an appositive ("Jabez Aldous, harbour master", "J. Pell, of Stenmouth") and is
+ * left out.
+ */
 function reorderLastFirst(raw: string): string {
   const parts = raw.split(",");
   if (parts.length !== 2) return raw;
@@ -246,6 +274,7 @@ function reorderLastFirst(raw: string): string {
   if (firstTokens.every((t) => GENERATIONAL[t] !== undefined || HONORIFICS.has(t))) {
     return `${last} ${first}`;
   }
+  if (leadsWithGivenName(foldTokens(last))) return last;
   return `${first} ${last}`;
 }
 
@@ -538,7 +567,7 @@ export function trailingDesignatorStart(tokens: readonly string[]): number {
 export function normalizeName(name: string, cls: EntityClass): NormalizedName {
   // "X d/b/a Y" is normalized as X; Y is the name's other name (see splitTradeName).
   const raw = joinLineBreaks(splitTradeName(name)?.name ?? name);
-  const reordered = cls === "person" ? raw : reorderBracketed(raw);
+  const reordered = cls === "person" ? reorderBracketedGivenNames(raw) : reorderBracketed(raw);
   const aside = cls === "person" ? [] : closingAsideWords(reordered);
   const bare = dropParenthesized(reordered);
   const text = cls === "person" ? reorderLastFirst(dropPostNominals(bare)) : reorderInverted(bare);
