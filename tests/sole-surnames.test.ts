@@ -58,7 +58,7 @@ describe("a surname alone", () => {
       expect(r.candidates.find((c) => c.entity === eid)?.features.exactKey ?? 0, text).toBe(0);
     }
     expect(link("Mrs. Lumb", "PER").entity).toBeNull(); // nor the firm: a PER mention, "& Sons" aside
-    for (const text of ["Mrs. Feather", "Mr. Tattersall"]) {
+    for (const text of ["Mrs. Feather", "Mr. Tattersall", "Tattersall, Mr."]) {
       const r = link(text, "PER");
       expect(r.entity, text).toBeNull();
       expect(

@@ -8,6 +8,7 @@ import {
   CONTRASTING_WORDS,
   FEMALE_GIVEN_NAMES,
   FEMALE_HONORIFICS,
+  HONORIFICS,
   LEGAL_FORMS,
   MALE_GIVEN_NAMES,
   MALE_HONORIFICS,
@@ -626,11 +627,15 @@ export function givenNamesDiffer(norm: NormalizedName, entity: EntityRow): boole
  * MALE_GIVEN_NAMES); an initial or an unknown name says nothing.
  */
 function sexesDiffer(norm: NormalizedName, entity: EntityRow): boolean {
+  // The honorifics leading the name ("Mrs.", "the late Mr."), or closing it ("Pell, Miss").
+  const words = norm.folded;
   let said: "female" | "male" | null = null;
-  for (const t of norm.folded) {
+  const read = (t: string) => {
     if (FEMALE_HONORIFICS.has(t)) said = "female";
     else if (MALE_HONORIFICS.has(t)) said = "male";
-  }
+  };
+  for (let i = 0; i < words.length - 1 && HONORIFICS.has(words[i]!); i++) read(words[i]!);
+  if (words.length > 1) read(words[words.length - 1]!);
   if (said === null) return false;
   const other = said === "female" ? MALE_GIVEN_NAMES : FEMALE_GIVEN_NAMES;
   return entity.aliases.some((a) => a.tokens.length >= 2 && other.has(a.tokens[0]!));
