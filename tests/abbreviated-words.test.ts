@@ -1,6 +1,6 @@
 /**
  * Words written short, cut off by a period: "Calif." for California, "Md." for Maryland,
- * "Harrowm. Wharf" for Harrowmouth Wharf. Checked on an invented table of the gazette and on the
+ * "Harrowm. Wharf" for Harrowmouth Wharf; or contracted with an apostrophe: "H'mouth". Checked on an invented table of the gazette and on the
  * US states of the `iso-3166-2` package, named by the abbreviations newspapers and the federal
  * printers used before the postal codes (from memory).
  */
@@ -52,6 +52,17 @@ describe("linking names with words written short", () => {
     expect(r.entity).toBe("W1");
     expect(r.reasons.map((x) => x.code)).toContain("name-abbreviated");
     expect(gazette.linker.link({ id: "m", text: "Wend Valley Rly.", type: "ORG" }).entity).toBe("R1");
+  });
+
+  it("links a long name contracted with an apostrophe to its first letter and its ending", () => {
+    // Clerks' contractions: "H'mouth" for Harrowmouth; "O'Brien" and "Jessop's" are not such.
+    expect(normalizeName("H'mouth Wharf", "location").abbreviated).toEqual(["hmouth"]);
+    expect(normalizeName("O'Brien Wharf", "location").abbreviated).toEqual([]);
+    expect(normalizeName("Jessop's Wharf", "location").abbreviated).toEqual([]);
+    const r = gazette.linker.link({ id: "m", text: "H'mouth", type: "LOC" });
+    expect(r.entity).toBe("T1");
+    expect(r.reasons.map((x) => x.code)).toContain("name-abbreviated");
+    expect(gazette.linker.link({ id: "m", text: "S'mouth Wharf", type: "FAC" }).entity).toBe("W2");
   });
 
   it("not without the period, nor where the table knows the short word", () => {

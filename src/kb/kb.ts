@@ -79,6 +79,28 @@ export interface KeyHit {
  * kept alive and turned over (benchmarks/README.md).
  */
 const ENTITY_CACHE_SIZE = 64;
+/** Fewest letters of a word's ending a contraction keeps ("mouth" of "H'mouth"). */
+const MIN_CONTRACTED_ENDING = 3;
+
+/**
+ * True when `short` is `long`'s first letter or two and its ending, longer than the short word
+ * ("hmouth" for "harrowmouth", "whampton" for "wolverhampton"): how clerks contract a long name
+ * with an apostrophe ("H'mouth", "W'hampton").
+ */
+function contractedEnding(short: string, long: string): boolean {
+  if (long.length <= short.length) return false;
+  for (const head of [1, 2]) {
+    const ending = short.length - head;
+    if (
+      ending >= MIN_CONTRACTED_ENDING &&
+      long.startsWith(short.slice(0, head)) &&
+      long.endsWith(short.slice(head))
+    )
+      return true;
+  }
+  return false;
+}
+
 /**
  * Longest word written short read as a contraction too ("Md.", "Rly.", "Bldg."): a longer one is
  * read as the first letters of a word only, which a prefix of the sorted vocabulary answers.
@@ -226,8 +248,10 @@ export class Kb {
     this.sortedVocabulary ??= [...this.vocabDf.keys()].sort();
     const sorted = this.sortedVocabulary;
     // A contraction keeps only the first letter as a prefix, so short words scan every word of
-    // that letter; longer ones are read as the first letters of a word only.
-    const prefix = short.length <= MAX_CONTRACTION_LETTERS ? short[0]! : short;
+    // that letter; longer ones are read as the first letters of a word, or as its first letter or
+    // two and its ending ("hmouth", written "H'mouth", for "harrowmouth"; see contractedEnding).
+    const prefix = short[0]!;
+    const whole = short.length <= MAX_CONTRACTION_LETTERS;
     let lo = 0;
     let hi = sorted.length;
     while (lo < hi) {
@@ -236,8 +260,11 @@ export class Kb {
       else hi = mid;
     }
     const found: string[] = [];
-    for (let i = lo; i < sorted.length && sorted[i]!.startsWith(prefix); i++)
-      if (abbreviates(short, sorted[i]!)) found.push(sorted[i]!);
+    for (let i = lo; i < sorted.length && sorted[i]!.startsWith(prefix); i++) {
+      const word = sorted[i]!;
+      if (whole ? abbreviates(short, word) : word.startsWith(short) || contractedEnding(short, word))
+        found.push(word);
+    }
     found.sort((a, b) => this.tokenDf(b) - this.tokenDf(a) || (a < b ? -1 : 1));
     const readings = found.slice(0, MAX_CACHED_READINGS);
     this.abbreviationReadings.set(short, readings);

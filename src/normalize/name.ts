@@ -67,6 +67,14 @@ export interface NormalizedName {
 /** A word of two letters or more cut off by a period: "Calif.", "Tenn.", "Md." (not "J." or "S.G.E."). */
 const CUT_WORD = /(?<!\p{L})(\p{L}{2,})\.(?!\p{L})/gu;
 
+/**
+ * A word contracted with an apostrophe, as clerks write a long place name: its first letter (and
+ * perhaps one more), an apostrophe, its ending ("H'mouth" for Harrowmouth, "W'hampton"). After the
+ * apostrophe comes a lower-case letter: "O'Brien" and "D'Arcy" are names, not contractions, and a
+ * possessive ("Jessop's") has more letters before it.
+ */
+const APOSTROPHE_CONTRACTION = /(?<!\p{L})(\p{Lu}\p{Ll}?['’]\p{Ll}{3,})(?!\p{L})/gu;
+
 /** The last text cutWords read, and its answer: a mention is normalized once per class. */
 let lastCutText = "";
 let lastCutWords: ReadonlySet<string> = new Set();
@@ -76,6 +84,7 @@ function cutWords(text: string): ReadonlySet<string> {
   if (text === lastCutText) return lastCutWords;
   const out = new Set<string>();
   for (const m of text.matchAll(CUT_WORD)) for (const t of foldTokens(m[1]!)) out.add(t);
+  for (const m of text.matchAll(APOSTROPHE_CONTRACTION)) for (const t of foldTokens(m[1]!)) out.add(t);
   lastCutText = text;
   lastCutWords = out;
   return out;
@@ -617,6 +626,9 @@ export function normalizeName(name: string, cls: EntityClass): NormalizedName {
     acronym,
     acronymKey: acronymKey !== null && acronymKey.length >= MIN_ACRONYM_LETTERS ? acronymKey : null,
     initialsKey,
-    abbreviated: cls === "person" || !text.includes(".") ? [] : abbreviatedTokens(s.tokens, cutWords(text)),
+    abbreviated:
+      cls === "person" || !(text.includes(".") || text.includes("'") || text.includes("’"))
+        ? []
+        : abbreviatedTokens(s.tokens, cutWords(text)),
   };
 }
