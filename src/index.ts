@@ -28,5 +28,6 @@ export { evaluate as evaluateRows, type EvalReport } from "./evaluate/metrics.js
 export { formatEvalTable } from "./evaluate/format.js";
 export { agreement } from "./evaluate/agree.js";
 export { readConfig, type TunedConfig, writeConfig } from "./tune/config.js";
+export { PROCEDURE_WORDS, TUNE_PROCEDURES, type TuneProcedure, type TuneResult } from "./tune/tune.js";
 export { InputError, UsageError } from "./util/errors.js";
 export * from "./types.js";

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { assignFolds, mulberry32 } from "../src/tune/folds.js";
-import { tune } from "../src/tune/tune.js";
+import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD } from "../src/decide/decide.js";
+import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
+import { TUNE_PROCEDURES, tune } from "../src/tune/tune.js";
 import { syntheticSet } from "./tune-fixtures.js";
 
 describe("folds", () => {
@@ -51,6 +53,52 @@ describe("tune", () => {
     // blocking misses show up as candidate recall below 1, whatever the weights
     expect(r.reports.heldOut.candidateRecall.atAll).toBeLessThan(1);
     expect(r.pairs).toBeGreaterThan(r.positives);
+  });
+
+  it("keeps the fitted weights where they cross-validate best, and reports every procedure", () => {
+    const r = tune(data);
+    expect(r.procedure).toBe("fitted");
+    expect(Object.keys(r.procedures).sort()).toEqual(["default-weights", "defaults", "fitted"]);
+    for (const p of TUNE_PROCEDURES)
+      expect(r.procedures.fitted.linkF1).toBeGreaterThanOrEqual(r.procedures[p].linkF1);
+    expect(r.figures.heldOut).toEqual(r.procedures.fitted);
+    // The defaults, decided without learning anything, score the same held out as in-sample.
+    expect(r.procedures.defaults).toEqual(r.figures.defaults);
+  });
+
+  it("keeps the defaults where nothing learned does better held out", () => {
+    // Gold candidates spelled as the mention, distractors far off: the defaults decide every
+    // mention right, and a fit can only tie them.
+    const feature = (x: number, exact: number) => ({
+      jaroWinkler: x,
+      levenshtein: x,
+      tokenSet: x,
+      abbreviation: 0,
+      exactKey: exact,
+      context: x / 2,
+      typeMatch: 1,
+      prior: 0.5,
+      nearSpelling: 0,
+      contextConflict: 0,
+      prominence: 0,
+    });
+    const clean = Array.from({ length: 90 }, (_, i) => {
+      const gold = i % 4 === 0 ? null : `t-${i}`;
+      const candidates = [{ entity: `x-${i}`, features: feature(0.3, 0) }];
+      if (gold !== null) candidates.push({ entity: gold, features: feature(1, 1) });
+      return { mention: { id: `m${i}`, text: "Port Ellery", type: "LOC", gold }, candidates };
+    });
+    const r = tune(clean, { folds: 3 });
+    expect(r.procedures.defaults.linkF1).toBe(1);
+    expect(r.procedure).toBe("defaults");
+    expect(r.config).toEqual({
+      weights: DEFAULT_WEIGHTS,
+      threshold: DEFAULT_THRESHOLD,
+      minMargin: DEFAULT_MIN_MARGIN,
+    });
+    expect(r.figures.heldOut.linkF1).toBeGreaterThanOrEqual(r.figures.defaults.linkF1);
+    expect(r.notes.some((n) => n.includes("kept the defaults as they are"))).toBe(true);
+    expect(r.chosen.threshold).toBeCloseTo(DEFAULT_THRESHOLD, 10);
   });
 
   it("supports recall at a minimum precision", () => {

@@ -12,6 +12,7 @@ import { evaluate } from "../commands/evaluate.js";
 import { index } from "../commands/index-table.js";
 import { link } from "../commands/link.js";
 import { tune } from "../commands/tune.js";
+import { PROCEDURE_WORDS } from "../tune/tune.js";
 import { formatEvalTable } from "../evaluate/format.js";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
@@ -291,6 +292,7 @@ export function program(): Command {
     out(
       [
         `tuned on ${result.mentions} mentions (${result.pairs} candidate pairs), ${result.folds}-fold cross-validation, seed ${result.seed}`,
+        `kept: ${PROCEDURE_WORDS[result.procedure]} (held-out link F1: fitted ${pct(result.procedures.fitted.linkF1)}, default weights ${pct(result.procedures["default-weights"].linkF1)}, defaults ${pct(result.procedures.defaults.linkF1)})`,
         `operating point: threshold ${config.threshold}, minimum margin ${config.minMargin} (objective ${config.objective})`,
         `                 link precision  recall     F1   accuracy`,
         `defaults         ${pct(f.defaults.linkPrecision).padStart(9)} ${pct(f.defaults.linkRecall).padStart(7)} ${pct(f.defaults.linkF1).padStart(6)} ${pct(f.defaults.accuracy).padStart(9)}`,

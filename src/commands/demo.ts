@@ -14,6 +14,7 @@ import type { LinkRow } from "../types.js";
 import { evaluate, readLabeled } from "./evaluate.js";
 import { index } from "./index-table.js";
 import { type LinkOptions, link } from "./link.js";
+import { PROCEDURE_WORDS } from "../tune/tune.js";
 import { tune } from "./tune.js";
 
 /** The bundled sample folder, found relative to the installed package. */
@@ -107,8 +108,10 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
   const after = (await evaluate({ kb, gold, config })) as EvalReport;
   const f = tuned.result.figures;
   print(
-    `4. tuned on the gold set (logistic regression, 5-fold cross-validation, mentions scored one by one): ` +
-      `threshold ${tuned.config.threshold}, minimum margin ${tuned.config.minMargin} log-odds`,
+    `4. tuned on the gold set (a logistic fit, the default weights with a swept threshold and the defaults, ` +
+      `compared by 5-fold cross-validation; mentions scored one by one): ` +
+      `kept ${PROCEDURE_WORDS[tuned.result.procedure]}, threshold ${tuned.config.threshold}, ` +
+      `minimum margin ${tuned.config.minMargin} log-odds`,
   );
   print(
     `   link F1: defaults ${pct(f.defaults.linkF1)} -> tuned, held-out ${pct(f.heldOut.linkF1)} ` +

@@ -558,10 +558,12 @@ function withKindWords(mention: readonly string[], alias: readonly string[], wor
  */
 function soleSurname(norm: NormalizedName, alias: AliasRow, words: WordEvidence | null): boolean {
   if (words === null || norm.tokens.length !== 1 || alias.tokens.length < 2) return false;
-  const surname = norm.tokens[0]!;
+  const written = norm.tokens[0]!;
+  const surname = alias.tokens[alias.tokens.length - 1]!;
+  // As written, or as OCR misreads it ("Cleg" for Clegg: doubled letters and look-alikes folded).
   return (
-    surname.length >= MIN_ATTESTED_WORD_LENGTH &&
-    alias.tokens[alias.tokens.length - 1] === surname &&
+    written.length >= MIN_ATTESTED_WORD_LENGTH &&
+    (written === surname || norm.ocrKey === ocrFold(surname)) &&
     words.soleBearer(surname)
   );
 }

@@ -9,7 +9,7 @@ import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD } from "../decide/decide.js";
 import type { LinkError, EvalReport, Figures } from "../evaluate/metrics.js";
 import { FEATURE_NAMES } from "../types.js";
 import type { OperatingPoint } from "./sweep.js";
-import type { TuneResult } from "./tune.js";
+import { PROCEDURE_WORDS, TUNE_PROCEDURES, type TuneResult } from "./tune.js";
 
 /** Errors listed per table by default: enough to see patterns, short enough to read. */
 export const DEFAULT_WORST = 10;
@@ -268,6 +268,24 @@ function foldTable(t: TuneResult): string {
   );
 }
 
+function procedureTable(t: TuneResult): string {
+  return table(
+    ["procedure", "held-out link P", "link R", "link F1", "accuracy", "kept"],
+    TUNE_PROCEDURES.map((p) => {
+      const f = t.procedures[p];
+      return [
+        PROCEDURE_WORDS[p],
+        fx(f.linkPrecision),
+        fx(f.linkRecall),
+        fx(f.linkF1),
+        fx(f.accuracy),
+        p === t.procedure ? "yes" : "",
+      ];
+    }),
+    "numeric",
+  );
+}
+
 function weightTable(t: TuneResult): string {
   const w = t.config.weights;
   const rows = [["bias", fx(w.bias)], ...FEATURE_NAMES.map((name) => [name, fx(w.features[name])])];
@@ -424,9 +442,12 @@ ${typeTable(report)}
 <h2>Candidate recall and errors (${escapeHtml(reportLabel)})</h2>
 <p class="muted">A gold entity missing from the generated candidates is a blocking miss: no weight or threshold can recover it.</p>
 <div class="two">${recallTable(report)}</div>
-<h2>Cross-validation folds</h2>
+<h2>Procedures compared</h2>
+<p class="muted">Each procedure is cross-validated on the same folds; the one whose held-out decisions score best on the objective is kept (the simpler on a tie), so tuning never keeps what does worse held out than the defaults.</p>
+${procedureTable(t)}
+<h2>Cross-validation folds (${escapeHtml(PROCEDURE_WORDS[t.procedure])})</h2>
 ${foldTable(t)}
-<h2>Fitted weights (final config)</h2>
+<h2>Weights (final config: ${escapeHtml(PROCEDURE_WORDS[t.procedure])})</h2>
 ${weightTable(t)}
 <h2>Highest-scoring wrong links (${escapeHtml(reportLabel)})</h2>
 ${errorTable(worstWrongLinks(report, worst))}

@@ -6,7 +6,11 @@
  * - Folds are by mention (a mention's candidates never straddle folds), from a seeded shuffle.
  * - For each fold: fit on the other folds, choose the point on the other folds, decide the held-out
  *   fold; held-out figures pool the held-out decisions of all folds.
- * - In-sample: fit and choose on all data, measured on all data. This is the final config.
+ * - Three procedures are cross-validated so (see TuneProcedure): weights fitted and point swept;
+ *   the default weights and the point swept; the defaults as they are. The one whose pooled
+ *   held-out decisions score best on the objective is kept (the simpler on a tie), so tuning
+ *   never hands back a configuration that cross-validates worse than the defaults.
+ * - In-sample: the kept procedure run on all data, measured on all data. This is the final config.
  * - Defaults: DEFAULT_WEIGHTS, DEFAULT_THRESHOLD, DEFAULT_MIN_MARGIN measured on all data.
  */
 import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD } from "../decide/decide.js";
@@ -42,6 +46,27 @@ export interface TuneOptions {
   k?: number;
 }
 
+/**
+ * How a configuration is made from training data:
+ * - "fitted": weights fitted by logistic regression on the candidate pairs, operating point
+ *   (threshold, minimum margin) swept;
+ * - "default-weights": DEFAULT_WEIGHTS, operating point swept;
+ * - "defaults": DEFAULT_WEIGHTS, DEFAULT_THRESHOLD and DEFAULT_MIN_MARGIN, nothing learned.
+ * Where the defaults already suit the labeled set, a fit on four fifths of it can do worse on the
+ * fifth held out than the defaults do; tune then keeps the defaults, or their weights.
+ */
+export type TuneProcedure = "fitted" | "default-weights" | "defaults";
+
+/** What each procedure keeps, in a few words (for summaries and reports). */
+export const PROCEDURE_WORDS: Readonly<Record<TuneProcedure, string>> = {
+  fitted: "fitted weights, tuned threshold and margin",
+  "default-weights": "default weights, tuned threshold and margin",
+  defaults: "the defaults as they are",
+};
+
+/** The procedures tune compares, simplest first: a tie goes to the simpler. */
+export const TUNE_PROCEDURES: readonly TuneProcedure[] = ["defaults", "default-weights", "fitted"];
+
 export interface FoldResult {
   fold: number;
   /** Held-out mentions. */
@@ -53,8 +78,12 @@ export interface FoldResult {
 }
 
 export interface TuneResult {
-  /** The final configuration: weights fitted on all data, operating point chosen on all data. */
+  /** The final configuration: the kept procedure run on all data. */
   config: LinkConfig;
+  /** The procedure kept (see TuneProcedure). */
+  procedure: TuneProcedure;
+  /** Pooled held-out figures of each procedure compared. */
+  procedures: Record<TuneProcedure, Figures>;
   objective: Objective;
   minPrecision?: number;
   folds: number;
@@ -64,6 +93,7 @@ export interface TuneResult {
   /** Training pairs of the final fit, and how many were positives. */
   pairs: number;
   positives: number;
+  /** The logistic fit on all data (made whatever the procedure kept, for the report). */
   fit: Pick<LogisticFit, "iterations" | "converged" | "objective">;
   /** The chosen point on all data. */
   chosen: OperatingPoint;
@@ -123,6 +153,71 @@ function pairsFor(data: readonly ScoredMention[], rows: readonly LinkRow[]) {
   return data.map((m, i) => ({ gold: m.mention, predicted: rows[i]! }));
 }
 
+const DEFAULTS_CONFIG: LinkConfig = {
+  weights: DEFAULT_WEIGHTS,
+  threshold: DEFAULT_THRESHOLD,
+  minMargin: DEFAULT_MIN_MARGIN,
+};
+
+/** A procedure run on training data: its configuration, and the fit and sweep behind it if any. */
+function runProcedure(
+  procedure: TuneProcedure,
+  train: readonly ScoredMention[],
+  opts: { objective: Objective; minPrecision: number | undefined; l2: number },
+  where: string,
+  notes: string[],
+): { config: LinkConfig; converged: boolean } {
+  if (procedure === "fitted") {
+    const { config, fit } = fitAndChoose(train, opts, where, notes);
+    return { config, converged: fit.converged };
+  }
+  if (procedure === "defaults") return { config: DEFAULTS_CONFIG, converged: true };
+  const swept = sweep(train, DEFAULT_WEIGHTS, { objective: opts.objective, minPrecision: opts.minPrecision });
+  const point = pointOf(swept, where, notes);
+  return {
+    config: { weights: DEFAULT_WEIGHTS, threshold: point.threshold, minMargin: point.minMargin },
+    converged: true,
+  };
+}
+
+/**
+ * The default weights run on all data, with their operating point and the sweep's curve: swept
+ * ("default-weights"), or the default threshold and margin on the curve at the default margin
+ * ("defaults").
+ */
+function operatingPointOf(
+  procedure: "default-weights" | "defaults",
+  data: readonly ScoredMention[],
+  opts: { objective: Objective; minPrecision: number | undefined },
+  notes: string[],
+): { config: LinkConfig; point: OperatingPoint; sweep: SweepResult } {
+  const sweepOpts = { objective: opts.objective, minPrecision: opts.minPrecision };
+  if (procedure === "default-weights") {
+    const swept = sweep(data, DEFAULT_WEIGHTS, sweepOpts);
+    const point = pointOf(swept, "all data", notes);
+    return {
+      config: { weights: DEFAULT_WEIGHTS, threshold: point.threshold, minMargin: point.minMargin },
+      point,
+      sweep: swept,
+    };
+  }
+  const swept = sweep(data, DEFAULT_WEIGHTS, { ...sweepOpts, margins: [DEFAULT_MIN_MARGIN] });
+  let point = swept.curve[0]!;
+  for (const p of swept.curve)
+    if (Math.abs(p.threshold - DEFAULT_THRESHOLD) < Math.abs(point.threshold - DEFAULT_THRESHOLD)) point = p;
+  return { config: DEFAULTS_CONFIG, point, sweep: swept };
+}
+
+/**
+ * The objective's value of some figures, larger is better: link F1; or, for recall at a minimum
+ * precision, the recall where the precision is reached (plus 1, above any point that misses it)
+ * and the precision where it is not.
+ */
+function objectiveValue(f: Figures, objective: Objective, minPrecision: number | undefined): number {
+  if (objective === "f1") return f.linkF1;
+  return f.linkPrecision >= (minPrecision ?? 0) ? 1 + f.linkRecall : f.linkPrecision;
+}
+
 export function tune(data: readonly ScoredMention[], opts: TuneOptions = {}): TuneResult {
   const folds = opts.folds ?? DEFAULT_FOLDS;
   const seed = opts.seed ?? DEFAULT_SEED;
@@ -155,39 +250,66 @@ export function tune(data: readonly ScoredMention[], opts: TuneOptions = {}): Tu
   const notes: string[] = [];
   const fitOpts = { objective, minPrecision, l2 };
   const foldOf = assignFolds(data.length, folds, seed);
-  const heldOutRows = new Array<LinkRow>(data.length);
-  const perFold: FoldResult[] = [];
+  const heldOutRows = {} as Record<TuneProcedure, LinkRow[]>;
+  const perFoldOf = {} as Record<TuneProcedure, FoldResult[]>;
+  const foldNotes = {} as Record<TuneProcedure, string[]>;
+  for (const procedure of TUNE_PROCEDURES) {
+    heldOutRows[procedure] = new Array<LinkRow>(data.length);
+    perFoldOf[procedure] = [];
+    foldNotes[procedure] = [];
+  }
   for (let f = 0; f < folds; f++) {
     const trainData = data.filter((_, i) => foldOf[i] !== f);
     const testIndex = data.map((_, i) => i).filter((i) => foldOf[i] === f);
     const testData = testIndex.map((i) => data[i]!);
-    const { config, fit } = fitAndChoose(trainData, fitOpts, `fold ${f + 1}`, notes);
-    const rows = rowsFor(testData, config);
-    testIndex.forEach((i, j) => {
-      heldOutRows[i] = rows[j]!;
-    });
-    perFold.push({
-      fold: f + 1,
-      size: testData.length,
-      config,
-      converged: fit.converged,
-      heldOut: evaluate(pairsFor(testData, rows), evalOpts).overall,
-    });
+    for (const procedure of TUNE_PROCEDURES) {
+      const where = `fold ${f + 1}`;
+      const { config, converged } = runProcedure(procedure, trainData, fitOpts, where, foldNotes[procedure]);
+      const rows = rowsFor(testData, config);
+      testIndex.forEach((i, j) => {
+        heldOutRows[procedure][i] = rows[j]!;
+      });
+      perFoldOf[procedure].push({
+        fold: f + 1,
+        size: testData.length,
+        config,
+        converged,
+        heldOut: evaluate(pairsFor(testData, rows), evalOpts).overall,
+      });
+    }
+  }
+  const heldOutReports = {} as Record<TuneProcedure, EvalReport>;
+  let procedure: TuneProcedure = TUNE_PROCEDURES[0]!;
+  for (const p of TUNE_PROCEDURES) {
+    heldOutReports[p] = evaluate(pairsFor(data, heldOutRows[p]), evalOpts);
+    const value = (q: TuneProcedure) => objectiveValue(heldOutReports[q].overall, objective, minPrecision);
+    if (value(p) > value(procedure)) procedure = p;
+  }
+  notes.push(...foldNotes[procedure]);
+  if (procedure !== "fitted") {
+    const fitted = heldOutReports.fitted.overall;
+    const kept = heldOutReports[procedure].overall;
+    notes.push(
+      `fitted weights did no better held out than ${PROCEDURE_WORDS[procedure]} ` +
+        `(link F1 ${fitted.linkF1.toFixed(4)} against ${kept.linkF1.toFixed(4)}): kept ${PROCEDURE_WORDS[procedure]}`,
+    );
   }
 
-  const final = fitAndChoose(data, fitOpts, "all data", notes);
-  const defaultsConfig: LinkConfig = {
-    weights: DEFAULT_WEIGHTS,
-    threshold: DEFAULT_THRESHOLD,
-    minMargin: DEFAULT_MIN_MARGIN,
-  };
+  const final = fitAndChoose(data, fitOpts, "all data", procedure === "fitted" ? notes : []);
+  const kept = procedure === "fitted" ? final : operatingPointOf(procedure, data, fitOpts, notes);
+  const finalConfig = kept.config;
   const reports = {
-    heldOut: evaluate(pairsFor(data, heldOutRows), evalOpts),
-    inSample: evaluate(pairsFor(data, rowsFor(data, final.config)), evalOpts),
-    defaults: evaluate(pairsFor(data, rowsFor(data, defaultsConfig)), evalOpts),
+    heldOut: heldOutReports[procedure],
+    inSample: evaluate(pairsFor(data, rowsFor(data, finalConfig)), evalOpts),
+    defaults: evaluate(pairsFor(data, rowsFor(data, DEFAULTS_CONFIG)), evalOpts),
   };
+  const procedures = {} as Record<TuneProcedure, Figures>;
+  for (const p of TUNE_PROCEDURES) procedures[p] = heldOutReports[p].overall;
+  const perFold = perFoldOf[procedure];
   const result: TuneResult = {
-    config: final.config,
+    config: finalConfig,
+    procedure,
+    procedures,
     objective,
     folds,
     seed,
@@ -196,8 +318,8 @@ export function tune(data: readonly ScoredMention[], opts: TuneOptions = {}): Tu
     pairs: final.pairs.length,
     positives,
     fit: { iterations: final.fit.iterations, converged: final.fit.converged, objective: final.fit.objective },
-    chosen: final.point,
-    curve: final.sweep.curve,
+    chosen: kept.point,
+    curve: kept.sweep.curve,
     figures: {
       heldOut: reports.heldOut.overall,
       inSample: reports.inSample.overall,
