@@ -205,6 +205,21 @@ describe("normalizeName: organizations and places", () => {
   });
 });
 
+describe("words that are names of a plain object's members", () => {
+  it("are plain words to every word list", () => {
+    // A word list kept in a plain object once read "constructor" as a legal form and a place
+    // abbreviation: "Pell Constructor" came out as "pell function Object() { [native code] }".
+    for (const cls of ["person", "organization", "location", "other"] as const) {
+      const n = normalizeName("Pell Constructor", cls);
+      expect(n.full, cls).not.toMatch(/function|native/);
+      expect(n.tokens, cls).toContain("constructor");
+    }
+    expect(normalizeName("Valueof Tostring Hasownproperty", "organization").key).toBe(
+      "valueof tostring hasownproperty",
+    );
+  });
+});
+
 describe("words broken at a line end", () => {
   it("are joined again when a hyphen and white space part a word that goes on in lower case", () => {
     expect(joinLineBreaks("Walter Har- land")).toBe("Walter Harland");

@@ -5,6 +5,15 @@
  * of firms, and place-name abbreviations.
  */
 
+/**
+ * A word list as a lookup table without a prototype, so that a word such as "constructor" or
+ * "tostring" looks up nothing (in a plain object it finds Object's own members: "Pell
+ * Constructor" once normalized to "pell function Object() { [native code] }").
+ */
+function table<T>(entries: Record<string, T>): Readonly<Record<string, T>> {
+  return Object.freeze(Object.assign(Object.create(null) as Record<string, T>, entries));
+}
+
 /** Titles, ranks and courtesy words that precede a person's name and are not part of it. */
 export const HONORIFICS: ReadonlySet<string> = new Set([
   "mr",
@@ -179,7 +188,7 @@ export const FEMALE_GIVEN_NAMES: ReadonlySet<string> = new Set(
  * "Hal" Henry): two given names so related are one person's. From memory; common practice of
  * record linkage of the period.
  */
-export const PET_NAMES: Readonly<Record<string, readonly string[]>> = {
+export const PET_NAMES: Readonly<Record<string, readonly string[]>> = table({
   tom: ["thomas"],
   tommy: ["thomas"],
   harry: ["henry", "harold"],
@@ -240,10 +249,10 @@ export const PET_NAMES: Readonly<Record<string, readonly string[]>> = {
   hetty: ["hester", "henrietta"],
   dolly: ["dorothy"],
   jemmy: ["james"],
-};
+});
 
 /** Generational suffixes: removed from the matching key, kept as a separate field. */
-export const GENERATIONAL: Readonly<Record<string, string>> = {
+export const GENERATIONAL: Readonly<Record<string, string>> = table({
   jr: "jr",
   jnr: "jr",
   junior: "jr",
@@ -259,10 +268,10 @@ export const GENERATIONAL: Readonly<Record<string, string>> = {
   iv: "iv",
   elder: "sr",
   younger: "jr",
-};
+});
 
 /** Period clerks' abbreviations of given names ("Jno." for John, "Wm." for William). */
-export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = {
+export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = table({
   jno: "john",
   jn: "john",
   wm: "william",
@@ -290,7 +299,7 @@ export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = {
   eliz: "elizabeth",
   margt: "margaret",
   mary: "mary",
-};
+});
 
 /**
  * Legal-form and firm-structure words. Each maps to a canonical spelling; all are removed from the
@@ -303,7 +312,7 @@ export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = {
  * UAB; Russian and neighbouring OOO, OAO, ZAO, PAO, JSC and its variants; Malaysian Bhd.,
  * Indonesian Tbk., Japanese K.K.; Australian, Singaporean and Indian Pty, Pte, Pvt.
  */
-export const LEGAL_FORMS: Readonly<Record<string, string>> = {
+export const LEGAL_FORMS: Readonly<Record<string, string>> = table({
   co: "co",
   coy: "co",
   company: "co",
@@ -378,7 +387,7 @@ export const LEGAL_FORMS: Readonly<Record<string, string>> = {
   kk: "kk",
   ltee: "ltd",
   and: "and",
-};
+});
 
 /**
  * Legal forms of several words as a name's tokens spell them once folded ("Sp. z o.o." ->
@@ -421,7 +430,7 @@ export const LEADING_LEGAL_FORMS: ReadonlySet<string> = new Set([
 ]);
 
 /** Place-name abbreviations, expanded for locations (and for organizations named after places). */
-export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = {
+export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = table({
   st: "saint",
   ste: "sainte",
   ft: "fort",
@@ -435,7 +444,7 @@ export const PLACE_ABBREVIATIONS: Readonly<Record<string, string>> = {
   riv: "river",
   upr: "upper",
   lwr: "lower",
-};
+});
 
 /**
  * Head words of a place designator: the "Republic of" in "Republic of Korea", the "City of" in
@@ -609,7 +618,7 @@ export const TRAILING_DESIGNATOR_MODIFIERS: ReadonlySet<string> = new Set([
  * Abbreviated designator words, read as the word inside a designator phrase only ("Rep. of
  * Korea", "Fed. Rep. of Germany", "Twp. of Marsh"); elsewhere they stay as written.
  */
-export const DESIGNATOR_ABBREVIATIONS: Readonly<Record<string, string>> = {
+export const DESIGNATOR_ABBREVIATIONS: Readonly<Record<string, string>> = table({
   rep: "republic",
   repub: "republic",
   fed: "federal",
@@ -620,7 +629,7 @@ export const DESIGNATOR_ABBREVIATIONS: Readonly<Record<string, string>> = {
   boro: "borough",
   dept: "department",
   dist: "district",
-};
+});
 
 /** Joiner words skipped when forming an acronym ("Bank of the Delta" -> "bd"). */
 export const ACRONYM_SKIP: ReadonlySet<string> = new Set([
@@ -695,7 +704,7 @@ export const CONTRASTING_WORDS: Readonly<Record<string, readonly [string, string
   put("age", "new", ["new", "nouveau", "nouvelle", "nuevo", "nueva", "neu", "novo", "nova"]);
   put("ring", "inner", ["inner"]);
   put("ring", "outer", ["outer"]);
-  return out;
+  return table(out);
 })();
 
 /**
@@ -703,9 +712,9 @@ export const CONTRASTING_WORDS: Readonly<Record<string, readonly [string, string
  * or "New" ("N. Dak." North Dakota, "W. Va." West Virginia, "N. Mex." New Mexico). Common practice
  * of press and postal abbreviations (from memory). Read only beside a word cut off by a period.
  */
-export const COMPASS_INITIALS: Readonly<Record<string, readonly string[]>> = {
+export const COMPASS_INITIALS: Readonly<Record<string, readonly string[]>> = table({
   n: ["north", "new"],
   s: ["south"],
   e: ["east"],
   w: ["west"],
-};
+});
