@@ -173,9 +173,25 @@ export const CONTRACTION_MATCH_CREDIT = 0.9;
  */
 export const PET_NAME_MATCH_CREDIT = CONTRACTION_MATCH_CREDIT;
 
+/** Each pet form and each name it stands for -> the other side of the pair (PET_NAMES, both ways). */
+const PET_PAIRS: ReadonlyMap<string, ReadonlySet<string>> = (() => {
+  const out = new Map<string, Set<string>>();
+  const put = (a: string, b: string) => {
+    let set = out.get(a);
+    if (set === undefined) out.set(a, (set = new Set()));
+    set.add(b);
+  };
+  for (const [pet, names] of Object.entries(PET_NAMES))
+    for (const name of names) {
+      put(pet, name);
+      put(name, pet);
+    }
+  return out;
+})();
+
 /** True when one token is a pet form of the other (PET_NAMES). */
 function petForms(x: string, y: string): boolean {
-  return (PET_NAMES[x]?.includes(y) ?? false) || (PET_NAMES[y]?.includes(x) ?? false);
+  return PET_PAIRS.get(x)?.has(y) ?? false;
 }
 
 /**
