@@ -177,9 +177,9 @@ export const PET_NAME_MATCH_CREDIT = CONTRACTION_MATCH_CREDIT;
 const PET_PAIRS: ReadonlyMap<string, ReadonlySet<string>> = (() => {
   const out = new Map<string, Set<string>>();
   const put = (a: string, b: string) => {
-    let set = out.get(a);
-    if (set === undefined) out.set(a, (set = new Set()));
+    const set = out.get(a) ?? new Set<string>();
     set.add(b);
+    out.set(a, set);
   };
   for (const [pet, names] of Object.entries(PET_NAMES))
     for (const name of names) {
