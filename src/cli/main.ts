@@ -259,7 +259,9 @@ export function program(): Command {
   readerOptions(
     p
       .command("tune")
-      .description("fit feature weights and choose threshold and margin on a labeled link set, keeping the defaults where nothing fitted does better held out")
+      .description(
+        "fit feature weights and choose threshold and margin on a labeled link set, keeping the defaults where nothing fitted does better held out",
+      )
       .requiredOption("--kb <kb>", "KB file")
       .requiredOption("--gold <file>", "labeled link set")
       .requiredOption("--out <config>", "config file to write (JSON)")
