@@ -78,40 +78,37 @@ export function keyCredit(norm: NormalizedName, alias: AliasRow, person: boolean
 }
 
 /**
- * Legal forms a firm's name gains or loses while it stays one firm: those saying it is
- * incorporated, canonical and as a closing aside writes them ("(Limited)"), and "& Co.". The
- * same firm is written with and without them as it is registered or reported: "Pell & Sons",
- * "Pell & Sons, Ltd.", "Pell, Sons & Co.".
+ * Legal forms that say a firm is incorporated, canonical and as a closing aside writes them
+ * ("(Limited)"): the same firm is written with and without them as it is registered or
+ * reported, so "Pell & Sons" and "Pell & Sons, Ltd." do not differ by them.
  */
-const ADDED_LEGAL_WORDS: ReadonlySet<string> = new Set([
+const INCORPORATION_WORDS: ReadonlySet<string> = new Set([
   "ltd",
   "limited",
   "inc",
   "incorporated",
   "plc",
   "llc",
-  "co",
 ]);
 
-/** True when qualifier `more` holds every word of `less` and adds only ADDED_LEGAL_WORDS. */
-function addsOnlyLegalWords(more: readonly string[], less: readonly string[]): boolean {
-  for (const w of less) if (!more.includes(w)) return false;
-  for (const w of more) if (!less.includes(w) && !ADDED_LEGAL_WORDS.has(w)) return false;
-  return true;
+/** A qualifier's words less the incorporation forms (INCORPORATION_WORDS). */
+function withoutIncorporation(qualifier: string): string {
+  return qualifier
+    .split(" ")
+    .filter((w) => !INCORPORATION_WORDS.has(w))
+    .join(" ");
 }
 
 /**
  * True when two names' qualifiers tell them apart: both present and different ("& Co." against
  * "Ltd.", "(British)" against "(U.S.)", "Republic of" against "Democratic People's Republic of",
- * where the longer one saying more is what tells the two apart), unless one is the other plus
- * legal words a firm gains as it grows or incorporates ("& Sons" against "& Sons, Ltd." or "Sons
- * & Co."): then they count as one-sided.
+ * where the longer one saying more is what tells the two apart), unless they are the same but
+ * for an incorporation form on one side ("& Sons" against "& Sons, Ltd."): then one-sided.
  */
 function qualifiersConflict(x: string, y: string): boolean {
   if (x === "" || y === "" || x === y) return false;
-  const wx = x.split(" ");
-  const wy = y.split(" ");
-  return !(addsOnlyLegalWords(wx, wy) || addsOnlyLegalWords(wy, wx));
+  const bareX = withoutIncorporation(x);
+  return bareX === "" || bareX !== withoutIncorporation(y);
 }
 
 export interface NameMatch {
