@@ -78,37 +78,12 @@ export function keyCredit(norm: NormalizedName, alias: AliasRow, person: boolean
 }
 
 /**
- * Legal forms that say a firm is incorporated, canonical and as a closing aside writes them
- * ("(Limited)"): the same firm is written with and without them as it is registered or
- * reported, so "Pell & Sons" and "Pell & Sons, Ltd." do not differ by them.
- */
-const INCORPORATION_WORDS: ReadonlySet<string> = new Set([
-  "ltd",
-  "limited",
-  "inc",
-  "incorporated",
-  "plc",
-  "llc",
-]);
-
-/** A qualifier's words less the incorporation forms (INCORPORATION_WORDS). */
-function withoutIncorporation(qualifier: string): string {
-  return qualifier
-    .split(" ")
-    .filter((w) => !INCORPORATION_WORDS.has(w))
-    .join(" ");
-}
-
-/**
  * True when two names' qualifiers tell them apart: both present and different ("& Co." against
  * "Ltd.", "(British)" against "(U.S.)", "Republic of" against "Democratic People's Republic of",
- * where the longer one saying more is what tells the two apart), unless they are the same but
- * for an incorporation form on one side ("& Sons" against "& Sons, Ltd."): then one-sided.
+ * where the longer one saying more is what tells the two apart).
  */
 function qualifiersConflict(x: string, y: string): boolean {
-  if (x === "" || y === "" || x === y) return false;
-  const bareX = withoutIncorporation(x);
-  return bareX === "" || bareX !== withoutIncorporation(y);
+  return x !== "" && y !== "" && x !== y;
 }
 
 export interface NameMatch {
