@@ -12,7 +12,6 @@ import {
   LEGAL_FORMS,
   MALE_GIVEN_NAMES,
   MALE_HONORIFICS,
-  PET_NAMES,
 } from "../normalize/lexicon.js";
 import { abbreviates, acronymOfTokens, type NormalizedName } from "../normalize/name.js";
 import { ocrFold } from "../normalize/ocr.js";
@@ -23,6 +22,8 @@ import {
   initialsCompatible,
   jaroWinkler,
   levenshteinSimilarity,
+  petForms,
+  petFormsOfOneName,
   tokenSetSimilarity,
 } from "./name-similarity.js";
 
@@ -292,17 +293,6 @@ export function nameMatch(
     if (l > lev) lev = l;
     if (t > tok) tok = t;
     const keyEqual = norm.key === a.key;
-    if (personLike && !keyEqual && exact < SOLE_SURNAME_CREDIT && soleSurname(norm, a, words)) {
-      // "Lumb" for "James Thomas Lumb", the table's only person of that name.
-      jw = 1;
-      lev = 1;
-      tok = 1;
-      bestAlias = a;
-      wordsAlike = true;
-      exact = SOLE_SURNAME_CREDIT;
-      keyKind = "surname";
-      continue;
-    }
     const coreEqual = !keyEqual && cores && sameTokens(mentionSplit!.core, aliasSplit!.core);
     const shortForm =
       keyEqual || coreEqual || personLike || exact >= ONE_SIDED_QUALIFIER_CREDIT
@@ -314,11 +304,19 @@ export function nameMatch(
             cores ? aliasSplit!.core : a.tokens,
             words,
           );
+    // A person's name never loses words, but a surname alone may name the table's only bearer
+    // ("Lumb" for "James Thomas Lumb"); other names may have words written short.
     const shortKind =
       shortForm ??
-      (!keyEqual && !personLike && exact < ONE_SIDED_QUALIFIER_CREDIT && abbreviatedFrom(norm, a.tokens)
-        ? "abbreviated"
-        : null);
+      (keyEqual || exact >= ONE_SIDED_QUALIFIER_CREDIT
+        ? null
+        : personLike
+          ? soleSurname(norm, a, words)
+            ? "surname"
+            : null
+          : abbreviatedFrom(norm, a.tokens)
+            ? "abbreviated"
+            : null);
     if (keyEqual) {
       const credit = keyCredit(norm, a, personLike);
       if (credit > exact || keyKind !== "exact") {
@@ -334,8 +332,9 @@ export function nameMatch(
         keyKind = "core";
       }
     } else if (shortKind !== null) {
-      // A name less words that still point at this entry only, or its words some written short:
-      // as strong as a name with a one-sided qualifier.
+      // A name less words that still point at this entry only, its words some written short, or a
+      // person's sole surname: as strong as a name with a one-sided qualifier (SOLE_SURNAME_CREDIT
+      // is that credit).
       jw = 1;
       lev = 1;
       tok = 1;
@@ -582,13 +581,7 @@ function givenNamesAgree(a: string, b: string): boolean {
   if (jaroWinkler(a, b) >= GIVEN_NAME_SPELLING_JW) return true;
   // Misread in print: "Emest" for Ernest, "Eclith" for Edith, "Arnbrose" for Ambrose.
   if (jaroWinkler(ocrFold(a), ocrFold(b)) >= GIVEN_NAME_SPELLING_JW) return true;
-  const pa = PET_NAMES[a];
-  const pb = PET_NAMES[b];
-  return (
-    (pa?.includes(b) ?? false) ||
-    (pb?.includes(a) ?? false) ||
-    (pa !== undefined && pb !== undefined && pa.some((x) => pb.includes(x)))
-  );
+  return petForms(a, b) || petFormsOfOneName(a, b);
 }
 
 /**

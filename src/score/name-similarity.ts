@@ -190,8 +190,15 @@ const PET_PAIRS: ReadonlyMap<string, ReadonlySet<string>> = (() => {
 })();
 
 /** True when one token is a pet form of the other (PET_NAMES). */
-function petForms(x: string, y: string): boolean {
+export function petForms(x: string, y: string): boolean {
   return PET_PAIRS.get(x)?.has(y) ?? false;
+}
+
+/** True when two tokens are pet forms of one name ("hal" and "harry", both Henry's). */
+export function petFormsOfOneName(x: string, y: string): boolean {
+  const nx = PET_NAMES[x];
+  const ny = PET_NAMES[y];
+  return nx !== undefined && ny !== undefined && nx.some((name) => ny.includes(name));
 }
 
 /**
