@@ -195,25 +195,30 @@ class CandidateWords implements WordEvidence {
         df = d;
       }
     }
+    return this.noOtherCarrier(rarest, df, (eid) => this.kb.names.hasNameWithAll(eid, tokens));
+  }
+
+  soleBearer(t: string): boolean {
+    return this.noOtherCarrier(
+      t,
+      this.kb.tokenDf(t),
+      (eid) => this.kb.hot.classOf(eid) === "person" && this.kb.names.hasNameWithAll(eid, [t]),
+    );
+  }
+
+  /**
+   * True when no entity but this one, among the carriers of word `t` (carried by `df` entities'
+   * names), satisfies `holds`; false when more than ALONE_MAX_CARRIERS carry it, or it is no
+   * single word of the word index, since then the answer is not known.
+   */
+  private noOtherCarrier(t: string, df: number, holds: (eid: number) => boolean): boolean {
     if (df > ALONE_MAX_CARRIERS) return false;
-    const words = ftsWords(rarest);
+    const words = ftsWords(t);
     if (words.length !== 1) return false;
     return !this.kb.hot.postings.someCarrier(
       words[0]!,
       ALONE_MAX_CARRIERS,
-      (eid) => eid !== this.eid && this.kb.names.hasNameWithAll(eid, tokens),
-    );
-  }
-
-  soleBearer(t: string): boolean {
-    if (this.kb.tokenDf(t) > ALONE_MAX_CARRIERS) return false;
-    const words = ftsWords(t);
-    if (words.length !== 1) return false;
-    const hot = this.kb.hot;
-    return !hot.postings.someCarrier(
-      words[0]!,
-      ALONE_MAX_CARRIERS,
-      (eid) => eid !== this.eid && hot.classOf(eid) === "person" && this.kb.names.hasNameWithAll(eid, [t]),
+      (eid) => eid !== this.eid && holds(eid),
     );
   }
 
