@@ -4,7 +4,7 @@ import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { type Kb, openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
-import { type ReadWarning, warningLine } from "../read/warnings.js";
+import { printWarning, type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
@@ -40,15 +40,10 @@ export interface EvalOptions
   k?: number;
 }
 
-/** Where eval and tune report what does not stop them: stderr, as the CLI's other warnings. */
-const stderrWarning = (m: string) => {
-  process.stderr.write(`hawser: warning: ${m}\n`);
-};
-
 export async function readLabeled(
   file: string,
   options: Parameters<typeof readerOptions>[0] = {},
-  warn: (message: string) => void = stderrWarning,
+  warn: (message: string) => void = printWarning,
 ): Promise<LabeledMention[]> {
   const out: LabeledMention[] = [];
   const onWarning = (w: ReadWarning) => warn(warningLine(w));
@@ -70,7 +65,7 @@ export function warnUnknownGold(
   kb: Kb,
   gold: readonly LabeledMention[],
   file: string,
-  warn: (message: string) => void = stderrWarning,
+  warn: (message: string) => void = printWarning,
 ): number {
   const unknown = gold.filter((m) => m.gold !== null && kb.eidOf(m.gold) === undefined);
   if (unknown.length > 0) {

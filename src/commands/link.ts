@@ -4,7 +4,7 @@ import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
 import { type LinkerOptions, createLinker } from "../link/linker.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
 import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
-import { warningLine } from "../read/warnings.js";
+import { printWarning, warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { CandidatePath, LinkRow } from "../types.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
@@ -112,7 +112,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
   if (options.out !== undefined) checkOutputFile(options.out, "--out");
   const kb = openKb(options.kb);
   const warnings: string[] = [];
-  const warn = options.warn ?? ((m: string) => process.stderr.write(`hawser: warning: ${m}\n`));
+  const warn = options.warn ?? printWarning;
   const note = (m: string) => {
     warnings.push(m);
     warn(m);

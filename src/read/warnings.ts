@@ -19,3 +19,8 @@ export type WarningHandler = (warning: ReadWarning) => void;
 export function warningLine(w: ReadWarning): string {
   return `${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`;
 }
+
+/** The command line's report of a warning: one line on stderr, "hawser: warning: ...". */
+export function printWarning(message: string): void {
+  process.stderr.write(`hawser: warning: ${message}\n`);
+}
