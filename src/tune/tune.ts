@@ -172,11 +172,22 @@ function runProcedure(
     return { config, converged: fit.converged };
   }
   if (procedure === "defaults") return { config: DEFAULTS_CONFIG, converged: true };
-  const swept = sweep(train, DEFAULT_WEIGHTS, { objective: opts.objective, minPrecision: opts.minPrecision });
+  return { config: sweptDefaultWeights(train, opts, where, notes).config, converged: true };
+}
+
+/** The default weights with the operating point swept on `data` ("default-weights"). */
+function sweptDefaultWeights(
+  data: readonly ScoredMention[],
+  opts: { objective: Objective; minPrecision: number | undefined },
+  where: string,
+  notes: string[],
+): { config: LinkConfig; point: OperatingPoint; sweep: SweepResult } {
+  const swept = sweep(data, DEFAULT_WEIGHTS, { objective: opts.objective, minPrecision: opts.minPrecision });
   const point = pointOf(swept, where, notes);
   return {
     config: { weights: DEFAULT_WEIGHTS, threshold: point.threshold, minMargin: point.minMargin },
-    converged: true,
+    point,
+    sweep: swept,
   };
 }
 
@@ -191,17 +202,12 @@ function operatingPointOf(
   opts: { objective: Objective; minPrecision: number | undefined },
   notes: string[],
 ): { config: LinkConfig; point: OperatingPoint; sweep: SweepResult } {
-  const sweepOpts = { objective: opts.objective, minPrecision: opts.minPrecision };
-  if (procedure === "default-weights") {
-    const swept = sweep(data, DEFAULT_WEIGHTS, sweepOpts);
-    const point = pointOf(swept, "all data", notes);
-    return {
-      config: { weights: DEFAULT_WEIGHTS, threshold: point.threshold, minMargin: point.minMargin },
-      point,
-      sweep: swept,
-    };
-  }
-  const swept = sweep(data, DEFAULT_WEIGHTS, { ...sweepOpts, margins: [DEFAULT_MIN_MARGIN] });
+  if (procedure === "default-weights") return sweptDefaultWeights(data, opts, "all data", notes);
+  const swept = sweep(data, DEFAULT_WEIGHTS, {
+    objective: opts.objective,
+    minPrecision: opts.minPrecision,
+    margins: [DEFAULT_MIN_MARGIN],
+  });
   let point = swept.curve[0]!;
   for (const p of swept.curve)
     if (Math.abs(p.threshold - DEFAULT_THRESHOLD) < Math.abs(point.threshold - DEFAULT_THRESHOLD)) point = p;
