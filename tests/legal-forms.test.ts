@@ -16,7 +16,12 @@ describe("legal forms of other countries' registers", () => {
       ["Pellow Shipping Sp. z o.o.", "pellow shipping"],
       ["Wexcombe Timber spol. s r.o.", "wexcombe timber"],
       ["Naviera Stenmouth S.A. de C.V.", "naviera stenmouth"],
-      ["Ambry Holdings Sdn. Bhd.", "ambry holdings"],
+      ["Ambry Holdings Sdn. Bhd.", "ambry"],
+      ["Stenmouth Lines Group Q.C.S.C.", "stenmouth lines"],
+      ["Ekerby Air B.S.C.(c)", "ekerby air"],
+      ["Wexcombe Timber A/S", "wexcombe timber"],
+      ["Pellow Shipping, a.s.", "pellow shipping"],
+      ["Harrow Marine PT", "harrow marine"],
       ["Harrow Marine Pte Ltd", "harrow marine"],
       ["Kell Rederi AB", "kell rederi"],
       ["Tolleby Trading GmbH & Co. KG", "tolleby trading"],
@@ -33,6 +38,10 @@ describe("legal forms of other countries' registers", () => {
     expect(key("JSC")).toBe("jsc");
     expect(key("Pt. Ambry Ice Company")).toBe("port ambry ice");
     expect(key("Harrowmouth Pte")).toBe("harrowmouth pointe");
+    // "As" and "Pt" are legal forms only as the name's last words ("A/S", "a.s.", Indonesian PT).
+    expect(key("Pell As Agents")).toBe("pell as agents");
+    expect(key("PT Ambry Ice")).toBe("port ambry ice");
+    expect(key("Harrow Marine A/S Ltd")).toBe("harrow marine");
     // Kept in the full form, so two forms still tell two firms apart.
     expect(normalizeName("Pellow Shipping Sp. z o.o.", "organization").full).toBe("pellow shipping spzoo");
   });
@@ -49,6 +58,8 @@ describe("a firm given with another of its names", () => {
     );
     expect(splitTradeName("Pellow & Co. formerly Pellow & Sons")?.alsoNamed).toBe("Pellow & Sons");
     expect(splitTradeName("d/b/a Wend Valley Mills")).toBeNull();
+    // Filings also close the marker with a slash.
+    expect(splitTradeName("Kell Brothers AG d/b/a/ Kell")?.alsoNamed).toBe("Kell");
     // "aka" alone is a word of names; only its spelled-out and dotted forms mark another name.
     expect(splitTradeName("Tanaka Aka Works")).toBeNull();
     expect(key("Kell Brothers Ltd d/b/a Wend Valley Mills")).toBe("kell");

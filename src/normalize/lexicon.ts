@@ -310,7 +310,10 @@ export const GIVEN_NAME_ABBREVIATIONS: Readonly<Record<string, string>> = table(
  * S.p.A., S.r.l.; Dutch and Belgian N.V., B.V., BVBA; Nordic AB, Oy, Oyj, ASA, hf.; Czech and
  * Slovak s.r.o., a.s.; Hungarian Kft., Zrt., Nyrt.; Balkan d.o.o., d.d., OOD, EOOD; Baltic SIA,
  * UAB; Russian and neighbouring OOO, OAO, ZAO, PAO, JSC and its variants; Malaysian Bhd.,
- * Indonesian Tbk., Japanese K.K.; Australian, Singaporean and Indian Pty, Pte, Pvt.
+ * Indonesian Tbk., Japanese K.K.; Australian, Singaporean and Indian Pty, Pte, Pvt.; Gulf Q.S.C.,
+ * Q.C.S.C., B.S.C., K.S.C., K.S.C.P., S.A.O.G., S.A.O.C., W.L.L., Jordanian P.S.C. And words of a
+ * firm's structure that registers add to the name in use: "Group", "Holding(s)" ("Qatar Airways
+ * Group Q.C.S.C." for Qatar Airways; common practice of company-name matching).
  */
 export const LEGAL_FORMS: Readonly<Record<string, string>> = table({
   co: "co",
@@ -386,7 +389,31 @@ export const LEGAL_FORMS: Readonly<Record<string, string>> = table({
   tbk: "tbk",
   kk: "kk",
   ltee: "ltd",
+  qsc: "qsc",
+  qcsc: "qcsc",
+  bsc: "bsc",
+  ksc: "ksc",
+  kscp: "kscp",
+  saog: "saog",
+  saoc: "saoc",
+  wll: "wll",
+  psc: "psc",
+  group: "group",
+  holding: "holding",
+  holdings: "holding",
   and: "and",
+});
+
+/**
+ * Legal forms that are also words or abbreviations of another sense, read as legal forms only as
+ * a firm name's last words: Danish and Norwegian A/S and AS, Czech and Slovak a.s. (all "as" once
+ * folded: "Air Greenland A/S", "Smartwings, a.s."), Indonesian PT written after the name
+ * ("Sriwijaya Air PT"; before a name "Pt." is Port). From memory; common practice of
+ * company-name matching.
+ */
+export const CLOSING_LEGAL_FORMS: Readonly<Record<string, string>> = table({
+  as: "as",
+  pt: "pt",
 });
 
 /**
@@ -402,6 +429,7 @@ export const LEGAL_FORM_PHRASES: ReadonlyArray<readonly [readonly string[], stri
   [["sp", "zoo"], "spzoo"],
   [["spol", "sro"], "sro"],
   [["sh", "pk"], "shpk"],
+  [["bsc", "c"], "bsc"],
   [["sdn", "bhd"], "sdnbhd"],
   [["pte", "ltd"], "pte"],
   [["pte", "limited"], "pte"],

@@ -12,6 +12,7 @@ import {
   GENERATIONAL,
   GIVEN_NAME_ABBREVIATIONS,
   HONORIFICS,
+  CLOSING_LEGAL_FORMS,
   LEADING_LEGAL_FORMS,
   LEGAL_FORM_PHRASES,
   LEGAL_FORMS,
@@ -27,7 +28,7 @@ import {
 import { ocrFold } from "./ocr.js";
 
 /** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
-export const NORMALIZER_VERSION = "5";
+export const NORMALIZER_VERSION = "6";
 
 export interface NormalizedName {
   /** Every folded token of the input, nothing removed. */
@@ -331,7 +332,7 @@ function initialsFirst(core: string[]): string[] {
  * abbreviations (common practice of company filings).
  */
 const TRADE_NAME_MARKER =
-  /\s*,?\s+(?:d\/b\/a|d\.b\.a\.?|dba|t\/a|trading\s+as|doing\s+business\s+as|a\/k\/a|a\.k\.a\.?|also\s+known\s+as|f\/k\/a|f\.k\.a\.?|fka|formerly\s+known\s+as|formerly)\s+/i;
+  /\s*,?\s+(?:d\/b\/a\/?|d\.b\.a\.?|dba|t\/a|trading\s+as|doing\s+business\s+as|a\/k\/a|a\.k\.a\.?|also\s+known\s+as|f\/k\/a|f\.k\.a\.?|fka|formerly\s+known\s+as|formerly)\s+/i;
 
 /**
  * A name given with another name of the same firm ("Jubba Airways Limited d/b/a Jubba Airways",
@@ -373,6 +374,7 @@ const LEXICON_SHORT_WORDS: ReadonlySet<string> = new Set([
   ...Object.keys(GIVEN_NAME_ABBREVIATIONS),
   ...Object.keys(GENERATIONAL),
   ...Object.keys(LEGAL_FORMS),
+  ...Object.keys(CLOSING_LEGAL_FORMS),
   ...Object.keys(PLACE_ABBREVIATIONS),
   ...Object.keys(DESIGNATOR_ABBREVIATIONS),
 ]);
@@ -441,15 +443,38 @@ function leadingLegalForm(tokens: readonly string[]): number {
   return n < tokens.length ? n : 0;
 }
 
+/**
+ * Where a firm name's closing legal forms start (see CLOSING_LEGAL_FORMS): the index of the first
+ * of the trailing tokens that are all legal forms, one of them at least a closing one; the
+ * tokens' length when there is none.
+ */
+function closingLegalStart(tokens: readonly string[]): number {
+  let start = tokens.length;
+  let closing = false;
+  while (start > 1) {
+    const t = tokens[start - 1]!;
+    if (CLOSING_LEGAL_FORMS[t] !== undefined) closing = true;
+    else if (legalFormOf(t) === undefined) break;
+    start--;
+  }
+  return closing ? start : tokens.length;
+}
+
 function stripOrganization(tokens: string[]): Stripped {
   const core: string[] = [];
   const legal: string[] = [];
   const lead = leadingLegalForm(tokens);
   if (lead > 0) legal.push(legalPhraseAt(tokens, 0)?.[1] ?? tokens[0]!);
+  const closing = closingLegalStart(tokens);
   for (let i = lead; i < tokens.length; i++) {
     const t = tokens[i]!;
     // Legal forms are only stripped after the first core word ("Company of Watermen" keeps its head).
     if (core.length > 0) {
+      const closingForm = i >= closing ? CLOSING_LEGAL_FORMS[t] : undefined;
+      if (closingForm !== undefined) {
+        legal.push(closingForm);
+        continue;
+      }
       const phrase = legalPhraseAt(tokens, i);
       if (phrase !== null) {
         legal.push(phrase[1]);
