@@ -2,10 +2,10 @@
  * The commands as library calls on the bundled sample archive (kb-samples/): eval, tune (with its
  * config and report), the KB fingerprint check, span-aligned evaluation, agreement, and the demo.
  */
-import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { agree } from "../src/commands/agree.js";
 import { SAMPLES_DIR } from "../src/commands/demo.js";
 import { evaluate, readLabeled, warnUnknownGold } from "../src/commands/evaluate.js";
@@ -19,6 +19,7 @@ import { createLinker } from "../src/link/linker.js";
 import { InputError } from "../src/util/errors.js";
 
 const dir = mkdtempSync(join(tmpdir(), "hawser-commands-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const kb = join(dir, "gazette.kb");
 const gold = join(SAMPLES_DIR, "gazette-gold.jsonl");
 

@@ -17,7 +17,7 @@
  * 4. The other way round: `countries-list`' names (English, native names in Latin script, and its
  *    aliases, among them former names such as "Gold Coast") against a table of `country-list`'s.
  */
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -154,6 +154,7 @@ beforeAll(async () => {
   worldToIso = await linkCountries(dir, "iso", isoAll, worldAll);
   isoStyleToList = await linkCountries(dir, "list", list, isoStyle);
   listToIsoStyle = await linkCountries(dir, "isostyle", isoStyle, list);
+  rmSync(dir, { recursive: true, force: true });
 });
 
 describe("linking i18n-iso-countries names to a world-countries table", () => {

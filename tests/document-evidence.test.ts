@@ -2,7 +2,7 @@
  * Document-level evidence: same-text grouping, short forms and defined acronyms, each with its
  * reason code and its switch. Invented gazette entities.
  */
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -24,14 +24,17 @@ T1,Upper Stenmoor,town,,Moorland village above the falls,300
 T2,Stenmoor,town,,Market town on the Sten,3000
 `;
 
+const dir = mkdtempSync(join(tmpdir(), "hawser-doc-"));
 let kb: Kb;
 beforeAll(async () => {
-  const dir = mkdtempSync(join(tmpdir(), "hawser-doc-"));
   writeFileSync(join(dir, "t.csv"), TABLE);
   await buildKb({ table: join(dir, "t.csv"), out: join(dir, "t.kb") });
   kb = openKb(join(dir, "t.kb"));
 });
-afterAll(() => kb.close());
+afterAll(() => {
+  kb.close();
+  rmSync(dir, { recursive: true, force: true });
+});
 
 const codes = (r: LinkRow) => r.reasons.map((x) => x.code);
 

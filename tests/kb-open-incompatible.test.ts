@@ -1,5 +1,5 @@
 /** A file that carries hawser's meta rows but not its tables is refused with a clear message. */
-import { mkdtempSync } from "node:fs";
+import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import Database from "better-sqlite3";
@@ -11,7 +11,8 @@ import { InputError } from "../src/util/errors.js";
 
 describe("opening a KB whose tables do not match", () => {
   it("fails with an InputError naming the file and asking for a rebuild", () => {
-    const file = join(mkdtempSync(join(tmpdir(), "hawser-incompat-")), "old.kb");
+    const dir = mkdtempSync(join(tmpdir(), "hawser-incompat-"));
+    const file = join(dir, "old.kb");
     const db = new Database(file);
     db.exec("CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL)");
     const put = db.prepare("INSERT INTO meta (key, value) VALUES (?, ?)");
@@ -28,5 +29,6 @@ describe("opening a KB whose tables do not match", () => {
     expect(error).toBeInstanceOf(InputError);
     expect((error as InputError).file).toBe(file);
     expect((error as Error).message).toMatch(/damaged or was built by an incompatible hawser.*rebuild it/);
+    rmSync(dir, { recursive: true, force: true });
   });
 });
