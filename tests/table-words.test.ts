@@ -51,6 +51,14 @@ describe("contractions", () => {
     expect(genericWordFor("ashby", generic)).toBeNull();
     expect(genericWordFor("intl", new Set())).toBeNull();
   });
+
+  it("let a singular or plural stand for the table's generic word", () => {
+    // OpenFlights' airlines: "Iran Aseman Airline" for the table's "Iran Aseman Airlines".
+    const generic = new Set(["airlines", "landing"]);
+    expect(genericWordFor("airline", generic)).toBe("airlines");
+    expect(genericWordFor("landings", generic)).toBe("landing");
+    expect(genericWordFor("airliner", generic)).toBeNull();
+  });
 });
 
 describe("genericWordsOf", () => {

@@ -38,13 +38,18 @@ export const MIN_GENERIC_WORD_LENGTH = 3;
 export const NO_GENERIC_WORDS: ReadonlySet<string> = new Set();
 
 /**
- * The generic word a name token stands for, or null: the word itself, or a generic word that is
- * a contraction of it or that it contracts ("international" for the table's "intl", "ldg" for its
- * "landing"): a contraction keeps the first and last letters and at least three letters, in order.
+ * The generic word a name token stands for, or null: the word itself, its singular or plural
+ * with a closing "s" ("airline" for the table's "airlines", "island" for "islands"), or a generic
+ * word that is a contraction of it or that it contracts ("international" for the table's "intl",
+ * "ldg" for its "landing"): a contraction keeps the first and last letters and at least three
+ * letters, in order.
  */
 export function genericWordFor(token: string, generic: ReadonlySet<string>): string | null {
   if (generic.size === 0) return null;
   if (generic.has(token)) return token;
+  const plural = `${token}s`;
+  if (generic.has(plural)) return plural;
+  if (token.endsWith("s") && generic.has(token.slice(0, -1))) return token.slice(0, -1);
   for (const g of generic) if (isContraction(g, token) || isContraction(token, g)) return g;
   return null;
 }
