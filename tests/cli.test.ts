@@ -4,8 +4,10 @@
  */
 import { spawn } from "node:child_process";
 import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { join } from "node:path";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { SAMPLES_DIR } from "../src/commands/demo.js";
 import { CSV_COLUMNS } from "../src/link/write.js";
 import { openKb } from "../src/kb/kb.js";
 import { SCHEMA_VERSION } from "../src/kb/schema.js";
@@ -163,6 +165,27 @@ describe("hawser link", () => {
         .split("\n")
         .map((l) => JSON.parse(l).mention),
     ).toEqual(["a1", "a2"]);
+  });
+
+  it("reads CoNLL from standard input as from a file, its tag scheme detected from what it reads", () => {
+    // Standard input cannot be read twice: the scheme is detected from its first sentences, held.
+    const conll = join(SAMPLES_DIR, "articles", "gazette.conll");
+    const piped = hawser(["link", "--kb", kb, "-", "--from", "conll"], t.dir, readFileSync(conll, "utf8"));
+    const named = hawser(["link", "--kb", kb, conll], t.dir);
+    expect(piped.status).toBe(0);
+    expect(named.status).toBe(0);
+    expect(piped.stdout.trim().split("\n").length).toBeGreaterThan(1000);
+    expect(piped.stdout).toBe(named.stdout);
+  });
+
+  it("fails cleanly on a bad line after many rows were written to --out (exit 1, no file, no stack trace)", () => {
+    const many = Array.from({ length: 3000 }, (_, i) => ({ id: `g${i}`, text: "Stenmoor", type: "LOC" }));
+    writeText(t.file("late-bad.jsonl"), `${jsonl(many)}{broken\n`);
+    const r = hawser(["link", "--kb", kb, "late-bad.jsonl", "--out", "late-bad-links.jsonl"], t.dir);
+    expect(r.status).toBe(1);
+    expect(r.stderr).toContain("late-bad.jsonl:3001: malformed JSON");
+    expect(r.stderr).not.toMatch(/ERR_STREAM|at .*node:internal/);
+    expect(filesLike("late-bad-links")).toEqual([]);
   });
 
   it("links against a KB another process holds open, and the KB can be rebuilt meanwhile", () => {

@@ -7,7 +7,7 @@ import { joinTokens } from "../src/read/detokenize.js";
 import { readMentions } from "../src/read/index.js";
 import type { ReadMention } from "../src/read/mention-row.js";
 import { chunkTags, detectScheme, parseScheme } from "../src/read/tags.js";
-import type { ReadWarning } from "../src/read/warnings.js";
+import { type ReadWarning, warningLine } from "../src/read/warnings.js";
 import { InputError, UsageError } from "../src/util/errors.js";
 import { collect, failure } from "./helpers/streams.js";
 
@@ -263,5 +263,19 @@ describe("readConll", () => {
     const file = fixture(["-DOCSTART- a", "Vell B-PER", "-DOCSTART- a", "Tull B-PER"].join("\n"));
     const error = await failure(readConll(file));
     expect(error.message).toContain(`${file}:3:`);
+  });
+});
+
+describe("warnings for people", () => {
+  it("name the file and line, and standard input as stdin", () => {
+    const w: ReadWarning = {
+      code: "ill-formed-tags",
+      file: "-",
+      line: 13,
+      count: 2,
+      message: "2 tag sequence(s)",
+    };
+    expect(warningLine(w)).toBe("stdin:13: 2 tag sequence(s)");
+    expect(warningLine({ ...w, file: "a.conll", line: undefined })).toBe("a.conll: 2 tag sequence(s)");
   });
 });

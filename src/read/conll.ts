@@ -2,12 +2,14 @@
  * Mentions from CoNLL-style token files (`.conll`, `.bio`, `.iob`): chunks of tagged tokens become
  * mentions with document, sentence, token offsets and sentence context. Streams one document at a
  * time. When no scheme is given the file is scanned once first to detect it (a second streaming
- * pass; memory stays at one document).
+ * pass; memory stays at one document). Standard input cannot be read twice: its scheme is detected
+ * from its first STDIN_DETECT_SENTENCES sentences, held until linking reads them.
  */
 
 import { InputError, UsageError } from "../util/errors.js";
-import { type ConllColumns, readConllEvents } from "./conll-lines.js";
+import { type ConllColumns, type ConllEvent, readConllEvents } from "./conll-lines.js";
 import { joinTokens } from "./detokenize.js";
+import { STDIN } from "./lines.js";
 import type { ReadMention } from "./mention-row.js";
 import { chunkParsed, type ParsedTag, parseScheme, SchemeDetector, type TagScheme } from "./tags.js";
 import type { ReadWarning, WarningHandler } from "./warnings.js";
@@ -46,20 +48,64 @@ interface DocumentState {
   sentences: Sentence[];
 }
 
-/** Group the file's events into sentences (for scheme detection). */
-async function detect(file: string, columns: ConllColumns): Promise<TagScheme> {
+/**
+ * Sentences of standard input read ahead to detect its tag scheme (it cannot be read twice): tens
+ * of thousands of tags, enough to see every tag kind a scheme uses; held in memory until linked.
+ */
+export const STDIN_DETECT_SENTENCES = 10_000;
+
+/**
+ * Detects the tag scheme from the events' sentences, reading at most `maxSentences` of them;
+ * returns the scheme and the events read, in order.
+ */
+async function detect(
+  events: AsyncIterator<ConllEvent>,
+  maxSentences: number,
+): Promise<{ scheme: TagScheme; read: ConllEvent[] }> {
   const detector = new SchemeDetector();
+  const read: ConllEvent[] = [];
   let tags: ParsedTag[] = [];
-  for await (const event of readConllEvents(file, columns)) {
+  let sentences = 0;
+  while (sentences < maxSentences) {
+    const next = await events.next();
+    if (next.done) break;
+    const event = next.value;
+    read.push(event);
     if (event.kind === "token") {
       tags.push(event.tag);
     } else if (tags.length > 0) {
       detector.add(tags);
       tags = [];
+      sentences++;
     }
   }
   if (tags.length > 0) detector.add(tags);
-  return detector.result();
+  return { scheme: detector.result(), read };
+}
+
+/** The events read ahead, then the rest of the stream. */
+async function* replay(read: ConllEvent[], rest: AsyncIterator<ConllEvent>): AsyncGenerator<ConllEvent> {
+  yield* read;
+  for (let next = await rest.next(); !next.done; next = await rest.next()) yield next.value;
+}
+
+/**
+ * The file's events and its tag scheme: given, detected in a first pass over a file, or detected
+ * from the first sentences of standard input (see STDIN_DETECT_SENTENCES).
+ */
+async function schemeAndEvents(
+  file: string,
+  columns: ConllColumns,
+  given: TagScheme | string | undefined,
+): Promise<{ scheme: TagScheme; events: AsyncGenerator<ConllEvent> }> {
+  if (given !== undefined) return { scheme: parseScheme(given), events: readConllEvents(file, columns) };
+  if (file !== STDIN) {
+    const { scheme } = await detect(readConllEvents(file, columns), Number.POSITIVE_INFINITY);
+    return { scheme, events: readConllEvents(file, columns) };
+  }
+  const events = readConllEvents(file, columns);
+  const { scheme, read } = await detect(events, STDIN_DETECT_SENTENCES);
+  return { scheme, events: replay(read, events) };
 }
 
 function checkContextSentences(value: number): number {
@@ -76,7 +122,7 @@ export async function* readConll(
 ): AsyncGenerator<ReadMention, ConllSummary> {
   const columns: ConllColumns = { tagColumn: options.tagColumn, tokenColumn: options.tokenColumn };
   const around = checkContextSentences(options.contextSentences ?? DEFAULT_CONTEXT_SENTENCES);
-  const scheme = options.scheme === undefined ? await detect(file, columns) : parseScheme(options.scheme);
+  const { scheme, events } = await schemeAndEvents(file, columns, options.scheme);
   const docIds = new Map<string, number>();
   let illFormed = 0;
   let firstIllLine: number | undefined;
@@ -130,7 +176,7 @@ export async function* readConll(
     sentence = { tokens: [], tags: [], lines: [] };
   };
 
-  for await (const event of readConllEvents(file, columns)) {
+  for await (const event of events) {
     if (event.kind === "token") {
       sentence.tokens.push(event.token);
       sentence.tags.push(event.tag);

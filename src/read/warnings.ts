@@ -1,5 +1,7 @@
 /** Non-fatal findings of the readers (e.g. ill-formed tag sequences), reported through `onWarning`. */
 
+import { STDIN } from "./lines.js";
+
 export interface ReadWarning {
   /** Stable code for programs: e.g. "ill-formed-tags". */
   code: string;
@@ -15,9 +17,10 @@ export interface ReadWarning {
 /** Callback receiving warnings as they are found. */
 export type WarningHandler = (warning: ReadWarning) => void;
 
-/** A warning as one line for people: "file:line: message". */
+/** A warning as one line for people: "file:line: message" (standard input, "-", named "stdin"). */
 export function warningLine(w: ReadWarning): string {
-  return `${w.file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`;
+  const file = w.file === STDIN ? "stdin" : w.file;
+  return `${file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`;
 }
 
 /** The command line's report of a warning: one line on stderr, "hawser: warning: ...". */

@@ -74,6 +74,9 @@ export class AtomicWriter {
   abort(): void {
     if (this.done) return;
     this.done = true;
+    // A write under way when the run failed ends on a destroyed stream, which reports it as an
+    // error event: the output is being thrown away, so that is expected, not a crash.
+    this.stream.on("error", () => {});
     this.stream.destroy();
     rmSync(this.tmp, { force: true });
   }
