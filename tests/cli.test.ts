@@ -188,6 +188,23 @@ describe("hawser link", () => {
     expect(filesLike("late-bad-links")).toEqual([]);
   });
 
+  it("removes the KB under construction when interrupted (exit 128 + the signal's number)", async () => {
+    const rows = Array.from({ length: 200_000 }, (_, i) => `E${i},Harbour Firm ${i} Ltd,firm`);
+    writeText(t.file("big.csv"), `id,name,type\n${rows.join("\n")}\n`);
+    const child = spawn(process.execPath, [CLI, "index", "big.csv", "--out", "big.kb"], { cwd: t.dir });
+    let stderr = "";
+    child.stderr.on("data", (d) => {
+      stderr += String(d);
+    });
+    const closed = new Promise<number | null>((resolve) => child.on("close", (code) => resolve(code)));
+    // Interrupted once the temporary KB exists, mid-build.
+    while (filesLike("big.kb.tmp").length === 0) await new Promise((r) => setTimeout(r, 20));
+    child.kill("SIGTERM");
+    expect(await closed).toBe(143);
+    expect(stderr).toContain("interrupted (SIGTERM)");
+    expect(filesLike("big.kb")).toEqual([]);
+  });
+
   it("links against a KB another process holds open, and the KB can be rebuilt meanwhile", () => {
     // The library keeps its read lock for as long as a KB is open (see Kb's constructor): other
     // readers and a rebuild (a new file renamed into place) must still go ahead.

@@ -5,6 +5,7 @@
  * field), 2 bad usage.
  */
 import { readFileSync } from "node:fs";
+import { constants as osConstants } from "node:os";
 import { Command, CommanderError, InvalidArgumentError, Option } from "commander";
 import { agree } from "../commands/agree.js";
 import { demo } from "../commands/demo.js";
@@ -19,6 +20,7 @@ import { createLinker } from "../link/linker.js";
 import { ALL_PATHS } from "../candidates/generate.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import type { CandidatePath } from "../types.js";
+import { removeUnfinished } from "../util/atomic-file.js";
 import { InputError, UsageError } from "../util/errors.js";
 
 const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as {
@@ -389,6 +391,19 @@ process.stdout.on("error", (e: NodeJS.ErrnoException) => {
   if (e.code === "EPIPE") process.exit(0);
   throw e;
 });
+
+/**
+ * Interrupted (Ctrl-C, a kill, a closed terminal): no `finally` block runs, so the temporary KB
+ * or links file under way is removed here, and the exit status says which signal it was (128 +
+ * its number, as shells report it).
+ */
+for (const signal of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
+  process.on(signal, () => {
+    removeUnfinished();
+    err(`hawser: interrupted (${signal}); nothing was written`);
+    process.exit(128 + osConstants.signals[signal]);
+  });
+}
 
 main(process.argv.slice(2)).then((code) => {
   process.exitCode = code;

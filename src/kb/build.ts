@@ -12,7 +12,7 @@ import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
 import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
 import { STDIN } from "../read/lines.js";
-import { checkOutputFile } from "../util/atomic-file.js";
+import { checkOutputFile, trackUnfinished } from "../util/atomic-file.js";
 import { InputError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
@@ -101,6 +101,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const labels = options.labels ?? new LabelMap();
   const tmp = join(dirname(options.out), `.${basename(options.out)}.tmp-${process.pid}-${Date.now()}`);
   const db = new Database(tmp);
+  const finished = trackUnfinished(tmp);
   let ok = false;
   try {
     // The temporary file is private until renamed, so durability pragmas buy nothing during the build.
@@ -174,6 +175,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       if (db.open) db.close();
       rmSync(tmp, { force: true });
     }
+    finished();
   }
 }
 

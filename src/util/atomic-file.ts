@@ -45,15 +45,43 @@ export function checkOutputFile(file: string, what: string): void {
  */
 export const OUTPUT_BUFFER_BYTES = 1 << 20;
 
+/** Temporary files being written (a KB under construction, links under way), by path. */
+const unfinished = new Set<string>();
+
+/**
+ * Records a temporary file as unfinished until the returned function is called (on rename or
+ * removal), so that an interrupted command line can remove it (see removeUnfinished).
+ */
+export function trackUnfinished(path: string): () => void {
+  unfinished.add(path);
+  return () => unfinished.delete(path);
+}
+
+/** Files SQLite may keep beside a database while writing it. */
+const SQLITE_SIDE_FILES = ["-journal", "-wal", "-shm"];
+
+/**
+ * Removes every unfinished temporary file, with SQLite's side files: the command line calls it
+ * when interrupted (Ctrl-C, a kill), which runs no `finally` block, so that nothing is left behind.
+ */
+export function removeUnfinished(): void {
+  for (const path of unfinished) {
+    for (const side of ["", ...SQLITE_SIDE_FILES]) rmSync(`${path}${side}`, { force: true });
+  }
+  unfinished.clear();
+}
+
 export class AtomicWriter {
   private readonly tmp: string;
   private readonly stream: WriteStream;
   private done = false;
+  private readonly finished: () => void;
 
   constructor(readonly target: string) {
     this.tmp = join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
     // Opened synchronously: the file exists when the constructor returns, so abort() always finds it.
     const fd = openSync(this.tmp, "w");
+    this.finished = trackUnfinished(this.tmp);
     this.stream = createWriteStream(this.tmp, { fd, encoding: "utf8", highWaterMark: OUTPUT_BUFFER_BYTES });
   }
 
@@ -67,6 +95,7 @@ export class AtomicWriter {
     this.stream.end();
     await once(this.stream, "finish");
     renameSync(this.tmp, this.target);
+    this.finished();
     this.done = true;
   }
 
@@ -79,6 +108,7 @@ export class AtomicWriter {
     this.stream.on("error", () => {});
     this.stream.destroy();
     rmSync(this.tmp, { force: true });
+    this.finished();
   }
 }
 
