@@ -21,6 +21,8 @@ beforeAll(async () => {
       "P4,Walter Ng,person,,clerk to the harbour board,3",
       "P5,Herbert Feather,person,,surgeon at Stenmouth,18",
       "P6,Mary Tattersall,person,,ship owner of Stenmouth,7",
+      "P7,Walter Imrie Spackman,person,W. I. Spackman,wharfinger at Harrowmouth,5",
+      "P8,Reuben Spackman,person,,ropemaker of Stenby,5",
     ].join("\n"),
     "hawser-surnames-",
   );
@@ -80,6 +82,25 @@ describe("a surname alone", () => {
     const r = link("Pell", "PER");
     expect(r.entity).toBeNull();
     expect(r.candidates.every((c) => c.features.exactKey === 0)).toBe(true);
+  });
+
+  it("leaves two bearers to context, however long their given names", () => {
+    // Compared with whole names, "Spackman" was nearer "W. I. Spackman" than "Reuben Spackman"
+    // (Jaro-Winkler 0.89 against 0.29) and linked the wharfinger on no evidence.
+    for (const text of ["Spackman", "Mr. Spackman"]) {
+      const r = link(text, "PER");
+      expect(r.entity, text).toBeNull();
+      expect(r.reasons[0]?.code, text).toBe("ambiguous");
+      for (const eid of ["P7", "P8"])
+        expect(r.candidates.find((c) => c.entity === eid)?.features.jaroWinkler, `${text} ${eid}`).toBe(1);
+    }
+    const told = table.linker.link({
+      id: "m",
+      text: "Spackman",
+      type: "PER",
+      context: "the Stenby ropemaker",
+    });
+    expect(told.entity).toBe("P8");
   });
 
   it("gets no credit for a given name or a short word", () => {

@@ -184,6 +184,11 @@ class CandidateWords implements WordEvidence {
     return this.kb.tokenDf(t) === 1;
   }
 
+  labelReadsPerson(): boolean {
+    const c = this.p!.info.compat;
+    return c.person >= Math.max(c.organization, c.location, c.other);
+  }
+
   alone(tokens: readonly string[]): boolean {
     if (tokens.length === 1) return this.unique(tokens[0]!);
     let rarest = tokens[0]!;

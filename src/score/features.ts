@@ -180,6 +180,11 @@ export interface WordEvidence {
   separates(words: readonly string[], atStart: boolean): boolean;
   /** No other person of the table has a name holding the word. */
   soleBearer(token: string): boolean;
+  /**
+   * The mention's label reads it as a person's name at least as readily as anything else (a
+   * person label, or no label): a firm's label on "Pell" names the firm, not one of the Pells.
+   */
+  labelReadsPerson(): boolean;
 }
 
 /**
@@ -285,6 +290,14 @@ export function nameMatch(
           : wordsNotToLeaveOut(norm.tokens, a.tokens, words);
       if (refused !== null) apartWords ??= refused;
       t = tokenOverlap(norm.tokens, a.tokens, refused === null);
+      // A surname alone spells the name's surname, whatever its given names: compared with the
+      // whole name, its similarity would fall with their length, and of two bearers the one with
+      // the shorter given names would win ("Spackman" took "W. I. Spackman" over "Reuben
+      // Spackman"). Equal for every bearer, the name leaves them to context.
+      if (personLike && surnameAlone(norm, a) && (words?.labelReadsPerson() ?? true)) {
+        j = 1;
+        l = 1;
+      }
     }
     if (j > jw) {
       jw = j;
@@ -552,18 +565,25 @@ function withKindWords(mention: readonly string[], alias: readonly string[], wor
 
 /**
  * True when a person's mention is a surname alone (one word, MIN_ATTESTED_WORD_LENGTH letters or
- * more, no initial) that ends the alias, a name of two words or more, and no other person of the
+ * more, no initial) that ends the alias, a name of two words or more: as written, or as OCR
+ * misreads it ("Cleg" for Clegg: doubled letters and look-alikes folded).
+ */
+function surnameAlone(norm: NormalizedName, alias: AliasRow): boolean {
+  if (norm.tokens.length !== 1 || alias.tokens.length < 2) return false;
+  const written = norm.tokens[0]!;
+  const surname = alias.tokens[alias.tokens.length - 1]!;
+  return (
+    written.length >= MIN_ATTESTED_WORD_LENGTH && (written === surname || norm.ocrKey === ocrFold(surname))
+  );
+}
+
+/**
+ * True when a person's mention is a surname alone (surnameAlone) and no other person of the
  * table has a name holding it (see SOLE_SURNAME_CREDIT).
  */
 function soleSurname(norm: NormalizedName, alias: AliasRow, words: WordEvidence | null): boolean {
-  if (words === null || norm.tokens.length !== 1 || alias.tokens.length < 2) return false;
-  const written = norm.tokens[0]!;
-  const surname = alias.tokens[alias.tokens.length - 1]!;
-  // As written, or as OCR misreads it ("Cleg" for Clegg: doubled letters and look-alikes folded).
   return (
-    written.length >= MIN_ATTESTED_WORD_LENGTH &&
-    (written === surname || norm.ocrKey === ocrFold(surname)) &&
-    words.soleBearer(surname)
+    words !== null && surnameAlone(norm, alias) && words.soleBearer(alias.tokens[alias.tokens.length - 1]!)
   );
 }
 
