@@ -241,7 +241,10 @@ export function program(): Command {
         .requiredOption("--gold <file>", "labeled link set: mentions plus gold (entity id or null)")
         .option("--predicted <file>", "link rows (JSONL) from another NER run, aligned to the gold spans")
         .addOption(
-          new Option("--span-match <mode>", "span alignment with --predicted").choices(["strict", "relaxed"]),
+          new Option("--span-match <mode>", "span alignment with --predicted (default strict)").choices([
+            "strict",
+            "relaxed",
+          ]),
         )
         .option("--k <k>", "k of candidate recall at k (default 3)", whole("--k", 1))
         .option("--json", "print the full report as JSON"),

@@ -104,7 +104,7 @@ export function resolveFormat(file: string, options: ReadMentionsOptions): Menti
     if (format === undefined) {
       throw new UsageError(
         `cannot tell the mentions format of "${file}" from its extension (known: ${extensionChoices()}); ` +
-          `pass from: ${MENTION_FORMATS.join(" | ")}`,
+          `give the format (--from on the command line): ${MENTION_FORMATS.join(" | ")}`,
       );
     }
   }

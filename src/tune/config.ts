@@ -223,7 +223,7 @@ export function readConfig(file: string, opts: ReadConfigOptions = {}): TunedCon
     throw new InputError(
       { file, field: "kb.fingerprint" },
       `this config was tuned on another KB (fingerprint ${config.kb.fingerprint}, ${config.kb.entities} entities) ` +
-        `but the KB given has fingerprint ${opts.kbFingerprint}; tune again on this KB, or force to use it anyway`,
+        `but the KB given has fingerprint ${opts.kbFingerprint}; tune again on this KB, or force its use (--force on the command line)`,
     );
   return config;
 }
