@@ -309,6 +309,22 @@ describe("hawser link", () => {
   });
 });
 
+describe("hawser agree", () => {
+  it("prints the label pairs the two files differ on, most frequent first", () => {
+    const m = (id: string, gold: string | null) => ({ id, text: "Stenmoor", type: "LOC", gold });
+    writeText(
+      t.file("agree-a.jsonl"),
+      jsonl([m("m1", "P01"), m("m2", "P01"), m("m3", null), m("m4", "T01")]),
+    );
+    writeText(t.file("agree-b.jsonl"), jsonl([m("m1", null), m("m2", null), m("m3", "P02"), m("m4", "T01")]));
+    const r = hawser(["agree", "agree-a.jsonl", "agree-b.jsonl"], t.dir);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toContain("mentions 4\n");
+    expect(r.stdout).toContain("  P01 -> NIL: 2\n  NIL -> P02: 1\n");
+    expect(r.stdout).not.toContain("T01 -> T01");
+  });
+});
+
 describe("hawser info", () => {
   it("prints the KB's facts as JSON", () => {
     const r = hawser(["info", kb], t.dir);

@@ -324,6 +324,7 @@ export function program(): Command {
         out(
           `mentions ${r.n}\nobserved agreement ${r.observed.toFixed(4)}\nchance agreement ${r.expected.toFixed(4)}\nCohen's kappa ${r.kappa.toFixed(4)}\ndisagreements ${r.disagreements.length}`,
         );
+        for (const line of differingPairLines(r.counts)) out(line);
         if (!o.out) for (const d of r.disagreements) out(JSON.stringify(d));
       }
     });
@@ -364,6 +365,24 @@ export function program(): Command {
       await demo({ ...(o.out ? { out: o.out } : {}), from: o.from, print: out });
     });
   return p;
+}
+
+/** Label pairs of `agree`'s text summary: the most frequent first, the rest counted (all with --json). */
+const AGREE_PAIRS_SHOWN = 20;
+
+/** The label pairs on which the two files differ, most frequent first, as lines for people. */
+function differingPairLines(
+  counts: ReadonlyArray<{ a: string | null; b: string | null; count: number }>,
+): string[] {
+  const differing = counts.filter((c) => c.a !== c.b);
+  if (differing.length === 0) return [];
+  const label = (c: string | null) => c ?? "NIL";
+  const lines = ["label pairs that differ (A -> B: mentions), most frequent first:"];
+  for (const c of differing.slice(0, AGREE_PAIRS_SHOWN))
+    lines.push(`  ${label(c.a)} -> ${label(c.b)}: ${c.count}`);
+  if (differing.length > AGREE_PAIRS_SHOWN)
+    lines.push(`  ... ${differing.length - AGREE_PAIRS_SHOWN} more pairs (--json lists every pair)`);
+  return lines;
 }
 
 export async function main(argv: string[]): Promise<number> {
