@@ -124,4 +124,14 @@ describe("evaluate", () => {
     expect(text).toContain("at 3");
     expect(text).toMatch(/missed link\s+2/);
   });
+
+  it("shows a figure with nothing to count as '-', not 0", () => {
+    // One gold link, linked right: no NIL in the gold nor predicted.
+    const one = evaluate([
+      { gold: gold("m1", "A", { type: "PER" }), predicted: row("m1", "A", [["A", 0.9]]) },
+    ]);
+    const all = formatEvalTable(one).split("\n")[2]!;
+    expect(all).toMatch(/^all\s+1\s+1\.000\s+1\.000\s+1\.000\s+1\.000\s+-\s+-$/);
+    expect(one.overall.nilPrecision).toBe(0);
+  });
 });

@@ -27,16 +27,27 @@ export function alignColumns(rows: readonly string[][]): string {
     .join("\n");
 }
 
+/**
+ * What the table shows for a fraction whose denominator is zero (no links predicted, no NIL in
+ * the gold...): it is undefined, not 0. The JSON report gives 0 there, with the counts beside it.
+ */
+const UNDEFINED_FRACTION = "-";
+
+/** A fraction of `denominator` items, or UNDEFINED_FRACTION when there are none. */
+function fractionOf(x: number, denominator: number): string {
+  return denominator === 0 ? UNDEFINED_FRACTION : fraction(x);
+}
+
 function figureRow(label: string, f: Figures): string[] {
   return [
     label,
     String(f.mentions),
     fraction(f.accuracy),
-    fraction(f.linkPrecision),
-    fraction(f.linkRecall),
-    fraction(f.linkF1),
-    fraction(f.nilPrecision),
-    fraction(f.nilRecall),
+    fractionOf(f.linkPrecision, f.predictedLinks),
+    fractionOf(f.linkRecall, f.goldLinks),
+    fractionOf(f.linkF1, f.predictedLinks + f.goldLinks),
+    fractionOf(f.nilPrecision, f.predictedNil),
+    fractionOf(f.nilRecall, f.goldNil),
   ];
 }
 
