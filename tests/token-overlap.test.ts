@@ -73,6 +73,7 @@ describe("linking with token overlap", () => {
     "R1,Tolley Valley Railway,firm,,line from Stenmouth up the Tolley,8",
     "R2,Tolley Railway Works,firm,,engine sheds at Carrow,8",
     "R3,N.A. Ropeworks,firm,,rope makers of Nether Ambry,4",
+    "R4,Stenning Grain Exchange,firm,S.G.E.,corn exchange,9",
     "T1,Quaybridge,town,,market town on the Tolley,30",
     "T2,Harrowmouth,town,,port at the river mouth,40",
     "",
@@ -92,6 +93,14 @@ describe("linking with token overlap", () => {
     expect(r.reasons.map((x) => x.code)).toContain("acronym-inside");
     // Spelled out against a table that writes the acronym.
     expect(linker.link({ id: "m6", text: "Nether Ambry Ropeworks", type: "ORG" }).entity).toBe("R3");
+  });
+
+  it("does not read an acronym into a name spelled exactly, beside an alias that is its acronym", () => {
+    const r = linker.link({ id: "m7", text: "Stenning Grain Exchange", type: "ORG" });
+    expect(r.entity).toBe("R4");
+    expect(r.reasons.map((x) => x.code)).toContain("name-exact");
+    expect(r.reasons.map((x) => x.code)).not.toContain("acronym-inside");
+    expect(linker.link({ id: "m8", text: "S.G.E.", type: "ORG" }).entity).toBe("R4");
   });
 
   it("leaves NIL a longer name that merely holds a table name", () => {

@@ -389,8 +389,13 @@ export function nameMatch(
     // can raise a name feature: only an abbreviation reading is left to find.
     if (exact === 1 && keyKind === "exact" && jw === 1 && lev === 1 && tok === 1) {
       for (let i = ai + 1; i < aliases.length && abbr < 1; i++) {
-        abbreviationKind = abbreviationOf(norm, aliases[i]!, personLike);
-        if (abbreviationKind !== null) abbr = 1;
+        const kind = abbreviationOf(norm, aliases[i]!, personLike);
+        // Another alias that is this name's acronym ("S.G.E." beside "Stenning Grain Exchange")
+        // reads as "acronym-inside", which a name spelled exactly has no need of.
+        if (kind !== null && kind !== "acronym-inside") {
+          abbreviationKind = kind;
+          abbr = 1;
+        }
       }
       break;
     }
