@@ -68,7 +68,24 @@ function tableKb(name: string, csv: string): () => Kb {
 
 const m = (text: string, context?: string): Mention => ({ id: text, text, type: "PER", context });
 const pathsOf = (text: string, entity: string, context?: string) =>
-  linker.scoreCandidates(m(text, context)).find((c) => c.entity.id === entity)?.paths;
+  linker.scoreCandidates(m(text, context)).find((c) => c.entity === entity)?.paths;
+
+describe("scoreCandidates", () => {
+  it("gives the link row's candidates, all of them and unrounded", () => {
+    const mention = m("Robert N. Grimehurst");
+    const all = linker.scoreCandidates(mention);
+    const row = linker.link(mention);
+    expect(row.candidates.length).toBeGreaterThan(0);
+    expect(all.length).toBeGreaterThanOrEqual(row.candidates.length);
+    expect(all.map((c) => c.entity).sort()).toEqual([...linker.candidateIds(mention)].sort());
+    row.candidates.forEach((c, i) => {
+      expect(all[i]!.entity).toBe(c.entity);
+      expect(all[i]!.name).toBe(c.name);
+      expect(all[i]!.score).toBeCloseTo(c.score, 4);
+      expect(all[i]!.paths).toEqual(c.paths);
+    });
+  });
+});
 
 describe("candidates among namesakes", () => {
   it("corrects a word that is itself a name: Grimehurst may be a slip for Grimerhurst", () => {
@@ -123,7 +140,7 @@ describe("sub-keys: the whole key left when a first or last word is dropped", ()
   it("meets the town in 'Ormoford Quay' although token search stops at its 20 most popular carriers", () => {
     const linker2 = createLinker(kb2(), { candidates: { ftsLimit: 20 } });
     expect(kb2().tokenDf("ormoford")).toBe(41);
-    const found = linker2.scoreCandidates(loc("Ormoford Quay")).find((c) => c.entity.id === "L10");
+    const found = linker2.scoreCandidates(loc("Ormoford Quay")).find((c) => c.entity === "L10");
     expect(found).toBeDefined();
     expect([...found!.paths]).toEqual(["fts"]);
     // With no sub-key left to match ("pier quay", "ormoford pier"), or sub-keys off, the town is not reached.

@@ -44,7 +44,7 @@ export function scoredMentionsFor(
     mention: m,
     candidates: linker
       .scoreCandidates(m)
-      .map((c) => ({ entity: c.entity.id, features: c.features, name: c.entity.name })),
+      .map((c) => ({ entity: c.entity, features: c.features, name: c.name })),
   }));
 }
 

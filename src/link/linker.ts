@@ -529,10 +529,19 @@ export class Linker {
     };
   }
 
-  /** Every generated candidate, scored, best first. */
-  scoreCandidates(m: Mention): ScoredCandidate[] {
-    const p = this.prepare(m);
-    return this.scorePrepared(p);
+  /**
+   * Every generated candidate of a mention, scored, best first, in the shape of a link row's
+   * `candidates` (table id, canonical name, score, features, the paths that found it), but all of
+   * them and unrounded: the training data of tuning, or a look at what the decision weighed.
+   */
+  scoreCandidates(m: Mention): CandidateOut[] {
+    return this.scorePrepared(this.prepare(m)).map((s) => ({
+      entity: s.entity.id,
+      name: s.entity.name,
+      score: s.score,
+      features: s.features,
+      paths: [...s.paths],
+    }));
   }
 
   private scorePrepared(p: Prepared): ScoredCandidate[] {
