@@ -154,6 +154,17 @@ describe("hawser link", () => {
     expect(status).toBe(0);
   });
 
+  it("says how to give CSV when standard input starts with a CSV header", () => {
+    const csv = "id,text,type\nm1,Stenmoor,LOC\n";
+    const r = hawser(["link", "--kb", kb, "-"], t.dir, csv);
+    expect(r.status).toBe(1);
+    expect(r.stderr).toContain("stdin:1: malformed JSON");
+    expect(r.stderr).toContain("give --from csv");
+    const told = hawser(["link", "--kb", kb, "-", "--from", "csv"], t.dir, csv);
+    expect(told.status).toBe(0);
+    expect(JSON.parse(told.stdout).mention).toBe("m1");
+  });
+
   it("names standard input in the error for a bad line piped in (exit 1)", () => {
     const r = hawser(["link", "--kb", kb, "-"], t.dir, `${jsonl(MENTIONS.slice(0, 2))}{"id":"x9"}\n`);
     expect(r.status).toBe(1);

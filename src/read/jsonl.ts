@@ -4,7 +4,7 @@
  */
 
 import { InputError } from "../util/errors.js";
-import { type BytesTap, readTextLines } from "./lines.js";
+import { type BytesTap, readTextLines, STDIN } from "./lines.js";
 
 /** One parsed line: its 1-based line number and the object it holds. */
 export interface JsonLine {
@@ -20,6 +20,15 @@ export function jsonKind(value: unknown): string {
 }
 
 /**
+ * A hint for a first line of standard input that reads as a CSV or TSV header: standard input
+ * has no extension to tell its format by, so it is read as JSONL unless told otherwise.
+ */
+function stdinHint(file: string, line: number, text: string): string {
+  if (file !== STDIN || line !== 1 || text.trimStart().startsWith("{") || !/[,\t;]/.test(text)) return "";
+  return " (standard input is read as JSONL; for CSV or TSV give --from csv or --from tsv, or save it to a .csv or .tsv file)";
+}
+
+/**
  * Stream the objects of a JSONL file. `value` is always a plain object (never an array, string,
  * number or null); the declared type stays `unknown` so that callers validate fields themselves.
  */
@@ -30,7 +39,10 @@ export async function* readJsonLines(file: string, onBytes?: BytesTap): AsyncGen
     try {
       value = JSON.parse(text);
     } catch (error) {
-      throw new InputError({ file, line }, `malformed JSON: ${(error as Error).message}`);
+      throw new InputError(
+        { file, line },
+        `malformed JSON: ${(error as Error).message}${stdinHint(file, line, text)}`,
+      );
     }
     if (typeof value !== "object" || value === null || Array.isArray(value)) {
       throw new InputError({ file, line }, `expected a JSON object, found ${jsonKind(value)}`);
