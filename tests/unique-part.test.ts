@@ -19,6 +19,7 @@ const TABLE = [
   "L3,Tolley Reach,place,stretch of the river",
   "L4,Upper Pool of the Tolley and Gannet Sands,place,anchorage below the town",
   "L5,Carrow Pool,place,mill pond",
+  "I1,Fenwold Quarter Sessions,institution,county court",
   "",
 ].join("\n");
 
@@ -39,6 +40,21 @@ describe("short forms of words one entry's names carry", () => {
       const r = linker.link({ id: "m", text, type: "ORG" });
       expect(r.entity, text).toBe("F1");
       expect(codes(text, "ORG"), text).toContain("name-unique-part");
+    }
+  });
+
+  it("reads a part only as an entry of the kind the mention's label says", () => {
+    // The table has the county's court, not the county: a place named Fenwold is not its court.
+    expect(codes("Fenwold", "LOC")).not.toContain("name-unique-part");
+    expect(linker.link({ id: "m", text: "Fenwold", type: "LOC" }).entity).toBeNull();
+    // Labeled as an organization, or not labeled, the part reads as the court's.
+    for (const type of ["ORG", ""]) {
+      const r = linker.link({ id: "m", text: "Fenwold", ...(type === "" ? {} : { type }) });
+      expect(r.entity, type).toBe("I1");
+      expect(
+        r.reasons.map((x) => x.code),
+        type,
+      ).toContain("name-unique-part");
     }
   });
 

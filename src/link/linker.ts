@@ -165,6 +165,8 @@ interface Prepared {
 class CandidateWords implements WordEvidence {
   p: Prepared | null = null;
   eid = 0;
+  /** The class of the entity `eid`. */
+  cls: EntityClass = "other";
   /** Most records that may carry an attested word (see ATTESTED_MAX_SHARE). */
   private readonly attestedMaxDf: number;
   /** The entity whose kind words `kinds` holds (0: none yet). */
@@ -184,9 +186,9 @@ class CandidateWords implements WordEvidence {
     return this.kb.tokenDf(t) === 1;
   }
 
-  labelReadsPerson(): boolean {
+  labelFits(): boolean {
     const c = this.p!.info.compat;
-    return c.person >= Math.max(c.organization, c.location, c.other);
+    return c[this.cls] >= Math.max(c.person, c.organization, c.location, c.other);
   }
 
   alone(tokens: readonly string[]): boolean {
@@ -448,6 +450,7 @@ export class Linker {
     const words = this.candidateWords;
     words.p = p;
     words.eid = e.eid;
+    words.cls = e.cls;
     const matched = nameMatch(form.norm, e, this.genericWords, words);
     const name =
       form.possessiveDropped === true

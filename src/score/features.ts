@@ -181,10 +181,12 @@ export interface WordEvidence {
   /** No other person of the table has a name holding the word. */
   soleBearer(token: string): boolean;
   /**
-   * The mention's label reads it as a person's name at least as readily as anything else (a
-   * person label, or no label): a firm's label on "Pell" names the firm, not one of the Pells.
+   * The mention's label reads it as a thing of the entity's class at least as readily as of any
+   * other (a person label for a person, or no label): a firm's label on "Pell" names the firm,
+   * not one of the Pells; a place's label on "Fenwold" the county, not the "Fenwold Quarter
+   * Sessions".
    */
-  labelReadsPerson(): boolean;
+  labelFits(): boolean;
 }
 
 /**
@@ -294,7 +296,7 @@ export function nameMatch(
       // whole name, its similarity would fall with their length, and of two bearers the one with
       // the shorter given names would win ("Spackman" took "W. I. Spackman" over "Reuben
       // Spackman"). Equal for every bearer, the name leaves them to context.
-      if (personLike && surnameAlone(norm, a) && (words?.labelReadsPerson() ?? true)) {
+      if (personLike && surnameAlone(norm, a) && (words?.labelFits() ?? true)) {
         j = 1;
         l = 1;
       }
@@ -698,11 +700,14 @@ function shortFormKind(
     words.alone(aliasCore)
   )
     return "head";
+  // A part of another kind's name is the town a court or a board is named after, or the family
+  // a firm is: the part reading is kept to entries of the kind the mention's label says.
   if (
     mention.length < alias.length &&
     (isPrefix(mention, alias) || isSuffix(mention, alias)) &&
     mention.every((t) => t.length >= MIN_ATTESTED_WORD_LENGTH) &&
-    mentionCore.length > 0
+    mentionCore.length > 0 &&
+    words.labelFits()
   ) {
     // Words each carried by this entry's names only may leave out what the table does not tell
     // entries apart by; words that only together are this entry's ("Saint Helena", "United
