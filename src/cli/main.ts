@@ -173,7 +173,7 @@ export function program(): Command {
   const p = new Command("hawser")
     .description("Link named-entity mentions to your own entity table, with scores and reasons.")
     .version(pkg.version)
-    .showHelpAfterError()
+    .showHelpAfterError("(add --help for every option and its default)")
     .exitOverride();
 
   p.command("index")
