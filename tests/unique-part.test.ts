@@ -90,6 +90,19 @@ describe("short forms of words one entry's names carry", () => {
     expect(codes("Saint Brannock & Co.", "ORG")).not.toContain("name-head");
   });
 
+  it("links a firm's name the mention gives with a word or two more, as registers write it", () => {
+    for (const text of ["Ambry Rope Walk Stores", "Ambry Rope Walk Stores, Ltd."]) {
+      const r = linker.link({ id: "m", text, type: "ORG" });
+      expect(r.entity, text).toBe("F1");
+      expect(codes(text, "ORG"), text).toContain("name-extended");
+    }
+    // Three words more make another firm's name as often as not.
+    expect(codes("Ambry Rope Walk Coal Tar Stores", "ORG")).not.toContain("name-extended");
+    // A place's added words make another place: "Carrow Pool Mill" is not the mill pond.
+    expect(codes("Carrow Pool Mill", "LOC")).not.toContain("name-extended");
+    expect(codes("Carrow Pool Mill", "ORG")).not.toContain("name-extended");
+  });
+
   it("leaves persons' short forms to context and the document", () => {
     // A surname alone may be any member of a family the table does not list.
     expect(codes("Aldous", "PER")).not.toContain("name-unique-part");

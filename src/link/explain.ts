@@ -54,6 +54,11 @@ const KEY_MATCH_REASONS: Record<
     code: "name-head",
     message: (w, t) => `${w} "${t}", followed in the mention by a complement ("of ...", "and ...")`,
   },
+  extended: {
+    code: "name-extended",
+    message: (w, t) =>
+      `${w} "${t}" and a word or two more, as a firm's registered name adds to the name in use`,
+  },
   kind: {
     code: "name-kind",
     message: (w, t) => `${w} "${t}" with the kind the entry's record gives it (its type or category)`,

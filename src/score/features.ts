@@ -104,7 +104,9 @@ export interface NameMatch {
    * Airport" for "Laishan", whose city is Yantai), or a mention that is the first or last words
    * of the name, words no other entity's names carry ("part": "Lek" for "Albanian Lek"), a name
    * followed in the mention by a complement ("head": "United Kingdom of Great Britain and
-   * Northern Ireland" for "United Kingdom"), the name with the kind its record gives it ("kind":
+   * Northern Ireland" for "United Kingdom"), a firm's name followed in the mention by a word or
+   * two more ("extended": "Polar Air Cargo Worldwide" for "Polar Air Cargo"), the name with the
+   * kind its record gives it ("kind":
    * "Bhola District" for the district Bhola, "Metropolitan City of Bologna"), or the same words in
    * another order ("reordered": "Virgin Islands, British"), or the same words some written
    * short ("abbreviated": "Calif." for "California", "Harrowm. Wharf"), or a person's surname
@@ -117,6 +119,7 @@ export interface NameMatch {
     | "attested"
     | "part"
     | "head"
+    | "extended"
     | "kind"
     | "reordered"
     | "abbreviated"
@@ -318,6 +321,7 @@ export function nameMatch(
             cores ? mentionSplit!.core : norm.tokens,
             cores ? aliasSplit!.core : a.tokens,
             words,
+            entity.cls === "organization",
           );
     // A person's name never loses words, but a surname alone may name the table's only bearer
     // ("Lumb" for "James Thomas Lumb"); other names may have words written short.
@@ -675,7 +679,8 @@ function sexesDiffer(norm: NormalizedName, entity: EntityRow): boolean {
  * words it leaves out may be left out (wordsNotToLeaveOut: "Police Court" / "Harrowmouth Police
  * Court" of Harrowmouth, yes; "Catalan" / "Catalan Sign Language" in a list of languages that
  * also holds "Ukrainian" and "Ukrainian Sign Language", no); "head" when the mention is the name,
- * one entry's alone, followed by a complement after "of" or "and".
+ * one entry's alone, followed by a complement after "of" or "and"; "extended" when the candidate
+ * is a `firm` and the mention is its name, one entry's alone, and MAX_EXTENSION_WORDS words more.
  */
 function shortFormKind(
   mention: readonly string[],
@@ -683,7 +688,8 @@ function shortFormKind(
   mentionCore: readonly string[],
   aliasCore: readonly string[],
   words: WordEvidence | null,
-): "attested" | "part" | "head" | "kind" | null {
+  firm = false,
+): "attested" | "part" | "head" | "extended" | "kind" | null {
   if (words === null) return null;
   if (sameBeyondAttested(mentionCore, aliasCore, (t) => words.attested(t))) return "attested";
   if (aliasCore.length > 0 && withKindWords(mention, alias, words)) return "kind";
@@ -700,6 +706,22 @@ function shortFormKind(
     words.alone(aliasCore)
   )
     return "head";
+  // A firm's registered name says more than the name it goes by ("Polar Air Cargo Worldwide",
+  // "Martinair Holland", "Calm Air International"): the name, one entry's alone, then a word or
+  // two that the table does not tell entries apart by. Not for places, whose added words make
+  // other places ("Saint-Denis-de-Pile" is not Saint-Denis), nor persons, whose names never
+  // gain words so.
+  if (
+    firm &&
+    alias.length < mention.length &&
+    mention.length - alias.length <= MAX_EXTENSION_WORDS &&
+    isPrefix(alias, mention) &&
+    aliasCore.length > 0 &&
+    words.labelFits() &&
+    words.alone(aliasCore) &&
+    !words.separates(mention.slice(alias.length), false)
+  )
+    return "extended";
   // A part of another kind's name is the town a court or a board is named after, or the family
   // a firm is: the part reading is kept to entries of the kind the mention's label says.
   if (
@@ -747,6 +769,11 @@ const JOINING_WORDS: ReadonlySet<string> = new Set([
  * Mayen").
  */
 const COMPLEMENT_OPENERS: ReadonlySet<string> = new Set(["of", "and"]);
+/**
+ * Most words a firm's mention may add after a name of the table for the "extended" reading: a
+ * descriptor or two ("Worldwide", "Air Lease"); more make another firm's name as often as not.
+ */
+const MAX_EXTENSION_WORDS = 2;
 
 /**
  * True when `mention` is the first words of `alias` and the rest opens with "of" or "and": the
