@@ -42,6 +42,9 @@ describe("legal forms of other countries' registers", () => {
     expect(key("Pell As Agents")).toBe("pell as agents");
     expect(key("PT Ambry Ice")).toBe("port ambry ice");
     expect(key("Harrow Marine A/S Ltd")).toBe("harrow marine");
+    // "Holding(s)" is read only as written: one letter off it is a word of a firm's trade.
+    expect(key("Harland Folding Chairs Ltd")).toBe("harland folding chairs");
+    expect(key("Harland Moldings")).toBe("harland moldings");
     // Kept in the full form, so two forms still tell two firms apart.
     expect(normalizeName("Pellow Shipping Sp. z o.o.", "organization").full).toBe("pellow shipping spzoo");
   });

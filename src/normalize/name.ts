@@ -385,8 +385,16 @@ function abbreviatedTokens(tokens: readonly string[], cut: ReadonlySet<string>):
   return [...new Set(tokens.filter((t) => cut.has(t) && !LEXICON_SHORT_WORDS.has(t)))];
 }
 
+/**
+ * Words of a firm's structure that one letter turns into everyday words of firm names ("Folding
+ * Chairs", "Moldings"): read as legal forms only as written, never through a slip.
+ */
+const STRUCTURE_WORDS_AS_WRITTEN: ReadonlySet<string> = new Set(["holding", "holdings"]);
+
 /** Legal forms long enough that one OCR slip cannot turn another word into them. */
-const LONG_LEGAL_FORMS = Object.keys(LEGAL_FORMS).filter((f) => f.length >= 7);
+const LONG_LEGAL_FORMS = Object.keys(LEGAL_FORMS).filter(
+  (f) => f.length >= 7 && !STRUCTURE_WORDS_AS_WRITTEN.has(f),
+);
 
 /**
  * The canonical legal form a token spells, also through one OCR slip or typo ("Lirnited",
