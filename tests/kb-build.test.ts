@@ -194,6 +194,15 @@ describe("buildKb validation: each error names file, line and column", () => {
     expect(e.message).toMatch(/number of fields/);
   });
 
+  it("rejects a stray quote inside a CSV field, and a folder given as the table", async () => {
+    const table = writeText(t.file("q.csv"), csv("L1,Stenmouth,town,,,", 'L2,Sten"moor,village,,,'));
+    const e = await rejectsNaming(build(table), { file: table, line: 3 });
+    expect(e.message).toMatch(/Invalid Opening Quote/);
+    const folder = await buildKb({ table: t.dir, out: t.file("folder.kb"), from: "csv" }).catch((x) => x);
+    expect(folder).toBeInstanceOf(InputError);
+    expect((folder as Error).message).toContain("EISDIR");
+  });
+
   it("rejects a malformed JSON line in a JSONL table", async () => {
     const table = writeText(
       t.file("m.jsonl"),

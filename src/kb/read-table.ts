@@ -3,12 +3,12 @@
  * Every problem is an InputError naming the file, line and column.
  */
 import { extname } from "node:path";
-import { type CsvError, Parser } from "csv-parse";
+import { CsvError, Parser } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { separatorHint } from "../read/field-hints.js";
 import { readJsonLines } from "../read/jsonl.js";
-import { type BytesTap, openText, STDIN } from "../read/lines.js";
+import { type BytesTap, fileError, openText, STDIN } from "../read/lines.js";
 
 export type TableFormat = "csv" | "tsv" | "jsonl";
 
@@ -178,9 +178,10 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
         `wrong number of fields: ${ce.message.replace(/^Invalid Record Length: /, "")}`,
       );
     }
-    if (typeof ce.code === "string" && ce.code.startsWith("CSV_"))
-      throw new InputError({ file, line: ce.lines }, ce.message);
-    throw e;
+    // Every error of the CSV parser is about the file's text ("Invalid Opening Quote", ...).
+    if (e instanceof CsvError || (typeof ce.code === "string" && ce.code.startsWith("CSV_")))
+      throw new InputError({ file, line: ce.lines }, ce.message.replace(/\s*(at|on) line \d+\.?$/, ""));
+    throw fileError(file, e);
   } finally {
     text.destroy();
   }

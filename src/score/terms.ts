@@ -29,6 +29,12 @@ export const STOPWORDS: ReadonlySet<string> = new Set(stopwordModule.words);
 
 /** Tokens shorter than this carry no context (stray letters, OCR specks). */
 const MIN_TERM_LENGTH = 2;
+/**
+ * Tokens longer than this carry no context either: no word of a language is (the longest in
+ * English dictionaries has 45 letters), and a run of thousands of letters (a garbled scan, a
+ * pasted blob) would take the stemmer's backtracking patterns quadratic time.
+ */
+export const MAX_TERM_LENGTH = 64;
 
 /**
  * Four-digit numbers in this range are kept as terms: years carry context in historical archives
@@ -88,14 +94,14 @@ export function foldText(text: string): string {
 /**
  * Splits text into context terms, in text order, duplicates kept (term frequency matters):
  * fold (lowercase, NFKD, strip combining marks), split on anything that is not a letter or digit,
- * drop tokens shorter than 2 characters and English stopwords (natural's list), drop pure numbers
+ * drop tokens shorter than 2 or longer than 64 characters and English stopwords (natural's list), drop pure numbers
  * except years 1000-2099, and Porter-stem the rest. Mixed tokens ("1st", "no5") are kept.
  */
 export function contextTerms(text: string): string[] {
   const out: string[] = [];
   if (text.length === 0) return out;
   for (const token of foldText(text).split(NON_WORD)) {
-    if (token.length < MIN_TERM_LENGTH || STOPWORDS.has(token)) continue;
+    if (token.length < MIN_TERM_LENGTH || token.length > MAX_TERM_LENGTH || STOPWORDS.has(token)) continue;
     if (isAllDigits(token)) {
       if (token.length === YEAR_DIGITS) {
         const year = Number(token);
