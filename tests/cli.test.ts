@@ -89,6 +89,21 @@ describe("hawser index", () => {
     expect(tuneOut.stderr).toContain("the folder no-such-folder does not exist");
   });
 
+  it("exits 2 on an empty or out-of-range number, and on an empty path list", () => {
+    for (const args of [
+      ["link", "--kb", kb, "mentions.jsonl", "--threshold", ""],
+      ["link", "--kb", kb, "mentions.jsonl", "--min-margin", " "],
+      ["link", "--kb", kb, "mentions.jsonl", "--top", ""],
+      ["link", "--kb", kb, "mentions.jsonl", "--paths", ""],
+      ["tune", "--kb", kb, "--gold", "mentions.jsonl", "--out", "c.json", "--l2", "-1"],
+      ["tune", "--kb", kb, "--gold", "mentions.jsonl", "--out", "c.json", "--l2", "abc"],
+    ]) {
+      const r = hawser(args, t.dir);
+      expect(r.status, args.join(" ")).toBe(2);
+      expect(r.stderr, args.join(" ")).not.toContain("internal error");
+    }
+  });
+
   it("exits 2 on a table format it cannot tell, and without --out", () => {
     writeText(t.file("table.txt"), "id,name,type\nL1,Stenmouth,town\n");
     expect(hawser(["index", "table.txt", "--out", "x.kb"], t.dir).status).toBe(2);

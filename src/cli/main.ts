@@ -27,18 +27,30 @@ const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.ur
   version: string;
 };
 
+/** An option's value as a number; an empty value is no number (`Number("")` would read 0). */
+function numberOf(name: string, v: string): number {
+  if (v.trim() === "") throw new InvalidArgumentError(`${name} needs a number, got an empty value`);
+  return Number(v);
+}
 function unit(name: string) {
   return (v: string) => {
-    const x = Number(v);
+    const x = numberOf(name, v);
     if (!(x >= 0 && x <= 1)) throw new InvalidArgumentError(`${name} must be a number in [0, 1]`);
     return x;
   };
 }
 function whole(name: string, min: number) {
   return (v: string) => {
-    const x = Number(v);
+    const x = numberOf(name, v);
     if (!Number.isInteger(x) || x < min)
       throw new InvalidArgumentError(`${name} must be a whole number >= ${min}`);
+    return x;
+  };
+}
+function nonNegative(name: string) {
+  return (v: string) => {
+    const x = numberOf(name, v);
+    if (!(x >= 0 && Number.isFinite(x))) throw new InvalidArgumentError(`${name} must be a number >= 0`);
     return x;
   };
 }
@@ -47,6 +59,8 @@ function pathList(v: string): CandidatePath[] {
     .split(",")
     .map((s) => s.trim())
     .filter(Boolean) as CandidatePath[];
+  if (list.length === 0)
+    throw new InvalidArgumentError(`--paths needs at least one of ${ALL_PATHS.join(",")}`);
   for (const p of list)
     if (!ALL_PATHS.includes(p))
       throw new InvalidArgumentError(`unknown path "${p}"; use ${ALL_PATHS.join(",")}`);
@@ -103,7 +117,7 @@ function linkerOptions(cmd: Command): Command {
       "--min-margin <x>",
       "and beats the runner-up by at least this many log-odds (default 0.5, or the config's)",
       (v: string) => {
-        const x = Number(v);
+        const x = numberOf("--min-margin", v);
         if (!(x >= 0 && x <= MARGIN_CAP))
           throw new InvalidArgumentError(`--min-margin must be a number in [0, ${MARGIN_CAP}]`);
         return x;
@@ -278,7 +292,7 @@ export function program(): Command {
       .option("--report <html>", "write a self-contained HTML report")
       .option("--folds <k>", "cross-validation folds (default 5)", whole("--folds", 2))
       .option("--seed <s>", "seed of the fold assignment (default 1)", whole("--seed", 0))
-      .option("--l2 <x>", "L2 penalty of the logistic fit (default 1)", Number)
+      .option("--l2 <x>", "L2 penalty of the logistic fit (default 1)", nonNegative("--l2"))
       .option(
         "--max-candidates <n>",
         "candidates scored per mention (default 30)",
@@ -421,8 +435,10 @@ process.stdout.on("error", (e: NodeJS.ErrnoException) => {
  */
 for (const signal of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
   process.on(signal, () => {
-    removeUnfinished();
-    err(`hawser: interrupted (${signal}); nothing was written`);
+    const removed = removeUnfinished();
+    err(
+      `hawser: interrupted (${signal})${removed > 0 ? "; the unfinished output was removed, nothing was written" : ""}`,
+    );
     process.exit(128 + osConstants.signals[signal]);
   });
 }

@@ -52,6 +52,9 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
   if (options.minPrecision !== undefined && !(options.minPrecision > 0 && options.minPrecision <= 1)) {
     throw new UsageError(`--min-precision must be in (0, 1], got ${options.minPrecision}`);
   }
+  if (options.l2 !== undefined && !(options.l2 >= 0 && Number.isFinite(options.l2))) {
+    throw new UsageError(`--l2 must be a finite number >= 0, got ${options.l2}`);
+  }
   checkOutputFile(options.out, "--out");
   if (options.report !== undefined) checkOutputFile(options.report, "--report");
   const gold = await readLabeled(options.gold, options);

@@ -61,14 +61,17 @@ export function trackUnfinished(path: string): () => void {
 const SQLITE_SIDE_FILES = ["-journal", "-wal", "-shm"];
 
 /**
- * Removes every unfinished temporary file, with SQLite's side files: the command line calls it
- * when interrupted (Ctrl-C, a kill), which runs no `finally` block, so that nothing is left behind.
+ * Removes every unfinished temporary file, with SQLite's side files, and returns how many there
+ * were: the command line calls it when interrupted (Ctrl-C, a kill), which runs no `finally`
+ * block, so that nothing is left behind.
  */
-export function removeUnfinished(): void {
+export function removeUnfinished(): number {
+  const count = unfinished.size;
   for (const path of unfinished) {
     for (const side of ["", ...SQLITE_SIDE_FILES]) rmSync(`${path}${side}`, { force: true });
   }
   unfinished.clear();
+  return count;
 }
 
 export class AtomicWriter {
