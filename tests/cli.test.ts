@@ -3,7 +3,7 @@
  * output, CSV and JSONL rows in input order, `info`, and an empty mentions file.
  */
 import { spawn } from "node:child_process";
-import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync, symlinkSync } from "node:fs";
 import { join } from "node:path";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -87,6 +87,32 @@ describe("hawser index", () => {
     );
     expect(tuneOut.status).toBe(2); // before the labeled set is read (this file has no gold column)
     expect(tuneOut.stderr).toContain("the folder no-such-folder does not exist");
+  });
+
+  it("exits 2 before any work when --out names an input, a link or a device", () => {
+    writeText(t.file("self.csv"), GAZETTE_CSV);
+    const overTable = hawser(["index", "self.csv", "--out", "self.csv"], t.dir);
+    expect(overTable.status).toBe(2);
+    expect(overTable.stderr).toContain("is also the table");
+    expect(readFileSync(t.file("self.csv"), "utf8")).toBe(GAZETTE_CSV);
+    const overKb = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", kb], t.dir);
+    expect(overKb.status).toBe(2);
+    expect(overKb.stderr).toContain("is also --kb");
+    const intact = openKb(kb);
+    expect(intact.info.entities).toBe(GAZETTE_ROWS);
+    intact.close();
+    const sameTwice = hawser(
+      ["tune", "--kb", kb, "--gold", "g.jsonl", "--out", "x.json", "--report", "x.json"],
+      t.dir,
+    );
+    expect(sameTwice.status).toBe(2);
+    symlinkSync(t.file("mentions.jsonl"), t.file("link.jsonl"));
+    const overLink = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "link.jsonl"], t.dir);
+    expect(overLink.status).toBe(2);
+    expect(overLink.stderr).toContain("symbolic link");
+    const device = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "/dev/null"], t.dir);
+    expect(device.status).toBe(2);
+    expect(device.stderr).toContain("not a plain file");
   });
 
   it("exits 2 on an empty or out-of-range number, and on an empty path list", () => {

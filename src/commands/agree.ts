@@ -17,7 +17,10 @@ export async function agree(options: AgreeOptions): Promise<Agreement> {
   const b = await readLabeled(options.b);
   const result = agreement(a, b, { fileA: options.a, fileB: options.b });
   if (options.out !== undefined) {
-    checkOutputFile(options.out, "--out");
+    checkOutputFile(options.out, "--out", [
+      ["the first labeled file", options.a],
+      ["the second labeled file", options.b],
+    ]);
     const w = new AtomicWriter(options.out);
     try {
       for (const d of result.disagreements) await w.write(`${JSON.stringify(d)}\n`);

@@ -109,7 +109,14 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
   const started = Date.now();
   const format = outputFormat(options.out, options.to);
   resolveFormat(options.mentions, readerOptions(options)); // usage errors before any file is opened
-  if (options.out !== undefined) checkOutputFile(options.out, "--out");
+  if (options.out !== undefined)
+    checkOutputFile(options.out, "--out", [
+      ["--kb", options.kb],
+      ["the mentions file", options.mentions],
+      ["--config", options.config],
+      ["--labels", options.labels],
+      ["--documents", options.documents],
+    ]);
   const kb = openKb(options.kb);
   const warnings: string[] = [];
   const warn = options.warn ?? printWarning;

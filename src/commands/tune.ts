@@ -1,4 +1,5 @@
 /** `hawser tune` as a library call: fit weights and choose the operating point on a labeled set. */
+import { resolve } from "node:path";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { configFromTune, type TunedConfig, writeConfig } from "../tune/config.js";
@@ -55,8 +56,18 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
   if (options.l2 !== undefined && !(options.l2 >= 0 && Number.isFinite(options.l2))) {
     throw new UsageError(`--l2 must be a finite number >= 0, got ${options.l2}`);
   }
-  checkOutputFile(options.out, "--out");
-  if (options.report !== undefined) checkOutputFile(options.report, "--report");
+  const inputs = [
+    ["--kb", options.kb],
+    ["--gold", options.gold],
+    ["--labels", options.labels],
+    ["--documents", options.documents],
+  ] as const;
+  checkOutputFile(options.out, "--out", inputs);
+  if (options.report !== undefined) {
+    checkOutputFile(options.report, "--report", [...inputs, ["--out", options.out]]);
+    if (resolve(options.report) === resolve(options.out))
+      throw new UsageError(`--report ${options.report} is also --out: give them different files`);
+  }
   const gold = await readLabeled(options.gold, options);
   const kb = openKb(options.kb);
   try {

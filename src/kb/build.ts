@@ -95,7 +95,7 @@ const FTS_DEFAULT_SETTINGS =
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
-  checkOutputFile(options.out, "--out");
+  checkOutputFile(options.out, "--out", [["the table", options.table]]);
   if (options.table !== STDIN && !existsSync(options.table))
     throw new InputError({ file: options.table }, "no such file");
   const labels = options.labels ?? new LabelMap();

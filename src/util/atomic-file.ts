@@ -7,6 +7,7 @@ import {
   accessSync,
   constants,
   createWriteStream,
+  lstatSync,
   openSync,
   renameSync,
   rmSync,
@@ -18,13 +19,26 @@ import { basename, dirname, join } from "node:path";
 import { once } from "node:events";
 import { UsageError } from "./errors.js";
 
+/** True when two paths name one file (the same device and inode), both existing. */
+function sameFile(a: string, b: string): boolean {
+  const sa = statSync(a, { throwIfNoEntry: false });
+  const sb = statSync(b, { throwIfNoEntry: false });
+  return sa !== undefined && sb !== undefined && sa.dev === sb.dev && sa.ino === sb.ino;
+}
+
 /**
  * Checks, before any work, that an output file can be written where asked: its folder exists,
- * is a folder and is writable, and the file itself is not a folder. Throws a UsageError naming
- * the option (`what`, e.g. "--out") and the path; otherwise a run would fail at its end, or
- * with a bare system error.
+ * is a folder and is writable; the file itself, if it exists, is a plain file (the output is
+ * renamed into place, which would replace a link, a pipe or a device with a plain file), and
+ * none of the run's `inputs` (the table, the KB, the mentions...), which it would overwrite.
+ * Throws a UsageError naming the option (`what`, e.g. "--out") and the path; otherwise a run
+ * would fail at its end, with a bare system error, or destroy its own input.
  */
-export function checkOutputFile(file: string, what: string): void {
+export function checkOutputFile(
+  file: string,
+  what: string,
+  inputs: ReadonlyArray<readonly [string, string | undefined]> = [],
+): void {
   const dir = dirname(file);
   const folder = statSync(dir, { throwIfNoEntry: false });
   if (folder === undefined) throw new UsageError(`${what} ${file}: the folder ${dir} does not exist`);
@@ -34,8 +48,18 @@ export function checkOutputFile(file: string, what: string): void {
   } catch {
     throw new UsageError(`${what} ${file}: the folder ${dir} is not writable`);
   }
-  if (statSync(file, { throwIfNoEntry: false })?.isDirectory())
-    throw new UsageError(`${what} ${file} is a folder, not a file`);
+  const existing = lstatSync(file, { throwIfNoEntry: false });
+  if (existing?.isDirectory()) throw new UsageError(`${what} ${file} is a folder, not a file`);
+  if (existing?.isSymbolicLink())
+    throw new UsageError(
+      `${what} ${file} is a symbolic link; the output is renamed into place and would replace the link: give the path it points to`,
+    );
+  if (existing !== undefined && !existing.isFile())
+    throw new UsageError(`${what} ${file} is not a plain file (a pipe, a device or a socket)`);
+  for (const [option, input] of inputs) {
+    if (input !== undefined && input !== "-" && sameFile(file, input))
+      throw new UsageError(`${what} ${file} is also ${option}: the output would overwrite it`);
+  }
 }
 
 /**
