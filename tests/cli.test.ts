@@ -2,8 +2,8 @@
  * The `hawser` binary: exit status (0 done, 1 bad input naming file and line, 2 bad usage), atomic
  * output, CSV and JSONL rows in input order, `info`, and an empty mentions file.
  */
-import { spawn } from "node:child_process";
-import { existsSync, readdirSync, readFileSync, symlinkSync } from "node:fs";
+import { spawn, spawnSync } from "node:child_process";
+import { closeSync, existsSync, openSync, readdirSync, readFileSync, symlinkSync } from "node:fs";
 import { join } from "node:path";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -113,6 +113,21 @@ describe("hawser index", () => {
     const device = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "/dev/null"], t.dir);
     expect(device.status).toBe(2);
     expect(device.stderr).toContain("not a plain file");
+  });
+
+  it.runIf(existsSync("/dev/full"))("says so and exits 74 when standard output cannot be written", () => {
+    const full = openSync("/dev/full", "w");
+    try {
+      const r = spawnSync(process.execPath, [CLI, "link", "--kb", kb, "mentions.jsonl"], {
+        cwd: t.dir,
+        stdio: ["ignore", full, "pipe"],
+      });
+      expect(r.status).toBe(74);
+      expect(String(r.stderr)).toContain("cannot write standard output");
+      expect(String(r.stderr)).not.toContain("node:internal");
+    } finally {
+      closeSync(full);
+    }
   });
 
   it("exits 2 on an empty or out-of-range number, and on an empty path list", () => {

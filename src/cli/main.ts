@@ -21,7 +21,10 @@ import { ALL_PATHS } from "../candidates/generate.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import type { CandidatePath } from "../types.js";
 import { removeUnfinished } from "../util/atomic-file.js";
-import { InputError, UsageError } from "../util/errors.js";
+import { InputError, OutputError, UsageError } from "../util/errors.js";
+
+/** Exit status when an output cannot be written: EX_IOERR of sysexits.h. */
+const OUTPUT_ERROR_EXIT = 74;
 
 const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as {
   version: string;
@@ -413,6 +416,10 @@ export async function main(argv: string[]): Promise<number> {
       err(`hawser: ${e.message}`);
       return 2;
     }
+    if (e instanceof OutputError) {
+      err(`hawser: ${e.message}`);
+      return OUTPUT_ERROR_EXIT;
+    }
     err(`hawser: internal error: ${(e as Error).stack ?? String(e)}`);
     return 70;
   }
@@ -425,7 +432,9 @@ export async function main(argv: string[]): Promise<number> {
  */
 process.stdout.on("error", (e: NodeJS.ErrnoException) => {
   if (e.code === "EPIPE") process.exit(0);
-  throw e;
+  // Any other failure of standard output (a full disk behind a redirection): say so, exit 74.
+  err(`hawser: ${new OutputError("standard output", e).message}`);
+  process.exit(OUTPUT_ERROR_EXIT);
 });
 
 /**

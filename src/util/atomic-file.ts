@@ -17,7 +17,7 @@ import {
 } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { once } from "node:events";
-import { UsageError } from "./errors.js";
+import { OutputError, UsageError } from "./errors.js";
 
 /** True when two paths name one file (the same device and inode), both existing. */
 function sameFile(a: string, b: string): boolean {
@@ -103,6 +103,11 @@ export class AtomicWriter {
   private readonly stream: WriteStream;
   private done = false;
   private readonly finished: () => void;
+  /**
+   * The stream's first error (a full disk...), reported by the next write or the commit; after an
+   * abort, a write under way ends on the destroyed stream, an error nobody needs to hear of.
+   */
+  private failure: Error | null = null;
 
   constructor(readonly target: string) {
     this.tmp = join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
@@ -110,17 +115,32 @@ export class AtomicWriter {
     const fd = openSync(this.tmp, "w");
     this.finished = trackUnfinished(this.tmp);
     this.stream = createWriteStream(this.tmp, { fd, encoding: "utf8", highWaterMark: OUTPUT_BUFFER_BYTES });
+    this.stream.on("error", (e) => {
+      this.failure ??= e;
+    });
   }
 
   /** Write a chunk, waiting when the stream's buffer is full (keeps memory flat). */
   async write(chunk: string): Promise<void> {
-    if (!this.stream.write(chunk)) await once(this.stream, "drain");
+    this.check();
+    if (!this.stream.write(chunk)) {
+      // A failing stream never drains: wait for whichever comes first.
+      await Promise.race([once(this.stream, "drain"), once(this.stream, "close")]);
+      this.check();
+    }
+  }
+
+  /** Throws the stream's error, if any, as an OutputError naming the target. */
+  private check(): void {
+    if (this.failure !== null) throw new OutputError(this.target, this.failure);
   }
 
   /** Finish and move into place. */
   async commit(): Promise<void> {
+    this.check();
     this.stream.end();
-    await once(this.stream, "finish");
+    await Promise.race([once(this.stream, "finish"), once(this.stream, "close")]);
+    this.check();
     renameSync(this.tmp, this.target);
     this.finished();
     this.done = true;
@@ -130,9 +150,6 @@ export class AtomicWriter {
   abort(): void {
     if (this.done) return;
     this.done = true;
-    // A write under way when the run failed ends on a destroyed stream, which reports it as an
-    // error event: the output is being thrown away, so that is expected, not a crash.
-    this.stream.on("error", () => {});
     this.stream.destroy();
     rmSync(this.tmp, { force: true });
     this.finished();

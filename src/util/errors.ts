@@ -36,3 +36,14 @@ export class UsageError extends Error {
     this.name = "UsageError";
   }
 }
+
+/**
+ * An output that cannot be written (a full disk, a closed or failing standard output): no fault
+ * of the input or of hawser. The command line exits 74 (EX_IOERR of sysexits.h) on it.
+ */
+export class OutputError extends Error {
+  constructor(target: string, cause: Error) {
+    super(`cannot write ${target}: ${cause.message}`);
+    this.name = "OutputError";
+  }
+}
