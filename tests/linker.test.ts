@@ -328,4 +328,22 @@ describe("linkAll", () => {
     expect(rows.map((r) => r.entity)).toEqual(["L02", null, "O01", "L02", null, null, "V01"]);
     expect(rows.every((r) => r.doc === "gazette-1903-04")).toBe(true);
   });
+
+  it("gives the rows of the document under way before passing on its source's failure", async () => {
+    async function* failing(): AsyncGenerator<Mention> {
+      yield m("Stenmoor", "LOC", { id: "d1", doc: "a" });
+      yield m("Stenmoor", "LOC", { id: "d2", doc: "b" });
+      yield m("Tobias Pell", "PER", { id: "d3", doc: "b" });
+      throw new Error("bad line 4");
+    }
+    const rows: LinkRow[] = [];
+    let error: unknown;
+    try {
+      for await (const r of linker.linkAll(failing())) rows.push(r);
+    } catch (e) {
+      error = e;
+    }
+    expect((error as Error).message).toBe("bad line 4");
+    expect(rows.map((r) => r.mention)).toEqual(["d1", "d2", "d3"]);
+  });
 });

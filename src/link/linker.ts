@@ -666,20 +666,27 @@ export class Linker {
   async *linkAll(mentions: Iterable<Mention> | AsyncIterable<Mention>): AsyncGenerator<LinkRow> {
     let doc: string | undefined;
     let batch: Mention[] = [];
-    for await (const m of mentions) {
-      if (
-        batch.length > 0 &&
-        (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)
-      ) {
-        yield* this.linkDocument(batch);
-        batch = [];
+    try {
+      for await (const m of mentions) {
+        if (
+          batch.length > 0 &&
+          (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)
+        ) {
+          yield* this.linkDocument(batch);
+          batch = [];
+        }
+        if (m.doc === undefined) {
+          yield this.link(m);
+          continue;
+        }
+        doc = m.doc;
+        batch.push(m);
       }
-      if (m.doc === undefined) {
-        yield this.link(m);
-        continue;
-      }
-      doc = m.doc;
-      batch.push(m);
+    } catch (error) {
+      // The source failed (a bad line): the mentions of the document under way that came before
+      // it still get their rows, decided over the part of the document that was read.
+      if (batch.length > 0) yield* this.linkDocument(batch);
+      throw error;
     }
     if (batch.length > 0) yield* this.linkDocument(batch);
   }
