@@ -9,7 +9,7 @@ import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { buildKb } from "../src/kb/build.js";
 import { openKb } from "../src/kb/kb.js";
 import { SCHEMA_VERSION } from "../src/kb/schema.js";
-import { InputError } from "../src/util/errors.js";
+import { InputError, UsageError } from "../src/util/errors.js";
 import { rejectsNaming, throwsInput } from "./helpers/errors.js";
 import { GAZETTE_CSV, GAZETTE_ROWS, jsonl, tempDir, writeText } from "./helpers/gazette.js";
 
@@ -201,6 +201,12 @@ describe("buildKb validation: each error names file, line and column", () => {
     const folder = await buildKb({ table: t.dir, out: t.file("folder.kb"), from: "csv" }).catch((x) => x);
     expect(folder).toBeInstanceOf(InputError);
     expect((folder as Error).message).toContain("EISDIR");
+  });
+
+  it("is a UsageError without a table or an output file (library callers)", async () => {
+    const noOut = await buildKb({ table: t.file("x.csv") } as never).catch((x) => x);
+    expect(noOut).toBeInstanceOf(UsageError);
+    expect((noOut as Error).message).toContain("needs out");
   });
 
   it("rejects a malformed JSON line in a JSONL table", async () => {

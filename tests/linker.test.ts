@@ -303,6 +303,31 @@ describe("hostile mention texts", () => {
   });
 });
 
+describe("a mention built in code", () => {
+  it("is checked: no text, or a text or label that is not a string, is a UsageError", () => {
+    for (const bad of [
+      { id: "x" },
+      { id: "x", text: null },
+      { id: "x", text: 5 },
+      { id: "x", text: "Stenmoor", type: {} },
+      { id: "x", text: "Stenmoor", context: 5 },
+    ]) {
+      expect(() => linker.link(bad as unknown as Mention), JSON.stringify(bad)).toThrow(UsageError);
+      expect(() => linker.scoreCandidates(bad as unknown as Mention), JSON.stringify(bad)).toThrow(
+        UsageError,
+      );
+    }
+  });
+
+  it("is refused once the KB is closed, whatever lookups it needs", () => {
+    const again = openKb(kb.info.file);
+    const closed = createLinker(again);
+    again.close();
+    for (const text of ["Stenmoor", "Lumb Brothers"])
+      expect(() => closed.link(m(text, "ORG")), text).toThrow(/KB is closed/);
+  });
+});
+
 describe("linkAll", () => {
   it("returns one row per mention of an async generator, in input order", async () => {
     const texts = [

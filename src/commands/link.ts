@@ -8,7 +8,7 @@ import { printWarning, warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { CandidatePath, LinkRow } from "../types.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
-import { UsageError } from "../util/errors.js";
+import { requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
 
 export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
@@ -107,6 +107,7 @@ export function outputFormat(out: string | undefined, to: string | undefined): O
 
 export async function link(options: LinkOptions): Promise<LinkSummary> {
   const started = Date.now();
+  requirePaths("link", options, ["kb", "mentions"]);
   const format = outputFormat(options.out, options.to);
   resolveFormat(options.mentions, readerOptions(options)); // usage errors before any file is opened
   if (options.out !== undefined)

@@ -13,7 +13,7 @@ import { contextTerms } from "../score/terms.js";
 import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
 import { STDIN } from "../read/lines.js";
 import { checkOutputFile, trackUnfinished } from "../util/atomic-file.js";
-import { InputError } from "../util/errors.js";
+import { InputError, requirePaths } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
@@ -94,6 +94,7 @@ const FTS_DEFAULT_SETTINGS =
 
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
+  requirePaths("buildKb", options, ["table", "out"]);
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
   checkOutputFile(options.out, "--out", [["the table", options.table]]);
   if (options.table !== STDIN && !existsSync(options.table))

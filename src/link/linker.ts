@@ -162,6 +162,26 @@ interface Prepared {
  * What scoring asks of a candidate's words (WordEvidence): one object per linker, pointed at the
  * mention and the entity being scored before each call of nameMatch, which keeps no reference.
  */
+/**
+ * A library caller's mention, checked before use: the readers validate what they read, but an
+ * object built in code reaches the linker as it is, and a missing text would surface as a
+ * TypeError deep inside. Also refuses a closed KB (some lookups are in memory, others not).
+ */
+function checkMention(m: Mention, kb: Kb): void {
+  if (!kb.db.open) throw new UsageError("the KB is closed: open it again to link");
+  if (typeof m !== "object" || m === null) throw new UsageError(`a mention must be an object, got ${m}`);
+  const what = `mention ${typeof m.id === "string" ? `"${m.id}"` : "(no id)"}`;
+  // A blank text is allowed here (a NIL row, as for any text without a candidate); the readers
+  // refuse it in files, where it is a sign of a broken row.
+  if (typeof m.text !== "string")
+    throw new UsageError(`${what}: text must be a string, got ${JSON.stringify(m.text) ?? "nothing"}`);
+  for (const field of ["type", "context", "doc"] as const) {
+    const v = m[field];
+    if (v !== undefined && v !== null && typeof v !== "string")
+      throw new UsageError(`${what}: ${field} must be a string when given, got ${JSON.stringify(v)}`);
+  }
+}
+
 class CandidateWords implements WordEvidence {
   p: Prepared | null = null;
   eid = 0;
@@ -391,6 +411,7 @@ export class Linker {
   }
 
   private prepare(m: Mention): Prepared {
+    checkMention(m, this.kb);
     const info = this.labels.forMention(m.type);
     const text = m.text.length > MAX_NAME_CHARS ? m.text.slice(0, MAX_NAME_CHARS) : m.text;
     // The label map is fixed for the linker's life, so the label's spelling stands for its info.

@@ -37,6 +37,15 @@ export class UsageError extends Error {
   }
 }
 
+/** Throws a UsageError unless each named option of a library call is a non-empty string (a path). */
+export function requirePaths(call: string, options: object, names: readonly string[]): void {
+  for (const name of names) {
+    const v = (options as Record<string, unknown>)[name];
+    if (typeof v !== "string" || v === "")
+      throw new UsageError(`${call} needs ${name}, a file name, got ${JSON.stringify(v) ?? "nothing"}`);
+  }
+}
+
 /**
  * An output that cannot be written (a full disk, a closed or failing standard output): no fault
  * of the input or of hawser. The command line exits 74 (EX_IOERR of sysexits.h) on it.
