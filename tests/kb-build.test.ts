@@ -188,6 +188,28 @@ describe("buildKb validation: each error names file, line and column", () => {
     expect(e2.message).toContain(">= 0");
   });
 
+  it("reads a prior as a decimal number only, and refuses a name with nothing to link it by", async () => {
+    for (const [prior, ok] of [
+      ["1e3", true],
+      [" 7 ", true],
+      ["0x10", false],
+      ["Infinity", false],
+      ["NaN", false],
+    ] as const) {
+      const table = writeText(t.file(`pr${ok}.csv`), csv(`L1,Stenmouth,town,,,${prior}`));
+      if (ok) expect((await build(table)).entities, prior).toBe(1);
+      else await rejectsNaming(build(table), { file: table, line: 2, field: "prior" });
+    }
+    const array = writeText(
+      t.file("pa.jsonl"),
+      `${JSON.stringify({ id: "L1", name: "Stenmouth", type: "town", prior: [5] })}\n`,
+    );
+    await rejectsNaming(build(array), { file: array, line: 1, field: "prior" });
+    const marks = writeText(t.file("nm.csv"), csv("L1,Stenmouth,town,,,", "L2,!!!,town,,,"));
+    const e = await rejectsNaming(build(marks), { file: marks, line: 3, field: "name" });
+    expect(e.message).toContain("no letter or digit");
+  });
+
   it("rejects a CSV row with the wrong number of fields (no single column to name)", async () => {
     const table = writeText(t.file("f.csv"), csv("L1,Stenmouth,town,,,", "L2,Stenmoor,village,,,,surplus"));
     const e = await rejectsNaming(build(table), { file: table, line: 3 });

@@ -37,6 +37,11 @@ export function tableFormatOf(file: string, from?: string): TableFormat {
   );
 }
 
+/** A letter or digit: a name without one normalizes to nothing, and no mention could reach it. */
+const HAS_WORD_CHARACTER = /[\p{L}\p{N}]/u;
+/** A prior as text: a decimal number ("12", "0.5", "1e3"); not hexadecimal, not "Infinity". */
+const DECIMAL_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+
 /** Validates and builds one record; `get` reads a column's raw value. Shared by all formats. */
 class RowValidator {
   private readonly seen = new Set<string>();
@@ -63,6 +68,11 @@ class RowValidator {
     };
     const id = required("id");
     const name = required("name");
+    if (!HAS_WORD_CHARACTER.test(name))
+      throw new InputError(
+        { file, line, field: "name" },
+        `name "${name}" has no letter or digit: nothing to link it by`,
+      );
     const type = required("type");
     // One set operation per row: adding an id already there leaves the size unchanged.
     const before = this.seen.size;
@@ -71,11 +81,17 @@ class RowValidator {
     let prior = 0;
     const priorRaw = raw.prior;
     if (priorRaw !== undefined && priorRaw !== null && priorRaw !== "") {
-      prior = typeof priorRaw === "number" ? priorRaw : Number(String(priorRaw).trim());
-      if (typeof priorRaw === "boolean" || !Number.isFinite(prior)) {
+      const text = typeof priorRaw === "string" ? priorRaw.trim() : "";
+      prior =
+        typeof priorRaw === "number"
+          ? priorRaw
+          : typeof priorRaw === "string" && DECIMAL_NUMBER.test(text)
+            ? Number(text)
+            : Number.NaN;
+      if (!Number.isFinite(prior)) {
         throw new InputError(
           { file, line, field: "prior" },
-          `prior must be a number, got "${String(priorRaw)}"`,
+          `prior must be a number, got ${typeof priorRaw === "string" ? `"${priorRaw}"` : JSON.stringify(priorRaw)}`,
         );
       }
       if (prior < 0) throw new InputError({ file, line, field: "prior" }, `prior must be >= 0, got ${prior}`);
