@@ -13,6 +13,7 @@ import { index } from "../src/commands/index-table.js";
 import { link } from "../src/commands/link.js";
 import { tune } from "../src/commands/tune.js";
 import type { AlignedEvalReport } from "../src/evaluate/align.js";
+import { formatEvalTable } from "../src/evaluate/format.js";
 import type { EvalReport } from "../src/evaluate/metrics.js";
 import { openKb } from "../src/kb/kb.js";
 import { createLinker } from "../src/link/linker.js";
@@ -97,6 +98,11 @@ describe("eval", () => {
     const s2 = (await evaluate({ kb, gold, predicted: shifted, spanMatch: "strict" })) as AlignedEvalReport;
     expect(s2.alignment.matched).toBe(0);
     expect(s2.alignment.unmatchedPredicted).toBe(1238);
+    // The text report says how the spans matched, as the JSON does.
+    const text = formatEvalTable(s2);
+    expect(text).toMatch(/gold unmatched\s+1238/);
+    expect(text).toMatch(/predicted unmatched\s+1238/);
+    expect(text).toContain("end to end");
     const r2 = (await evaluate({ kb, gold, predicted: shifted, spanMatch: "relaxed" })) as AlignedEvalReport;
     expect(r2.alignment.matched).toBe(1238);
   });

@@ -255,6 +255,11 @@ describe("readMentions", () => {
     expect((await collect(readMentions(nd)))[0]!.text).toBe("Vell");
   });
 
+  it("reads CSV header names without the spaces around them", async () => {
+    const csv = fixture(".csv", " id , text ,type\nm7,Stenmoor,LOC\n");
+    expect((await collect(readMentions(csv)))[0]).toMatchObject({ id: "m7", text: "Stenmoor", type: "LOC" });
+  });
+
   it("lets `from` override the extension", async () => {
     const file = fixture(".txt", jsonl([{ text: "Vell" }]));
     expect((await collect(readMentions(file, { from: "jsonl" })))[0]!.id).toBe("m1");

@@ -1,4 +1,5 @@
 /** A plain, aligned text table of an evaluation report, for a terminal. */
+import type { AlignedEvalReport } from "./align.js";
 import type { EvalReport, Figures } from "./metrics.js";
 
 /** Decimal places of fractions in the table: enough to tell 1 error in 1000 apart. */
@@ -62,8 +63,8 @@ export function formatEvalTable(report: EvalReport): string {
     "",
     alignColumns([
       ["candidate recall", "found", "of", "fraction"],
-      [`at ${cr.k}`, String(cr.foundAtK), String(cr.goldLinks), fraction(cr.atK)],
-      ["at all returned", String(cr.foundAtAll), String(cr.goldLinks), fraction(cr.atAll)],
+      [`at ${cr.k}`, String(cr.foundAtK), String(cr.goldLinks), fractionOf(cr.atK, cr.goldLinks)],
+      ["at all returned", String(cr.foundAtAll), String(cr.goldLinks), fractionOf(cr.atAll, cr.goldLinks)],
     ]),
     "",
     alignColumns([
@@ -73,5 +74,22 @@ export function formatEvalTable(report: EvalReport): string {
       ["missed link", String(e.missedLink)],
     ]),
   ];
+  // Evaluated against another run's spans (--predicted): how the spans were matched.
+  const alignment = (report as Partial<AlignedEvalReport>).alignment;
+  if (alignment !== undefined) {
+    const end = alignment.endToEnd;
+    lines.push(
+      "",
+      alignColumns([
+        [`spans (${alignment.mode})`, "count"],
+        ["matched", String(alignment.matched)],
+        ["gold unmatched", String(alignment.unmatchedGold)],
+        ["predicted unmatched", String(alignment.unmatchedPredicted)],
+        ["  of them links (false links)", String(alignment.falseLinks)],
+      ]),
+      "",
+      `end to end (unmatched predicted links counted as false): link P ${fraction(end.linkPrecision)}  link R ${fraction(end.linkRecall)}  link F1 ${fraction(end.linkF1)}`,
+    );
+  }
   return lines.join("\n") + "\n";
 }

@@ -90,7 +90,8 @@ export async function* readCsvRows(
     }>) {
       const line = startLine(item.info.lines, item.raw);
       if (columns === undefined) {
-        columns = item.record;
+        // Header names are read without the spaces around them (" id , text "), as tables' are.
+        columns = item.record.map((name) => name.trim());
         checkHeader(file, line, columns);
         onHeader?.({ line, columns });
         continue;

@@ -112,7 +112,9 @@ export function resolveFormat(file: string, options: ReadMentionsOptions): Menti
     (key) => options[key] !== undefined,
   );
   if (format !== "conll" && conllOnly.length > 0) {
-    throw new UsageError(`${conllOnly.join(", ")} apply to CoNLL input only (format is ${format})`);
+    throw new UsageError(
+      `${conllOnly.join(", ")} ${conllOnly.length === 1 ? "applies" : "apply"} to CoNLL input only (format is ${format})`,
+    );
   }
   if (format !== "spans" && options.window !== undefined)
     throw new UsageError(`window applies to spans input only (format is ${format})`);
@@ -120,7 +122,7 @@ export function resolveFormat(file: string, options: ReadMentionsOptions): Menti
     throw new UsageError(`documents applies to spans input only (format is ${format})`);
   }
   if (format === "spans" && options.documents === undefined) {
-    throw new UsageError("spans input needs a documents file (option documents)");
+    throw new UsageError("spans input needs a documents file (--documents on the command line)");
   }
   if (format === "conll" && options.labeled) {
     throw new UsageError("a labeled set cannot be CoNLL (no gold column); use JSONL, CSV or spans");

@@ -16,7 +16,7 @@ export interface JsonLine {
 export function jsonKind(value: unknown): string {
   if (value === null) return "null";
   if (Array.isArray(value)) return "an array";
-  return `a ${typeof value}`;
+  return typeof value === "object" ? "an object" : `a ${typeof value}`;
 }
 
 /**
