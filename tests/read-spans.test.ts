@@ -139,6 +139,18 @@ describe("readSpans", () => {
     expect(error.message).toContain(problem);
   });
 
+  it("rejects an offset inside a character that takes two UTF-16 code units", async () => {
+    const docs = await loadDocuments(
+      fixture(".jsonl", jsonl([{ id: "e1", text: "The \u{1F6A2} Swift sailed." }])),
+    );
+    const inside = fixture(".jsonl", jsonl([{ doc: "e1", start: 4, end: 5, label: "MISC" }]));
+    const error = await failure(readSpans(inside, "jsonl", docs));
+    expect(error.message).toContain(`${inside}:1: field "end":`);
+    expect(error.message).toContain("inside a character");
+    const after = fixture(".jsonl", jsonl([{ doc: "e1", start: 7, end: 12, label: "MISC" }]));
+    expect((await collect(readSpans(after, "jsonl", docs)))[0]!.text).toBe("Swift");
+  });
+
   it("rejects non-integer CSV offsets and duplicate ids", async () => {
     const docs = await loadDocuments(fixture(".jsonl", DOCS));
     const bad = fixture(".csv", "doc,start,end,label\nn1,3.0,8,PER\n");

@@ -24,6 +24,14 @@ import { type SentenceRange, splitSentences } from "./sentences.js";
 import { chunkTags, type TagScheme } from "./tags.js";
 
 /** Document texts by id. */
+/** True when `offset` falls between the two halves of a character outside the BMP (an emoji...). */
+function splitsSurrogatePair(text: string, offset: number): boolean {
+  if (offset <= 0 || offset >= text.length) return false;
+  const before = text.charCodeAt(offset - 1);
+  const after = text.charCodeAt(offset);
+  return before >= 0xd800 && before <= 0xdbff && after >= 0xdc00 && after <= 0xdfff;
+}
+
 export type Documents = Map<string, string>;
 
 /** Load a documents file: JSONL objects with `id` (string or integer) and `text` (string). */
@@ -122,6 +130,16 @@ export async function* readSpans(
         { ...at, field: "end" },
         `${end} is outside document "${doc}" (length ${text.length})`,
       );
+    }
+    for (const [field, offset] of [
+      ["start", start],
+      ["end", end],
+    ] as const) {
+      if (splitsSurrogatePair(text, offset))
+        throw new InputError(
+          { ...at, field },
+          `${offset} falls inside a character of document "${doc}" (offsets count UTF-16 code units; this character takes two)`,
+        );
     }
     const label = requiredString(ctx, values, "label");
     const slice = text.slice(start, end);
