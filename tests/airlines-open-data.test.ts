@@ -22,6 +22,7 @@ import { openKb } from "../src/kb/kb.js";
 import { createLinker } from "../src/link/linker.js";
 import { foldText } from "../src/normalize/fold.js";
 import type { LinkRow } from "../src/types.js";
+import { openDataShares } from "./helpers/open-data.js";
 
 const require = createRequire(import.meta.url);
 interface TableAirline {
@@ -81,13 +82,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe("linking the aircodes airlines to an OpenFlights table", () => {
   it("beats the folded-exact baseline clearly, with few wrong links", () => {
-    const n = outcomes.length;
-    const ours = outcomes.filter((o) => o.row.entity === o.gold).length / n;
-    const base = outcomes.filter((o) => o.baseline === o.gold).length / n;
-    const wrong = outcomes.filter((o) => o.row.entity !== null && o.row.entity !== o.gold).length / n;
-    console.log(
-      `airlines: ${n} names, hawser accuracy ${(100 * ours).toFixed(1)}%, folded-exact baseline ${(100 * base).toFixed(1)}%, wrong links ${(100 * wrong).toFixed(1)}%`,
-    );
+    const { n, ours, base, wrong } = openDataShares("airlines", outcomes);
     // Measured when this check was written: 70.6% against 23.2%, 5.6% wrong links (68.6% before
     // closing legal forms, Gulf forms and "Group"/"Holding" were read); 72.5%, 5.9% wrong links,
     // once a firm's name with a word or two more was read as its own ("name-extended"). Some wrong links are the
