@@ -159,10 +159,6 @@ interface Prepared {
 }
 
 /**
- * What scoring asks of a candidate's words (WordEvidence): one object per linker, pointed at the
- * mention and the entity being scored before each call of nameMatch, which keeps no reference.
- */
-/**
  * A library caller's mention, checked before use: the readers validate what they read, but an
  * object built in code reaches the linker as it is, and a missing text would surface as a
  * TypeError deep inside. Also refuses a closed KB (some lookups are in memory, others not).
@@ -182,6 +178,10 @@ function checkMention(m: Mention, kb: Kb): void {
   }
 }
 
+/**
+ * What scoring asks of a candidate's words (WordEvidence): one object per linker, pointed at the
+ * mention and the entity being scored before each call of nameMatch, which keeps no reference.
+ */
 class CandidateWords implements WordEvidence {
   p: Prepared | null = null;
   eid = 0;

@@ -24,6 +24,8 @@ import { type SentenceRange, splitSentences } from "./sentences.js";
 import { chunkTags, type TagScheme } from "./tags.js";
 
 /** Document texts by id. */
+export type Documents = Map<string, string>;
+
 /** True when `offset` falls between the two halves of a character outside the BMP (an emoji...). */
 function splitsSurrogatePair(text: string, offset: number): boolean {
   if (offset <= 0 || offset >= text.length) return false;
@@ -31,8 +33,6 @@ function splitsSurrogatePair(text: string, offset: number): boolean {
   const after = text.charCodeAt(offset);
   return before >= 0xd800 && before <= 0xdbff && after >= 0xdc00 && after <= 0xdfff;
 }
-
-export type Documents = Map<string, string>;
 
 /** Load a documents file: JSONL objects with `id` (string or integer) and `text` (string). */
 export async function loadDocuments(file: string): Promise<Documents> {
