@@ -6,6 +6,7 @@ import { extname } from "node:path";
 import { CsvError, Parser } from "csv-parse";
 import type { EntityRecord } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
+import { csvProblem } from "../read/csv.js";
 import { separatorHint } from "../read/field-hints.js";
 import { readJsonLines } from "../read/jsonl.js";
 import { type BytesTap, fileError, openText, STDIN } from "../read/lines.js";
@@ -196,7 +197,7 @@ async function* readDelimited(file: string, delimiter: string, onBytes?: BytesTa
     }
     // Every error of the CSV parser is about the file's text ("Invalid Opening Quote", ...).
     if (e instanceof CsvError || (typeof ce.code === "string" && ce.code.startsWith("CSV_")))
-      throw new InputError({ file, line: ce.lines }, ce.message.replace(/\s*(at|on) line \d+\.?$/, ""));
+      throw new InputError({ file, line: ce.lines }, csvProblem(ce));
     throw fileError(file, e);
   } finally {
     text.destroy();

@@ -693,8 +693,10 @@ export class Linker {
           batch.length > 0 &&
           (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)
         ) {
-          yield* this.linkDocument(batch);
+          // Handed over before it is linked: a failure there is not the source's (see below).
+          const whole = batch;
           batch = [];
+          yield* this.linkDocument(whole);
         }
         if (m.doc === undefined) {
           yield this.link(m);

@@ -84,9 +84,9 @@ async function detect(
 }
 
 /** The events read ahead, then the rest of the stream. */
-async function* replay(read: ConllEvent[], rest: AsyncIterator<ConllEvent>): AsyncGenerator<ConllEvent> {
+async function* replay(read: ConllEvent[], rest: AsyncGenerator<ConllEvent>): AsyncGenerator<ConllEvent> {
   yield* read;
-  for (let next = await rest.next(); !next.done; next = await rest.next()) yield next.value;
+  yield* rest;
 }
 
 /**

@@ -44,7 +44,7 @@ function startLine(endLine: number, raw: string | undefined): number {
 }
 
 /** csv-parse messages end with "on line N"; the InputError prefix already says where. */
-function csvProblem(error: CsvError): string {
+export function csvProblem(error: Error): string {
   return error.message.replace(/\s*(at|on) line \d+\.?$/, "");
 }
 
