@@ -1,5 +1,4 @@
 /** `hawser tune` as a library call: fit weights and choose the operating point on a labeled set. */
-import { resolve } from "node:path";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { configFromTune, type TunedConfig, writeConfig } from "../tune/config.js";
@@ -63,11 +62,8 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
     ["--documents", options.documents],
   ] as const;
   checkOutputFile(options.out, "--out", inputs);
-  if (options.report !== undefined) {
+  if (options.report !== undefined)
     checkOutputFile(options.report, "--report", [...inputs, ["--out", options.out]]);
-    if (resolve(options.report) === resolve(options.out))
-      throw new UsageError(`--report ${options.report} is also --out: give them different files`);
-  }
   const gold = await readLabeled(options.gold, options);
   const kb = openKb(options.kb);
   try {

@@ -1,6 +1,6 @@
 /** Non-fatal findings of the readers (e.g. ill-formed tag sequences), reported through `onWarning`. */
 
-import { STDIN } from "./lines.js";
+import { fileShown } from "../util/errors.js";
 
 export interface ReadWarning {
   /** Stable code for programs: e.g. "ill-formed-tags". */
@@ -19,8 +19,7 @@ export type WarningHandler = (warning: ReadWarning) => void;
 
 /** A warning as one line for people: "file:line: message" (standard input, "-", named "stdin"). */
 export function warningLine(w: ReadWarning): string {
-  const file = w.file === STDIN ? "stdin" : w.file;
-  return `${file}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`;
+  return `${fileShown(w.file)}${w.line === undefined ? "" : `:${w.line}`}: ${w.message}`;
 }
 
 /** The command line's report of a warning: one line on stderr, "hawser: warning: ...". */

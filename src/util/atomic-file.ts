@@ -15,12 +15,17 @@ import {
   type WriteStream,
   writeFileSync,
 } from "node:fs";
-import { basename, dirname, join } from "node:path";
+import { basename, dirname, join, resolve } from "node:path";
+import { STDIN } from "../read/lines.js";
 import { once } from "node:events";
 import { OutputError, UsageError } from "./errors.js";
 
-/** True when two paths name one file (the same device and inode), both existing. */
+/**
+ * True when two paths name one file: the same path once resolved (whether or not it exists yet,
+ * as two outputs may), or the same device and inode.
+ */
 function sameFile(a: string, b: string): boolean {
+  if (resolve(a) === resolve(b)) return true;
   const sa = statSync(a, { throwIfNoEntry: false });
   const sb = statSync(b, { throwIfNoEntry: false });
   return sa !== undefined && sb !== undefined && sa.dev === sb.dev && sa.ino === sb.ino;
@@ -57,7 +62,7 @@ export function checkOutputFile(
   if (existing !== undefined && !existing.isFile())
     throw new UsageError(`${what} ${file} is not a plain file (a pipe, a device or a socket)`);
   for (const [option, input] of inputs) {
-    if (input !== undefined && input !== "-" && sameFile(file, input))
+    if (input !== undefined && input !== STDIN && sameFile(file, input))
       throw new UsageError(`${what} ${file} is also ${option}: the output would overwrite it`);
   }
 }

@@ -10,6 +10,14 @@ export interface InputLocation {
   field?: string | undefined;
 }
 
+/**
+ * A file name as messages give it: "-" is standard input (src/read/lines.ts STDIN, not imported
+ * here, which it imports), and a message that starts "-:12:" reads as noise.
+ */
+export function fileShown(file: string): string {
+  return file === "-" ? "stdin" : file;
+}
+
 /** Bad input data: the message always starts with `file:line` and names the field when known. */
 export class InputError extends Error {
   readonly file: string;
@@ -17,8 +25,7 @@ export class InputError extends Error {
   readonly field: string | undefined;
 
   constructor(location: InputLocation, problem: string) {
-    // "-" is standard input (src/read/lines.ts STDIN): a message that starts "-:12:" reads as noise.
-    const file = location.file === "-" ? "stdin" : location.file;
+    const file = fileShown(location.file);
     const where = location.line === undefined ? file : `${file}:${location.line}`;
     const field = location.field === undefined ? "" : ` field "${location.field}":`;
     super(`${where}:${field} ${problem}`);
