@@ -457,6 +457,9 @@ function leadingLegalForm(tokens: readonly string[]): number {
  * tokens' length when there is none.
  */
 function closingLegalStart(tokens: readonly string[]): number {
+  // Most names hold no closing form: spare them the legal-form reading of their last words, which
+  // stripOrganization does anyway.
+  if (!tokens.some((t) => CLOSING_LEGAL_FORMS[t] !== undefined)) return tokens.length;
   let start = tokens.length;
   let closing = false;
   while (start > 1) {
