@@ -17,7 +17,6 @@ import {
 } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
 import { STDIN } from "../read/lines.js";
-import { once } from "node:events";
 import { OutputError, UsageError } from "./errors.js";
 
 /**
@@ -130,9 +129,26 @@ export class AtomicWriter {
     this.check();
     if (!this.stream.write(chunk)) {
       // A failing stream never drains: wait for whichever comes first.
-      await Promise.race([once(this.stream, "drain"), once(this.stream, "close")]);
+      await this.first("drain", "close");
       this.check();
     }
+  }
+
+  /**
+   * Resolves on the first of two stream events and removes both listeners then: a race of two
+   * `once` promises leaves the loser's listener behind, one more at every full buffer (a long
+   * run drew a MaxListenersExceededWarning after ten).
+   */
+  private first(a: string, b: string): Promise<void> {
+    return new Promise((resolve) => {
+      const done = () => {
+        this.stream.off(a, done);
+        this.stream.off(b, done);
+        resolve();
+      };
+      this.stream.on(a, done);
+      this.stream.on(b, done);
+    });
   }
 
   /** Throws the stream's error, if any, as an OutputError naming the target. */
@@ -144,7 +160,7 @@ export class AtomicWriter {
   async commit(): Promise<void> {
     this.check();
     this.stream.end();
-    await Promise.race([once(this.stream, "finish"), once(this.stream, "close")]);
+    await this.first("finish", "close");
     this.check();
     renameSync(this.tmp, this.target);
     this.finished();
