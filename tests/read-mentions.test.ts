@@ -156,6 +156,19 @@ describe("readMentionsJsonl", () => {
     const file = fixture(".jsonl", jsonl([{ id: "m2", text: "Vell" }, { text: "Tull" }]));
     const error = await failure(readMentionsJsonl(file));
     expect((error as InputError).line).toBe(2);
+    // The mention on line 2 wrote no id: the message says so rather than "duplicate".
+    expect(error.message).toContain(
+      'has no id and the one given by default, "m2", is already used on line 1',
+    );
+    // The other order: the default id came first, the written one second.
+    const later = fixture(".jsonl", jsonl([{ text: "Vell" }, { id: "m1", text: "Tull" }]));
+    expect((await failure(readMentionsJsonl(later))).message).toContain(
+      `${later}:2: field "id": duplicate id "m1" (given by default to the mention on line 1, which has none`,
+    );
+    const csv = fixture(".csv", "id,text\n,Vell\nm2,Tull\n");
+    expect((await failure(readMentionsCsv(csv))).message).toContain(
+      "given by default to the mention on line 2",
+    );
   });
 
   it.each([

@@ -122,19 +122,32 @@ export function extraFields(
 
 /** Rejects a second use of the same mention id within one file. */
 export class UniqueIds {
+  /** Line of each id's first use, negative when the id was given by default (see generatedId). */
   private readonly seen = new Map<string, number>();
 
   constructor(private readonly file: string) {}
 
-  /** Record `id` seen at `line`; throws when it was seen before. */
-  claim(id: string, line: number, field = "id"): void {
+  /**
+   * Record `id` seen at `line`; throws when it was seen before. `generated`: the row had no id
+   * and `id` is the one given by default, which an id written elsewhere in the file can match.
+   */
+  claim(id: string, line: number, generated = false): void {
     const first = this.seen.get(id);
     if (first !== undefined) {
-      throw new InputError(
-        { file: this.file, line, field },
-        `duplicate id "${id}" (first used on line ${first})`,
-      );
+      const at = { file: this.file, line, field: "id" };
+      const remedy = "give every mention an id, or none";
+      if (generated)
+        throw new InputError(
+          at,
+          `the mention has no id and the one given by default, "${id}", is already used on line ${Math.abs(first)}: ${remedy}`,
+        );
+      if (first < 0)
+        throw new InputError(
+          at,
+          `duplicate id "${id}" (given by default to the mention on line ${-first}, which has none: ${remedy})`,
+        );
+      throw new InputError(at, `duplicate id "${id}" (first used on line ${first})`);
     }
-    this.seen.set(id, line);
+    this.seen.set(id, generated ? -line : line);
   }
 }

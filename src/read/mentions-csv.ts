@@ -3,7 +3,7 @@
 import { InputError } from "../util/errors.js";
 import { type CsvOptions, readCsvRows } from "./csv.js";
 import { lookalikeOf, separatorHint } from "./field-hints.js";
-import { UniqueIds } from "./fields.js";
+import { isAbsent, UniqueIds } from "./fields.js";
 import {
   type MentionRowOptions,
   mentionFromRow,
@@ -42,8 +42,9 @@ export async function* readMentionsCsv(
     }
   };
   for await (const { line, values } of readCsvRows(file, options, checkHeader)) {
-    const mention = mentionFromRow({ file, line, cells: true }, values, options);
-    ids.claim(mention.id, line);
+    const ctx = { file, line, cells: true };
+    const mention = mentionFromRow(ctx, values, options);
+    ids.claim(mention.id, line, isAbsent(ctx, values.id));
     yield mention;
   }
 }

@@ -1,7 +1,7 @@
 /** Mentions from a JSONL file: one mention object a line (see DESIGN.md, "Mentions"). */
 
 import type { LabeledMention } from "../types.js";
-import { UniqueIds } from "./fields.js";
+import { isAbsent, UniqueIds } from "./fields.js";
 import { readJsonLines } from "./jsonl.js";
 import {
   type MentionRowOptions,
@@ -22,8 +22,10 @@ export async function* readMentionsJsonl(
 ): AsyncGenerator<ReadMention | (ReadMention & LabeledMention)> {
   const ids = new UniqueIds(file);
   for await (const { line, value } of readJsonLines(file)) {
-    const mention = mentionFromRow({ file, line, cells: false }, value as Record<string, unknown>, options);
-    ids.claim(mention.id, line);
+    const ctx = { file, line, cells: false };
+    const row = value as Record<string, unknown>;
+    const mention = mentionFromRow(ctx, row, options);
+    ids.claim(mention.id, line, isAbsent(ctx, row.id));
     yield mention;
   }
 }

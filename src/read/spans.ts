@@ -150,8 +150,9 @@ export async function* readSpans(
         `${quote(given)} differs from the document text at ${start}-${end}: ${quote(slice)}`,
       );
     }
-    const id = optionalId(ctx, values, "id") ?? generatedId(ctx.line);
-    ids.claim(id, ctx.line);
+    const givenId = optionalId(ctx, values, "id");
+    const id = givenId ?? generatedId(ctx.line);
+    ids.claim(id, ctx.line, givenId === undefined);
     let context: string;
     if ("chars" in window) {
       context = charWindow(text, start, end, window.chars);
