@@ -7,7 +7,7 @@
  */
 export { agree, type AgreeOptions } from "./commands/agree.js";
 export { demo, type DemoOptions, type DemoResult, SAMPLES_DIR } from "./commands/demo.js";
-export { type EvalOptions, evaluate, readLabeled } from "./commands/evaluate.js";
+export { type EvalOptions, type EvalResult, evaluate, readLabeled } from "./commands/evaluate.js";
 export { index, type IndexOptions } from "./commands/index-table.js";
 export { link, type LinkOptions, type LinkSummary } from "./commands/link.js";
 export { scoredMentionsFor, type TuneCommandOptions, type TuneCommandResult, tune } from "./commands/tune.js";
@@ -29,5 +29,5 @@ export { formatEvalTable } from "./evaluate/format.js";
 export { agreement } from "./evaluate/agree.js";
 export { readConfig, type TunedConfig, writeConfig } from "./tune/config.js";
 export { PROCEDURE_WORDS, TUNE_PROCEDURES, type TuneProcedure, type TuneResult } from "./tune/tune.js";
-export { InputError, UsageError } from "./util/errors.js";
+export { InputError, OutputError, UsageError } from "./util/errors.js";
 export * from "./types.js";

@@ -122,16 +122,10 @@ export const FEATURE_NAMES: readonly FeatureName[] = [
   "prominence",
 ];
 
-/** Which generation path found a candidate. */
-export type CandidatePath =
-  | "exact"
-  | "ocr"
-  | "acronym"
-  | "initials"
-  | "fts"
-  | "fuzzy"
-  | "phonetic"
-  | "document";
+/** A candidate generation path: the linker's `paths` option names these. */
+export type SearchPath = "exact" | "ocr" | "acronym" | "initials" | "fts" | "fuzzy";
+/** Which path found a candidate: a search path, or document-level evidence ("document"). */
+export type CandidatePath = SearchPath | "document";
 
 /** A candidate as it appears in a link row. */
 export interface CandidateOut {

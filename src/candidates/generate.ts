@@ -26,7 +26,7 @@ import type { NormalizedName } from "../normalize/name.js";
 import { ocrFold } from "../normalize/ocr.js";
 import { COMPASS_INITIALS } from "../normalize/lexicon.js";
 import { genericWordFor, genericWordsOf } from "../score/table-words.js";
-import type { CandidatePath, EntityClass } from "../types.js";
+import type { CandidatePath, EntityClass, SearchPath } from "../types.js";
 import { GenerationCache } from "../util/generation-cache.js";
 import { osaDistance } from "./edit-distance.js";
 
@@ -80,12 +80,20 @@ export interface CandidateOptions {
    */
   subKeys: boolean;
   /** Paths that run; default all. Turning one off is how their value is measured. */
-  paths: ReadonlySet<CandidatePath>;
+  paths: ReadonlySet<SearchPath>;
 }
 
-export const ALL_PATHS: readonly CandidatePath[] = ["exact", "ocr", "acronym", "initials", "fts", "fuzzy"];
+export const ALL_PATHS: readonly SearchPath[] = Object.freeze([
+  "exact",
+  "ocr",
+  "acronym",
+  "initials",
+  "fts",
+  "fuzzy",
+]);
 
-export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
+/** Frozen (see DEFAULT_WEIGHTS); its `paths` set is typed read-only. */
+export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = Object.freeze({
   maxCandidates: 30,
   maxSearchCandidates: 10,
   ftsLimit: 150,
@@ -96,7 +104,7 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = {
   respellSurnameOnKeyMatch: true,
   subKeys: true,
   paths: new Set(ALL_PATHS),
-};
+});
 
 /** One bit per path: a candidate's paths as a bit set while pools of thousands are sorted. */
 const PATH_BIT = new Map<CandidatePath, number>(ALL_PATHS.map((p, i) => [p, 1 << i]));
@@ -249,15 +257,9 @@ export function gatherPool(kb: Kb, forms: readonly MentionForm[], opts: Candidat
   // Every whole-key probe of every form, answered from the KB's in-memory key index. A probe "names" an
   // entity when a match on it is specific: a key of two or more words, or an acronym. A single
   // word ("Mrs Ingeldale", "Edith") is shared by everyone of that surname or given name.
-  type Probe = { cls: EntityClass; kind: KeyKind; path: CandidatePath; names: boolean };
+  type Probe = { cls: EntityClass; kind: KeyKind; path: SearchPath; names: boolean };
   const probes = new Map<string, Probe[]>();
-  const probe = (
-    key: string | null,
-    cls: EntityClass,
-    kind: KeyKind,
-    path: CandidatePath,
-    names: boolean,
-  ) => {
+  const probe = (key: string | null, cls: EntityClass, kind: KeyKind, path: SearchPath, names: boolean) => {
     if (key === null || key === "" || !on.has(path)) return;
     const list = probes.get(key);
     if (list) list.push({ cls, kind, path, names });

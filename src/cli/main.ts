@@ -19,7 +19,8 @@ import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { ALL_PATHS } from "../candidates/generate.js";
 import { MARGIN_CAP } from "../decide/decide.js";
-import type { CandidatePath } from "../types.js";
+import type { SearchPath } from "../types.js";
+import { printWarning } from "../read/warnings.js";
 import { removeUnfinished } from "../util/atomic-file.js";
 import { InputError, OutputError, UsageError } from "../util/errors.js";
 
@@ -57,11 +58,11 @@ function nonNegative(name: string) {
     return x;
   };
 }
-function pathList(v: string): CandidatePath[] {
+function pathList(v: string): SearchPath[] {
   const list = v
     .split(",")
     .map((s) => s.trim())
-    .filter(Boolean) as CandidatePath[];
+    .filter(Boolean) as SearchPath[];
   if (list.length === 0)
     throw new InvalidArgumentError(`--paths needs at least one of ${ALL_PATHS.join(",")}`);
   for (const p of list)
@@ -209,7 +210,7 @@ export function program(): Command {
     )
     .option("--labels <file>", "JSON label map for table types")
     .action(async (table: string, o: { out: string; from?: "csv" | "tsv" | "jsonl"; labels?: string }) => {
-      const s = await index({ table, ...o });
+      const s = await index({ table, ...o, progress: process.stderr.isTTY === true });
       err(
         `indexed ${s.entities} entities (${s.aliases} names and aliases, ${s.keys} keys) into ${o.out} in ${s.seconds.toFixed(2)}s`,
       );
@@ -241,6 +242,8 @@ export function program(): Command {
       kb: o.kb as string,
       mentions,
       ...common(o),
+      progress: process.stderr.isTTY === true,
+      warn: printWarning,
       ...(o.out ? { out: o.out as string } : {}),
       ...(o.to ? { to: o.to as "jsonl" | "csv" } : {}),
     });
@@ -267,10 +270,11 @@ export function program(): Command {
         .option("--json", "print the full report as JSON"),
     ),
   ).action(async (o: Record<string, unknown>) => {
-    const report = await evaluate({
+    const { warnings: _printed, ...report } = await evaluate({
       kb: o.kb as string,
       gold: o.gold as string,
       ...common(o),
+      warn: printWarning,
       ...(o.predicted ? { predicted: o.predicted as string } : {}),
       ...(o.spanMatch ? { spanMatch: o.spanMatch as "strict" | "relaxed" } : {}),
       ...(o.k ? { k: o.k as number } : {}),
@@ -308,6 +312,7 @@ export function program(): Command {
       gold: o.gold as string,
       out: o.out as string,
       ...common(o),
+      warn: printWarning,
     } as Parameters<typeof tune>[0];
     for (const k of ["minPrecision", "report", "folds", "seed", "l2"] as const)
       if (o[k] !== undefined) (opt as unknown as Record<string, unknown>)[k] = o[k];

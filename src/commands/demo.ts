@@ -11,7 +11,7 @@ import { alignSpans, evaluateAligned } from "../evaluate/align.js";
 import { type EvalReport, evaluate as evaluateRows } from "../evaluate/metrics.js";
 import { UsageError } from "../util/errors.js";
 import type { LinkRow } from "../types.js";
-import { evaluate, readLabeled } from "./evaluate.js";
+import { type EvalResult, evaluate, readLabeled } from "./evaluate.js";
 import { index } from "./index-table.js";
 import { type LinkOptions, link } from "./link.js";
 import { PROCEDURE_WORDS } from "../tune/tune.js";
@@ -104,8 +104,9 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
     for (const reason of r.reasons.filter((x) => x.code !== "found-by"))
       print(`       ${reason.code}: ${reason.message}`);
   }
-  const tuned = await tune({ kb, gold, out: config, report });
-  const after = (await evaluate({ kb, gold, config })) as EvalReport;
+  const warn = (m: string) => print(`   warning: ${m}`);
+  const tuned = await tune({ kb, gold, out: config, report, warn });
+  const after = (await evaluate({ kb, gold, config, warn })) as EvalResult & EvalReport;
   const f = tuned.result.figures;
   print(
     `4. tuned on the gold set (a logistic fit, the default weights with a swept threshold and the defaults, ` +

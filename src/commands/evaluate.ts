@@ -4,7 +4,7 @@ import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { type Kb, openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
-import { printWarning, type ReadWarning, warningLine } from "../read/warnings.js";
+import { type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
@@ -38,12 +38,35 @@ export interface EvalOptions
   spanMatch?: AlignMode;
   /** k of candidate recall at k. Default 3 (the rows' default candidate count). */
   k?: number;
+  /**
+   * Called with each warning (gold ids the KB lacks, ill-formed tags) as it is found. Default:
+   * none; the report's `warnings` holds them all either way (the command line prints them).
+   */
+  warn?: (message: string) => void;
+}
+
+/** What `evaluate` returns: the report, and the warnings met on the way. */
+export type EvalResult = (EvalReport | AlignedEvalReport) & { warnings: string[] };
+
+/** A warning handler that also keeps every message, for a result's `warnings`. */
+export function keepingWarnings(warn: ((message: string) => void) | undefined): {
+  warnings: string[];
+  note: (message: string) => void;
+} {
+  const warnings: string[] = [];
+  return {
+    warnings,
+    note: (message) => {
+      warnings.push(message);
+      warn?.(message);
+    },
+  };
 }
 
 export async function readLabeled(
   file: string,
   options: Parameters<typeof readerOptions>[0] = {},
-  warn: (message: string) => void = printWarning,
+  warn: (message: string) => void = () => {},
 ): Promise<LabeledMention[]> {
   const out: LabeledMention[] = [];
   const onWarning = (w: ReadWarning) => warn(warningLine(w));
@@ -65,7 +88,7 @@ export function warnUnknownGold(
   kb: Kb,
   gold: readonly LabeledMention[],
   file: string,
-  warn: (message: string) => void = printWarning,
+  warn: (message: string) => void = () => {},
 ): number {
   const unknown = gold.filter((m) => m.gold !== null && kb.eidOf(m.gold) === undefined);
   if (unknown.length > 0) {
@@ -103,7 +126,7 @@ async function readLinkRows(file: string): Promise<LinkRow[]> {
   return rows;
 }
 
-export async function evaluate(options: EvalOptions): Promise<EvalReport | AlignedEvalReport> {
+export async function evaluate(options: EvalOptions): Promise<EvalResult> {
   if (options.spanMatch !== undefined && options.predicted === undefined) {
     throw new UsageError(
       "--span-match needs --predicted (rows from another NER run to align with the gold spans)",
@@ -112,7 +135,8 @@ export async function evaluate(options: EvalOptions): Promise<EvalReport | Align
   if (options.spanMatch !== undefined && options.spanMatch !== "strict" && options.spanMatch !== "relaxed") {
     throw new UsageError(`unknown span match "${options.spanMatch}": use strict or relaxed`);
   }
-  const gold = await readLabeled(options.gold, options);
+  const { warnings, note } = keepingWarnings(options.warn);
+  const gold = await readLabeled(options.gold, options, note);
   const k = options.k !== undefined ? { k: options.k } : {};
   if (options.predicted !== undefined) {
     const predicted = await readLinkRows(options.predicted);
@@ -121,16 +145,17 @@ export async function evaluate(options: EvalOptions): Promise<EvalReport | Align
       goldFile: options.gold,
       predictedFile: options.predicted,
     });
-    return evaluateAligned(alignment, k);
+    return { ...evaluateAligned(alignment, k), warnings };
   }
   const kb = openKb(options.kb);
   try {
-    warnUnknownGold(kb, gold, options.gold);
+    warnUnknownGold(kb, gold, options.gold, note);
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const pairs = [];
     let i = 0;
     for await (const row of linker.linkAll(gold)) pairs.push({ gold: gold[i++]!, predicted: row });
-    return measure(pairs, k);
+    for (const w of linker.labels.warnings()) note(w);
+    return { ...measure(pairs, k), warnings };
   } finally {
     kb.close();
   }

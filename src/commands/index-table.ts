@@ -12,7 +12,7 @@ export interface IndexOptions {
   from?: "csv" | "tsv" | "jsonl";
   /** JSON label map overriding the built-in type spellings. */
   labels?: string;
-  /** Show a progress bar on stderr; default: when stderr is a terminal. */
+  /** Show a progress bar on stderr. Default false (the command line shows one when stderr is a terminal). */
   progress?: boolean;
 }
 

@@ -4,9 +4,9 @@ import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
 import { type LinkerOptions, createLinker } from "../link/linker.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
 import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
-import { printWarning, warningLine } from "../read/warnings.js";
+import { warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
-import type { CandidatePath, LinkRow } from "../types.js";
+import type { LinkRow, SearchPath } from "../types.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
 import { requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
@@ -33,14 +33,17 @@ export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
   /** Candidates scored per mention; default 30. */
   maxCandidates?: number;
   /** Candidate paths to run; default all. */
-  paths?: CandidatePath[];
+  paths?: SearchPath[];
   /** JSON label map file overriding the built-in label sets. */
   labels?: string;
   /** Document-level evidence steps (same text, short forms, acronyms); `false` turns all off. Default: all on. */
   document?: LinkerOptions["document"];
-  /** Show a progress bar on stderr; default: when stderr is a terminal. */
+  /** Show a progress bar on stderr. Default false (the command line shows one when stderr is a terminal). */
   progress?: boolean;
-  /** Where warnings go (unknown labels, ill-formed tags); default: stderr. */
+  /**
+   * Called with each warning (unknown labels, ill-formed tags) as it is found. Default: none;
+   * the summary's `warnings` holds them all either way (the command line prints them).
+   */
   warn?: (message: string) => void;
   /** Where rows go when `out` is not given; default process.stdout. */
   stdout?: NodeJS.WritableStream;
@@ -120,7 +123,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
     ]);
   const kb = openKb(options.kb);
   const warnings: string[] = [];
-  const warn = options.warn ?? printWarning;
+  const warn = options.warn ?? (() => {});
   const note = (m: string) => {
     warnings.push(m);
     warn(m);

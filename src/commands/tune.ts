@@ -7,7 +7,7 @@ import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
 import { checkOutputFile, writeFileAtomic } from "../util/atomic-file.js";
 import { UsageError } from "../util/errors.js";
-import { readLabeled, warnUnknownGold } from "./evaluate.js";
+import { keepingWarnings, readLabeled, warnUnknownGold } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
 
 export interface TuneCommandOptions
@@ -28,11 +28,15 @@ export interface TuneCommandOptions
   seed?: number;
   /** L2 penalty of the logistic fit. Default 1. */
   l2?: number;
+  /** Called with each warning as it is found. Default: none; the result's `warnings` holds them all. */
+  warn?: (message: string) => void;
 }
 
 export interface TuneCommandResult {
   config: TunedConfig;
   result: TuneResult;
+  /** Warnings met on the way (gold ids the KB lacks, ill-formed tags); the command line prints them. */
+  warnings: string[];
 }
 
 /** Every candidate the linker scores for each labeled mention: the training data of tuning. */
@@ -64,10 +68,11 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
   checkOutputFile(options.out, "--out", inputs);
   if (options.report !== undefined)
     checkOutputFile(options.report, "--report", [...inputs, ["--out", options.out]]);
-  const gold = await readLabeled(options.gold, options);
+  const { warnings, note } = keepingWarnings(options.warn);
+  const gold = await readLabeled(options.gold, options, note);
   const kb = openKb(options.kb);
   try {
-    warnUnknownGold(kb, gold, options.gold);
+    warnUnknownGold(kb, gold, options.gold, note);
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const data = scoredMentionsFor(linker, gold);
     const objective: Objective = options.minPrecision !== undefined ? "recall-at-precision" : "f1";
@@ -86,7 +91,8 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
       const html = renderReport({ tune: result, kb: kbRef, created: created.toISOString() });
       writeFileAtomic(options.report, html);
     }
-    return { config, result };
+    for (const w of linker.labels.warnings()) note(w);
+    return { config, result, warnings };
   } finally {
     kb.close();
   }

@@ -64,7 +64,8 @@ export function decide(scores: readonly number[], threshold: number, minMargin: 
   }
   if (best < 0) return { outcome: "no-candidates", chosen: -1, best: -1, bestScore: 0, margin: 0 };
   const margin = marginOver(bestScore, scores.length < 2 ? undefined : second);
-  if (bestScore < threshold) return { outcome: "below-threshold", chosen: -1, best, bestScore, margin };
-  if (margin < minMargin) return { outcome: "ambiguous", chosen: -1, best, bestScore, margin };
+  // Written as "not at least", so that a score or margin that is not a number never links.
+  if (!(bestScore >= threshold)) return { outcome: "below-threshold", chosen: -1, best, bestScore, margin };
+  if (!(margin >= minMargin)) return { outcome: "ambiguous", chosen: -1, best, bestScore, margin };
   return { outcome: "link", chosen: best, best, bestScore, margin };
 }

@@ -28,11 +28,11 @@ export interface DocumentEvidenceOptions {
   acronyms: boolean;
 }
 
-export const DEFAULT_DOCUMENT_EVIDENCE: DocumentEvidenceOptions = {
+export const DEFAULT_DOCUMENT_EVIDENCE: DocumentEvidenceOptions = Object.freeze({
   sameText: true,
   shortForm: true,
   acronyms: true,
-};
+});
 
 /**
  * How much a mention's own best candidate must beat the document's choice to keep its own

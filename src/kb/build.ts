@@ -13,7 +13,7 @@ import { contextTerms } from "../score/terms.js";
 import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
 import { STDIN } from "../read/lines.js";
 import { checkOutputFile, trackUnfinished } from "../util/atomic-file.js";
-import { InputError, requirePaths } from "../util/errors.js";
+import { InputError, OutputError, requirePaths } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
@@ -63,6 +63,9 @@ export interface BuildSummary {
 
 const DEFAULT_PROGRESS_EVERY = 10_000;
 
+/** SQLite's codes (and prefixes of extended codes) for a file that cannot be written. */
+const OUTPUT_FAILURES = ["SQLITE_FULL", "SQLITE_IOERR", "SQLITE_CANTOPEN", "SQLITE_READONLY"];
+
 /**
  * Page cache during the bulk load, KiB. Every table is appended to at its end, so only the last
  * pages of each are hot; a larger cache only holds back writes, grows the process and crowds
@@ -101,7 +104,12 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
     throw new InputError({ file: options.table }, "no such file");
   const labels = options.labels ?? new LabelMap();
   const tmp = join(dirname(options.out), `.${basename(options.out)}.tmp-${process.pid}-${Date.now()}`);
-  const db = new Database(tmp);
+  let db: Database.Database;
+  try {
+    db = new Database(tmp);
+  } catch (e) {
+    throw new OutputError(options.out, e as Error);
+  }
   const finished = trackUnfinished(tmp);
   let ok = false;
   try {
@@ -171,6 +179,12 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
       seconds,
       phases: summary.phases,
     };
+  } catch (e) {
+    // A full disk or a failing write is no fault of the table: say which file could not be written.
+    const code = (e as { code?: unknown }).code;
+    if (typeof code === "string" && OUTPUT_FAILURES.some((c) => code.startsWith(c)))
+      throw new OutputError(options.out, e as Error);
+    throw e;
   } finally {
     if (!ok) {
       if (db.open) db.close();

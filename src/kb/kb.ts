@@ -9,7 +9,7 @@ import { ftsWords } from "./postings.js";
 import { HotStore } from "./hot.js";
 import { NameForms, NameStore } from "./names.js";
 import type { EntityClass } from "../types.js";
-import { InputError } from "../util/errors.js";
+import { InputError, UsageError } from "../util/errors.js";
 import { KB_FORMAT, type KeyKind, SCHEMA_VERSION, type UnpackedForm, unpackForms } from "./schema.js";
 import { GenerationCache } from "../util/generation-cache.js";
 
@@ -145,9 +145,13 @@ export class Kb {
   readonly names: NameStore;
 
   constructor(file: string) {
+    if (typeof file !== "string" || file === "")
+      throw new UsageError(
+        `openKb: the KB file must be a path (a non-empty string), not ${JSON.stringify(file)}`,
+      );
     if (!existsSync(file))
       throw new InputError({ file }, "no such KB file (build one with `hawser index TABLE --out KB`)");
-    let db: Database.Database;
+    let db: Database.Database | undefined;
     try {
       db = new Database(file, { readonly: true, fileMustExist: true });
       db.pragma("query_only = ON");
@@ -157,10 +161,17 @@ export class Kb {
       // (they take shared locks too); a rebuild writes a new file and renames it into place.
       db.pragma("locking_mode = EXCLUSIVE");
     } catch (e) {
+      db?.close();
       throw new InputError({ file }, `cannot open as a KB: ${(e as Error).message}`);
     }
     this.db = db;
-    this.info = readInfo(db, file);
+    try {
+      this.info = readInfo(db, file);
+    } catch (e) {
+      // Not a KB, or another version's: the handle is closed now, not whenever the GC finds it.
+      db.close();
+      throw e;
+    }
     try {
       for (const r of db.prepare("SELECT token, df, id FROM vocab").raw(true).iterate() as Iterable<
         [string, number, number]
@@ -197,6 +208,16 @@ export class Kb {
     if (this.db.open) this.db.close();
   }
 
+  /** The prepared statements, refused once the KB is closed (a UsageError, not SQLite's TypeError). */
+  private get live(): Kb["stmts"] {
+    this.requireOpen();
+    return this.stmts;
+  }
+
+  private requireOpen(): void {
+    if (!this.db.open) throw new UsageError(`the KB ${this.info.file} is closed: open it again`);
+  }
+
   /** Every blocking-key row of `key` (any class and kind), from the in-memory key index. */
   forEachKeyHit(key: string, each: (cls: EntityClass, kind: KeyKind, eid: number) => void): void {
     this.hot.forEachKeyHit(key, each);
@@ -226,7 +247,7 @@ export class Kb {
    */
   searchAliasesFts(tokens: readonly string[], limit: number): number[] {
     return searchWords(tokens, limit, (w, n, take) => {
-      for (const pos of this.stmts.fts.all(ftsString(w), n)) take(this.hot.eidAt(pos));
+      for (const pos of this.live.fts.all(ftsString(w), n)) take(this.hot.eidAt(pos));
     });
   }
 
@@ -299,7 +320,7 @@ export class Kb {
   termInfo(term: string): TermInfo {
     let info = this.idfCache.get(term);
     if (info === undefined) {
-      info = this.stmts.idf.get(term) ?? UNKNOWN_TERM;
+      info = this.live.idf.get(term) ?? UNKNOWN_TERM;
       this.idfCache.set(term, info);
     }
     return info;
@@ -321,7 +342,9 @@ export class Kb {
       let row = this.entityCache.get(eid);
       if (row === undefined) {
         if (!(Number.isInteger(eid) && eid >= 1 && eid <= this.hot.entities))
-          throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
+          throw new UsageError(
+            `KB ${this.info.file}: no entity with internal id ${eid} (internal ids run from 1 to ${this.hot.entities}; eidOf reads one from a table id)`,
+          );
         row = new KbEntity(this, eid, this.hot.classOf(eid), this.hot.prior[eid]!, this.hot.norm[eid]!);
         this.entityCache.set(eid, row);
       }
@@ -331,7 +354,7 @@ export class Kb {
 
   /** The stored part of an entity's row (see KbEntity). */
   storedRow(eid: number): StoredRow {
-    const r = this.stmts.stored.get(eid) as { type: string; forms: string; attributes: string } | undefined;
+    const r = this.live.stored.get(eid) as { type: string; forms: string; attributes: string } | undefined;
     if (r === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
     return {
       type: r.type,
@@ -342,18 +365,19 @@ export class Kb {
 
   /** The description and attributes of an entity (the description is not needed for linking, so stored apart). */
   details(eid: number): { description: string; attributes: Record<string, string> } {
-    const r = this.stmts.details.get(eid) as { description: string; attributes: string } | undefined;
+    const r = this.live.details.get(eid) as { description: string; attributes: string } | undefined;
     if (r === undefined) throw new Error(`KB ${this.info.file}: no entity with internal id ${eid}`);
     return { description: r.description, attributes: JSON.parse(r.attributes) as Record<string, string> };
   }
 
   /** Internal id of a table id, or undefined. */
   eidOf(id: string): number | undefined {
-    return this.stmts.byId.get(id)?.eid;
+    return this.live.byId.get(id)?.eid;
   }
 
   /** Every entity row of a class, decoded, streamed in table order without touching the cache. */
   *entityRowsOfClass(cls: EntityClass): Generator<EntityRow> {
+    this.requireOpen();
     const stmt = this.db.prepare(
       "SELECT eid, id, name, type, class, prior, forms, attributes FROM entities WHERE class = ? ORDER BY eid",
     );

@@ -13,8 +13,8 @@ import {
   type PreRank,
   type RawCandidate,
 } from "../candidates/generate.js";
-import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, MARGIN_CAP, marginOver } from "../decide/decide.js";
-import type { EntityRow, Kb, TermInfo } from "../kb/kb.js";
+import { DEFAULT_MIN_MARGIN, DEFAULT_THRESHOLD, decide, marginOver } from "../decide/decide.js";
+import { type EntityRow, Kb, type TermInfo } from "../kb/kb.js";
 import { ftsWords } from "../kb/postings.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
@@ -45,9 +45,21 @@ import {
   type LinkRow,
   type Mention,
   type Reason,
+  type SearchPath,
   type Weights,
 } from "../types.js";
 import { UsageError } from "../util/errors.js";
+import {
+  checkCandidateOptions,
+  checkCandidateSettings,
+  checkDecision,
+  checkDocumentOptions,
+  checkMention,
+  checkPaths,
+  checkRange,
+  checkWeights,
+  checkWhole,
+} from "./check-options.js";
 import {
   DEFAULT_DOCUMENT_EVIDENCE,
   type DocItem,
@@ -74,7 +86,7 @@ export interface LinkerOptions {
   /** Most candidates scored per mention. Default 30. */
   maxCandidates?: number;
   /** Candidate paths to run. Default: all (exact, ocr, acronym, initials, fts, fuzzy). */
-  paths?: readonly CandidatePath[];
+  paths?: readonly SearchPath[];
   /** Further candidate-generation settings (see CandidateOptions). */
   candidates?: Partial<CandidateOptions>;
   /** Label map: NER labels and table types to classes and compatibilities. Default: built-in. */
@@ -156,26 +168,6 @@ interface Prepared {
   wordTerms?: Map<string, TermInfo | null>;
   /** The values of the table's kind columns the context names (see KindValues). */
   contextKinds: number[] | null;
-}
-
-/**
- * A library caller's mention, checked before use: the readers validate what they read, but an
- * object built in code reaches the linker as it is, and a missing text would surface as a
- * TypeError deep inside. Also refuses a closed KB (some lookups are in memory, others not).
- */
-function checkMention(m: Mention, kb: Kb): void {
-  if (!kb.db.open) throw new UsageError("the KB is closed: open it again to link");
-  if (typeof m !== "object" || m === null) throw new UsageError(`a mention must be an object, got ${m}`);
-  const what = `mention ${typeof m.id === "string" ? `"${m.id}"` : "(no id)"}`;
-  // A blank text is allowed here (a NIL row, as for any text without a candidate); the readers
-  // refuse it in files, where it is a sign of a broken row.
-  if (typeof m.text !== "string")
-    throw new UsageError(`${what}: text must be a string, got ${JSON.stringify(m.text) ?? "nothing"}`);
-  for (const field of ["type", "context", "doc"] as const) {
-    const v = m[field];
-    if (v !== undefined && v !== null && typeof v !== "string")
-      throw new UsageError(`${what}: ${field} must be a string when given, got ${JSON.stringify(v)}`);
-  }
 }
 
 /**
@@ -312,48 +304,39 @@ export class Linker {
   private nearRate: number | undefined;
 
   constructor(kb: Kb, options: LinkerOptions = {}) {
+    if (!(kb instanceof Kb)) throw new UsageError(`createLinker needs a KB from openKb, got ${String(kb)}`);
+    if (typeof options !== "object" || options === null)
+      throw new UsageError(`linker options must be an object, got ${String(options)}`);
     this.kb = kb;
     this.labels = options.labels ?? new LabelMap();
     this.config = {
-      weights: options.weights ?? DEFAULT_WEIGHTS,
+      weights: checkWeights(options.weights ?? DEFAULT_WEIGHTS),
       threshold: options.threshold ?? DEFAULT_THRESHOLD,
       minMargin: options.minMargin ?? DEFAULT_MIN_MARGIN,
     };
-    checkUnit("threshold", this.config.threshold);
-    if (!(this.config.minMargin >= 0 && this.config.minMargin <= MARGIN_CAP)) {
-      throw new UsageError(
-        `minMargin must be a number of log-odds in [0, ${MARGIN_CAP}], got ${this.config.minMargin}`,
-      );
-    }
-    this.top = options.top ?? DEFAULT_TOP;
-    if (!Number.isInteger(this.top) || this.top < 0)
-      throw new UsageError(`top must be a whole number >= 0, got ${this.top}`);
-    const paths = options.paths ?? ALL_PATHS;
-    for (const p of paths)
-      if (!ALL_PATHS.includes(p))
-        throw new UsageError(`unknown candidate path "${p}"; use ${ALL_PATHS.join(", ")}`);
+    checkDecision(this.config.threshold, this.config.minMargin);
+    this.top = checkWhole("top", options.top ?? DEFAULT_TOP, 0);
+    const settings = checkCandidateSettings(options.candidates);
+    const paths = checkPaths(options.paths ?? settings.paths ?? ALL_PATHS);
     this.cand = {
       ...DEFAULT_CANDIDATE_OPTIONS,
-      ...options.candidates,
+      ...settings,
       ...(options.maxCandidates !== undefined ? { maxCandidates: options.maxCandidates } : {}),
       paths: new Set(paths),
     };
-    if (!Number.isInteger(this.cand.maxCandidates) || this.cand.maxCandidates < 1) {
-      throw new UsageError(`maxCandidates must be a whole number >= 1, got ${this.cand.maxCandidates}`);
-    }
-    if (!Number.isInteger(this.cand.maxSearchCandidates) || this.cand.maxSearchCandidates < 0) {
-      throw new UsageError(
-        `maxSearchCandidates must be a whole number >= 0, got ${this.cand.maxSearchCandidates}`,
-      );
-    }
-    this.blockMinCompat = options.blockMinCompat ?? DEFAULT_BLOCK_MIN_COMPAT;
+    checkCandidateOptions(this.cand);
+    this.blockMinCompat = checkRange(
+      "blockMinCompat",
+      options.blockMinCompat ?? DEFAULT_BLOCK_MIN_COMPAT,
+      0,
+      1,
+    );
+    const document = checkDocumentOptions(options.document);
     this.documentSteps =
-      options.document === false
+      document === false
         ? { sameText: false, shortForm: false, acronyms: false }
-        : { ...DEFAULT_DOCUMENT_EVIDENCE, ...options.document };
-    const cacheSize = options.surfaceCache ?? DEFAULT_SURFACE_CACHE;
-    if (!Number.isInteger(cacheSize) || cacheSize < 0)
-      throw new UsageError(`surfaceCache must be a whole number >= 0, got ${cacheSize}`);
+        : { ...DEFAULT_DOCUMENT_EVIDENCE, ...document };
+    const cacheSize = checkWhole("surfaceCache", options.surfaceCache ?? DEFAULT_SURFACE_CACHE, 0);
     this.surfaces = new SurfaceCache(cacheSize, cacheSize * SURFACE_WEIGHT_EACH);
     const n = kb.info.contextDocs;
     this.idfOf = (t: string) => idf(kb.termDf(t), n);
@@ -411,7 +394,8 @@ export class Linker {
   }
 
   private prepare(m: Mention): Prepared {
-    checkMention(m, this.kb);
+    if (!this.kb.db.open) throw new UsageError("the KB is closed: open it again to link");
+    checkMention(m);
     const info = this.labels.forMention(m.type);
     const text = m.text.length > MAX_NAME_CHARS ? m.text.slice(0, MAX_NAME_CHARS) : m.text;
     // The label map is fixed for the linker's life, so the label's spelling stands for its info.
@@ -616,6 +600,8 @@ export class Linker {
    * steps revise the decisions. Rows come back in input order, one per mention.
    */
   linkDocument(mentions: readonly Mention[]): LinkRow[] {
+    if (!Array.isArray(mentions))
+      throw new UsageError(`linkDocument needs an array of mentions, got ${String(mentions)}`);
     const analyses = mentions.map((m) => this.analyze(m));
     const steps = this.documentSteps;
     if (mentions.length < 2 || !(steps.sameText || steps.shortForm || steps.acronyms)) {
@@ -685,6 +671,14 @@ export class Linker {
    * mentions without a `doc` are linked alone. Memory is bounded by one document.
    */
   async *linkAll(mentions: Iterable<Mention> | AsyncIterable<Mention>): AsyncGenerator<LinkRow> {
+    const source = mentions as Partial<Iterable<Mention> & AsyncIterable<Mention>> | null | undefined;
+    if (
+      typeof source?.[Symbol.iterator] !== "function" &&
+      typeof source?.[Symbol.asyncIterator] !== "function"
+    )
+      throw new UsageError(
+        `linkAll needs an iterable or async iterable of mentions (an array, a generator, a stream), got ${String(mentions)}`,
+      );
     let doc: string | undefined;
     let batch: Mention[] = [];
     try {
@@ -836,11 +830,6 @@ function roundFeaturesOf(f: Features): Features {
   const out = { ...f };
   for (const k of Object.keys(out) as Array<keyof Features>) out[k] = r4(out[k]);
   return out;
-}
-
-function checkUnit(name: string, v: number): void {
-  if (!(typeof v === "number" && v >= 0 && v <= 1))
-    throw new UsageError(`${name} must be a number in [0, 1], got ${v}`);
 }
 
 export function createLinker(kb: Kb, options?: LinkerOptions): Linker {

@@ -46,9 +46,11 @@ import { FEATURE_NAMES, type Features, type Weights } from "../types.js";
  *   the capital. Measured, not fitted: 0, ln(1000) / 2 and ln(1000) on the place checks
  *   (benchmarks/README.md, "Namesakes told apart by popularity").
  */
-export const DEFAULT_WEIGHTS: Weights = {
+// Frozen, as the other exported defaults: a caller who edits them gets a TypeError instead of
+// changing the defaults of every linker made after.
+export const DEFAULT_WEIGHTS: Weights = Object.freeze({
   bias: -10,
-  features: {
+  features: Object.freeze({
     jaroWinkler: 4,
     levenshtein: 2,
     tokenSet: 4.5,
@@ -60,8 +62,8 @@ export const DEFAULT_WEIGHTS: Weights = {
     nearSpelling: -8,
     contextConflict: -3,
     prominence: Math.log(1000) / 2,
-  },
-};
+  }),
+});
 
 export function sigmoid(x: number): number {
   if (x >= 0) return 1 / (1 + Math.exp(-x));

@@ -116,7 +116,12 @@ export class AtomicWriter {
   constructor(readonly target: string) {
     this.tmp = join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
     // Opened synchronously: the file exists when the constructor returns, so abort() always finds it.
-    const fd = openSync(this.tmp, "w");
+    let fd: number;
+    try {
+      fd = openSync(this.tmp, "w");
+    } catch (e) {
+      throw new OutputError(target, e as Error);
+    }
     this.finished = trackUnfinished(this.tmp);
     this.stream = createWriteStream(this.tmp, { fd, encoding: "utf8", highWaterMark: OUTPUT_BUFFER_BYTES });
     this.stream.on("error", (e) => {
@@ -191,6 +196,6 @@ export function writeFileAtomic(file: string, text: string): void {
     renameSync(temp, file);
   } catch (e) {
     rmSync(temp, { force: true });
-    throw e;
+    throw new OutputError(file, e as Error);
   }
 }

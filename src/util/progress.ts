@@ -14,7 +14,11 @@ const SILENT: Progress = { tick() {}, stop() {} };
 /** Ticks between redraws: redrawing per row would cost more than linking. */
 const REDRAW_EVERY = 500;
 
-export function progress(label: string, enabled: boolean = process.stderr.isTTY === true): Progress {
+/**
+ * A progress display; off unless `enabled` (library calls print nothing unless asked: the command
+ * line asks when stderr is a terminal).
+ */
+export function progress(label: string, enabled = false): Progress {
   if (!enabled) return SILENT;
   const bar = new cliProgress.SingleBar(
     {
