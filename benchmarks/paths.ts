@@ -15,7 +15,7 @@ import { ALL_PATHS, type CandidateOptions } from "../src/candidates/generate.js"
 import { buildKb } from "../src/kb/build.js";
 import { openKb } from "../src/kb/kb.js";
 import { createLinker, type LinkerOptions } from "../src/link/linker.js";
-import type { CandidatePath, LabeledMention } from "../src/types.js";
+import type { LabeledMention, SearchPath } from "../src/types.js";
 import { generate, MENTIONS_FILE, TABLE_FILE } from "./generate.js";
 import { readLabeled } from "./measure.js";
 
@@ -23,11 +23,11 @@ const samples = fileURLToPath(new URL("../../kb-samples/", import.meta.url));
 
 interface Setting {
   name: string;
-  paths: CandidatePath[];
+  paths: SearchPath[];
   candidates?: Partial<CandidateOptions>;
 }
 
-const without = (p: CandidatePath) => ALL_PATHS.filter((x) => x !== p);
+const without = (p: SearchPath) => ALL_PATHS.filter((x) => x !== p);
 const SETTINGS: Setting[] = [
   { name: "all (default)", paths: [...ALL_PATHS] },
   {
