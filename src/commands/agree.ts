@@ -9,7 +9,7 @@ export interface AgreeOptions {
   /** Second annotator's labeled file. */
   b: string;
   /** Write the disagreements to adjudicate here (JSONL, atomically). */
-  out?: string;
+  out?: string | undefined;
 }
 
 export async function agree(options: AgreeOptions): Promise<Agreement> {

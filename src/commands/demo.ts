@@ -22,16 +22,16 @@ export const SAMPLES_DIR = fileURLToPath(new URL("../../kb-samples/", import.met
 
 export interface DemoOptions {
   /** Folder for the KB, links, config and report. Default: a new temporary folder. */
-  out?: string;
+  out?: string | undefined;
   /** Where the summary lines go. Default: stdout. */
-  print?: (line: string) => void;
+  print?: ((line: string) => void) | undefined;
   /** Rows shown with their reasons. Default 4. */
-  examples?: number;
+  examples?: number | undefined;
   /**
    * Which form of the sample mentions to start from: `jsonl` (mentions with context), `conll`
    * (the articles as BIO-tagged tokens) or `spans` (the articles plus character spans). Default jsonl.
    */
-  from?: DemoInput;
+  from?: DemoInput | undefined;
 }
 
 export type DemoInput = "jsonl" | "conll" | "spans";

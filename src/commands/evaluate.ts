@@ -33,16 +33,16 @@ export interface EvalOptions
    * Predicted link rows (JSONL from `link`) from another NER run; when given, they are aligned
    * to the gold spans instead of linking the gold mentions.
    */
-  predicted?: string;
+  predicted?: string | undefined;
   /** With `predicted`: `strict` (same boundaries) or `relaxed` (overlap). Default strict. */
-  spanMatch?: AlignMode;
+  spanMatch?: AlignMode | undefined;
   /** k of candidate recall at k. Default 3 (the rows' default candidate count). */
-  k?: number;
+  k?: number | undefined;
   /**
    * Called with each warning (gold ids the KB lacks, ill-formed tags) as it is found. Default:
    * none; the report's `warnings` holds them all either way (the command line prints them).
    */
-  warn?: (message: string) => void;
+  warn?: ((message: string) => void) | undefined;
 }
 
 /** What `evaluate` returns: the report, and the warnings met on the way. */

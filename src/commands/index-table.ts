@@ -9,11 +9,11 @@ export interface IndexOptions {
   /** KB file to write (atomically). */
   out: string;
   /** Table format; default from the extension. */
-  from?: "csv" | "tsv" | "jsonl";
+  from?: "csv" | "tsv" | "jsonl" | undefined;
   /** JSON label map overriding the built-in type spellings. */
-  labels?: string;
+  labels?: string | undefined;
   /** Show a progress bar on stderr. Default false (the command line shows one when stderr is a terminal). */
-  progress?: boolean;
+  progress?: boolean | undefined;
 }
 
 export async function index(options: IndexOptions): Promise<BuildSummary> {

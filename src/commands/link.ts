@@ -17,36 +17,36 @@ export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
   /** Mentions file (JSONL, CSV, CoNLL, or span rows with `documents`). */
   mentions: string;
   /** Output file, written atomically; default: stdout. */
-  out?: string;
+  out?: string | undefined;
   /** Output format; default: from the `out` extension (`.csv` -> csv), else jsonl. */
-  to?: OutputFormat;
+  to?: OutputFormat | undefined;
   /** Tuned config (from `tune`): weights, threshold, margin. */
-  config?: string;
+  config?: string | undefined;
   /** Use a config tuned on another KB. Default false. */
-  force?: boolean;
+  force?: boolean | undefined;
   /** Overrides the config's (or the default 0.5) threshold. */
-  threshold?: number;
+  threshold?: number | undefined;
   /** Overrides the config's (or the default 0.5) minimum margin, in log-odds. */
-  minMargin?: number;
+  minMargin?: number | undefined;
   /** Candidates listed per row; default 3. */
-  top?: number;
+  top?: number | undefined;
   /** Candidates scored per mention; default 30. */
-  maxCandidates?: number;
+  maxCandidates?: number | undefined;
   /** Candidate paths to run; default all. */
-  paths?: SearchPath[];
+  paths?: SearchPath[] | undefined;
   /** JSON label map file overriding the built-in label sets. */
-  labels?: string;
+  labels?: string | undefined;
   /** Document-level evidence steps (same text, short forms, acronyms); `false` turns all off. Default: all on. */
-  document?: LinkerOptions["document"];
+  document?: LinkerOptions["document"] | undefined;
   /** Show a progress bar on stderr. Default false (the command line shows one when stderr is a terminal). */
-  progress?: boolean;
+  progress?: boolean | undefined;
   /**
    * Called with each warning (unknown labels, ill-formed tags) as it is found. Default: none;
    * the summary's `warnings` holds them all either way (the command line prints them).
    */
-  warn?: (message: string) => void;
+  warn?: ((message: string) => void) | undefined;
   /** Where rows go when `out` is not given; default process.stdout. */
-  stdout?: NodeJS.WritableStream;
+  stdout?: NodeJS.WritableStream | undefined;
 }
 
 export interface LinkSummary {

@@ -19,17 +19,17 @@ export interface TuneCommandOptions
   /** Config file to write (JSON). */
   out: string;
   /** Choose the highest recall whose precision is at least this; default: highest F1. */
-  minPrecision?: number;
+  minPrecision?: number | undefined;
   /** Self-contained HTML report to write. */
-  report?: string;
+  report?: string | undefined;
   /** Cross-validation folds. Default 5. */
-  folds?: number;
+  folds?: number | undefined;
   /** Seed of the fold assignment. Default 1. */
-  seed?: number;
+  seed?: number | undefined;
   /** L2 penalty of the logistic fit. Default 1. */
-  l2?: number;
+  l2?: number | undefined;
   /** Called with each warning as it is found. Default: none; the result's `warnings` holds them all. */
-  warn?: (message: string) => void;
+  warn?: ((message: string) => void) | undefined;
 }
 
 export interface TuneCommandResult {

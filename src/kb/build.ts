@@ -27,18 +27,18 @@ export interface BuildKbOptions {
   /** Where to write the KB file. An existing file is replaced only when the build succeeds. */
   out: string;
   /** Table format; default: from the file extension. */
-  from?: "csv" | "tsv" | "jsonl";
+  from?: "csv" | "tsv" | "jsonl" | undefined;
   /** Label map used to reach an entity class from each table type; default: the built-in map. */
-  labels?: LabelMap;
+  labels?: LabelMap | undefined;
   /** Called every `progressEvery` rows with the number of rows read so far. */
-  onProgress?: (rows: number) => void;
+  onProgress?: ((rows: number) => void) | undefined;
   /** Rows between progress calls; default 10,000. */
-  progressEvery?: number;
+  progressEvery?: number | undefined;
   /**
    * Most deletion variants of table tokens indexed for fuzzy lookup (see src/kb/deletions.ts):
    * two deletions per long token while they fit, else one. Default 8,000,000.
    */
-  maxFuzzyVariants?: number;
+  maxFuzzyVariants?: number | undefined;
 }
 
 export interface BuildSummary {

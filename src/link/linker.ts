@@ -76,38 +76,38 @@ import { type Surface, SurfaceCache } from "./surface-cache.js";
 
 export interface LinkerOptions {
   /** Feature weights of the score combination. Default: DEFAULT_WEIGHTS (src/score/combine.ts). */
-  weights?: Weights;
+  weights?: Weights | undefined;
   /** Link only when the best score is at least this. Default 0.5. */
-  threshold?: number;
+  threshold?: number | undefined;
   /** Link only when the best beats the runner-up by at least this many log-odds. Default 0.5. */
-  minMargin?: number;
+  minMargin?: number | undefined;
   /** Candidates listed per output row. Default 3. */
-  top?: number;
+  top?: number | undefined;
   /** Most candidates scored per mention. Default 30. */
-  maxCandidates?: number;
+  maxCandidates?: number | undefined;
   /** Candidate paths to run. Default: all (exact, ocr, acronym, initials, fts, fuzzy). */
-  paths?: readonly SearchPath[];
+  paths?: readonly SearchPath[] | undefined;
   /** Further candidate-generation settings (see CandidateOptions). */
-  candidates?: Partial<CandidateOptions>;
+  candidates?: Partial<CandidateOptions> | undefined;
   /** Label map: NER labels and table types to classes and compatibilities. Default: built-in. */
-  labels?: LabelMap;
+  labels?: LabelMap | undefined;
   /**
    * A mention is looked up among the entities of every class whose compatibility with its label is
    * at least this. Default 0.3: a firm named after its town is still found for a LOC mention.
    */
-  blockMinCompat?: number;
+  blockMinCompat?: number | undefined;
   /**
    * Document-level evidence used by `linkAll` and `linkDocument` on mentions that carry a `doc`
    * (see src/document/evidence.ts). Default: all three steps on; `false` turns all off.
    */
-  document?: Partial<DocumentEvidenceOptions> | false;
+  document?: Partial<DocumentEvidenceOptions> | false | undefined;
   /**
    * Most distinct (text, label) pairs whose normalized forms and candidate pool are kept for
    * reuse by later mentions with the same text and label (see
    * src/link/surface-cache.ts); the output is the same with any value. 0 turns reuse off.
    * Default 1,024.
    */
-  surfaceCache?: number;
+  surfaceCache?: number | undefined;
 }
 
 /**

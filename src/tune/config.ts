@@ -52,9 +52,9 @@ export interface TunedConfig extends LinkConfig {
 
 export interface ReadConfigOptions {
   /** Fingerprint of the KB the config will be used with; when given, it must match `kb.fingerprint`. */
-  kbFingerprint?: string;
+  kbFingerprint?: string | undefined;
   /** Accept a config tuned on another KB. Default false. */
-  force?: boolean;
+  force?: boolean | undefined;
 }
 
 function summary(f: Figures): FigureSummary {
