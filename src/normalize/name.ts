@@ -27,8 +27,11 @@ import {
 } from "./lexicon.js";
 import { ocrFold } from "./ocr.js";
 
-/** Bump when any normalizer output changes: a KB records it and a mismatch is reported on open. */
-export const NORMALIZER_VERSION = "6";
+/**
+ * Bump when any normalizer output changes, context-term stems included (src/score/porter.ts): a
+ * KB records it and a mismatch is reported on open.
+ */
+export const NORMALIZER_VERSION = "7";
 
 export interface NormalizedName {
   /** Every folded token of the input, nothing removed. */

@@ -1,38 +1,20 @@
 /**
  * Context terms: the words of a mention's context, or of an entity's description and attributes,
  * reduced to comparable stems for the TF-IDF context feature.
- *
- * natural is loaded by deep module path (its package index pulls in database clients, is slow to
- * load and prints to stdout). Both modules used here are CommonJS: the stopword list exports
- * `{ words: string[] }`, the Porter stemmer exports an object with `stem(token): string`.
  */
-import { createRequire } from "node:module";
 import { NON_ASCII } from "../normalize/fold.js";
+import { porterStem } from "./porter.js";
+import { ENGLISH_STOPWORDS } from "./stopwords.js";
 
-const requireCjs = createRequire(import.meta.url);
-
-/** The part of natural's Porter stemmer module used here. */
-interface PorterStemmerModule {
-  stem(token: string): string;
-}
-
-/** The shape of natural's English stopword module. */
-interface StopwordModule {
-  words: string[];
-}
-
-const porter = requireCjs("natural/lib/natural/stemmers/porter_stemmer.js") as PorterStemmerModule;
-const stopwordModule = requireCjs("natural/lib/natural/util/stopwords.js") as StopwordModule;
-
-/** natural's English stopword list (about 170 words, plus single letters and digits). */
-export const STOPWORDS: ReadonlySet<string> = new Set(stopwordModule.words);
+/** English stopwords (see stopwords.ts). */
+export const STOPWORDS: ReadonlySet<string> = new Set(ENGLISH_STOPWORDS);
 
 /** Tokens shorter than this carry no context (stray letters, OCR specks). */
 const MIN_TERM_LENGTH = 2;
 /**
  * Tokens longer than this carry no context either: no word of a language is (the longest in
  * English dictionaries has 45 letters), and a run of thousands of letters (a garbled scan, a
- * pasted blob) would take the stemmer's backtracking patterns quadratic time.
+ * pasted blob) is no word to stem (the stemmer once used took quadratic time on one).
  */
 export const MAX_TERM_LENGTH = 64;
 
@@ -58,7 +40,7 @@ const stemCache = new Map<string, string>();
 export function stem(token: string): string {
   const hit = stemCache.get(token);
   if (hit !== undefined) return hit;
-  const stemmed = porter.stem(token);
+  const stemmed = porterStem(token);
   if (stemCache.size >= STEM_CACHE_SIZE) {
     const oldest = stemCache.keys().next();
     if (oldest.done !== true) stemCache.delete(oldest.value);
@@ -94,7 +76,7 @@ export function foldText(text: string): string {
 /**
  * Splits text into context terms, in text order, duplicates kept (term frequency matters):
  * fold (lowercase, NFKD, strip combining marks), split on anything that is not a letter or digit,
- * drop tokens shorter than 2 or longer than 64 characters and English stopwords (natural's list), drop pure numbers
+ * drop tokens shorter than 2 or longer than 64 characters and English stopwords (stopwords.ts), drop pure numbers
  * except years 1000-2099, and Porter-stem the rest. Mixed tokens ("1st", "no5") are kept.
  */
 export function contextTerms(text: string): string[] {
