@@ -3,7 +3,7 @@
  * output, CSV and JSONL rows in input order, `info`, and an empty mentions file.
  */
 import { spawn, spawnSync } from "node:child_process";
-import { closeSync, existsSync, openSync, readdirSync, readFileSync, symlinkSync } from "node:fs";
+import { closeSync, existsSync, openSync, readdirSync, readFileSync, symlinkSync, utimesSync } from "node:fs";
 import { join } from "node:path";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -234,6 +234,49 @@ describe("hawser link", () => {
     ).toEqual(["a1", "a2"]);
   });
 
+  it("reads TSV from standard input with --from tsv, quotes as text, and writes no .tsv", () => {
+    const tsv = 'id\ttext\ttype\nq1\tStenmoor\tLOC\nq2\t"Stenmoor"\tLOC\n';
+    const r = hawser(["link", "--kb", kb, "-", "--from", "tsv"], t.dir, tsv);
+    expect(r.status, r.stderr).toBe(0);
+    const rows = r.stdout
+      .trim()
+      .split("\n")
+      .map((l) => JSON.parse(l));
+    expect(rows.map((x) => x.text)).toEqual(["Stenmoor", '"Stenmoor"']);
+    const refused = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "rows.tsv"], t.dir);
+    expect(refused.status).toBe(2);
+    expect(refused.stderr).toContain("name the file .jsonl or .csv");
+    expect(filesLike("rows.tsv")).toEqual([]);
+  });
+
+  it("says what is wrong when given link rows where a labeled set belongs, or a missing file", () => {
+    const rows = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "as-gold.jsonl"], t.dir);
+    expect(rows.status, rows.stderr).toBe(0);
+    const agree = hawser(["agree", "as-gold.jsonl", "as-gold.jsonl"], t.dir);
+    expect(agree.status).toBe(1);
+    expect(agree.stderr).toContain("looks like a row of `hawser link`'s output");
+    const missing = hawser(["link", "--kb", kb, "nope.jsonl"], t.dir);
+    expect(missing.status).toBe(1);
+    // Once, not twice ("(ENOENT): ENOENT: no such file or directory, open 'nope.jsonl'").
+    expect(missing.stderr.match(/ENOENT/g)).toHaveLength(1);
+    expect(missing.stderr).toContain("no such file or directory");
+  });
+
+  it("measures candidate recall at a k beyond the candidates a row lists", () => {
+    // eval --k K reported recall among the --top candidates a row lists (3 by default), labeled
+    // "at K". "Aldous" has two candidates, Josiah and Jonas Aldous: gold is the second.
+    writeText(t.file("aldous.jsonl"), jsonl([{ id: "k1", text: "Aldous", type: "PER" }]));
+    const listed = JSON.parse(hawser(["link", "--kb", kb, "aldous.jsonl", "--top", "2"], t.dir).stdout);
+    const second = listed.candidates[1].entity as string;
+    writeText(t.file("k-gold.jsonl"), jsonl([{ id: "k1", text: "Aldous", type: "PER", gold: second }]));
+    const r = hawser(
+      ["eval", "--kb", kb, "--gold", "k-gold.jsonl", "--top", "1", "--k", "2", "--json"],
+      t.dir,
+    );
+    expect(r.status, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout).candidateRecall).toMatchObject({ k: 2, foundAtK: 1, atK: 1 });
+  });
+
   it("reads CoNLL from standard input as from a file, its tag scheme detected from what it reads", () => {
     // Standard input cannot be read twice: the scheme is detected from its first sentences, held.
     const conll = join(SAMPLES_DIR, "articles", "gazette.conll");
@@ -270,6 +313,50 @@ describe("hawser link", () => {
     expect(await closed).toBe(143);
     expect(stderr).toContain("interrupted (SIGTERM)");
     expect(filesLike("big.kb")).toEqual([]);
+  });
+
+  it("ends at once when interrupted in a computation that has no output under way (eval)", async () => {
+    // eval links its whole labeled set before it prints: it once went on to the end, printed its
+    // report and only then exited 130, since a signal handler waits for the event loop.
+    const many = Array.from({ length: 30_000 }, (_, i) => ({
+      id: `g${i}`,
+      text: "Stenmoor",
+      type: "LOC",
+      gold: "L01",
+    }));
+    writeText(t.file("long-gold.jsonl"), jsonl(many));
+    const child = spawn(process.execPath, [CLI, "eval", "--kb", kb, "--gold", "long-gold.jsonl"], {
+      cwd: t.dir,
+    });
+    let stdout = "";
+    child.stdout.on("data", (d) => {
+      stdout += String(d);
+    });
+    const closed = new Promise<[number | null, NodeJS.Signals | null]>((resolve) =>
+      child.on("close", (code, signal) => resolve([code, signal])),
+    );
+    await new Promise((r) => setTimeout(r, 500));
+    child.kill("SIGINT");
+    const [code, signal] = await closed;
+    expect(signal === "SIGINT" || code === 130, `code ${code}, signal ${signal}`).toBe(true);
+    expect(stdout).not.toContain("accuracy");
+  });
+
+  it("removes the temporary file a killed run left for the same output, and only that", async () => {
+    // A run killed outright (SIGKILL) cannot remove its temporary file: the next run for the same
+    // --out does, once the process that wrote it is gone and it has not been written to for a minute.
+    const gone = spawnSync(process.execPath, ["-e", "0"]).pid;
+    const old = new Date(Date.now() - 5 * 60_000);
+    const stale = t.file(`.kept-links.jsonl.tmp-${gone}-1`);
+    const fresh = t.file(`.kept-links.jsonl.tmp-${gone}-2`);
+    const alive = t.file(`.kept-links.jsonl.tmp-${process.pid}-3`);
+    const other = t.file(`.other.jsonl.tmp-${gone}-4`);
+    for (const f of [stale, fresh, alive, other]) writeText(f, "partial\n");
+    for (const f of [stale, alive, other]) utimesSync(f, old, old);
+    const r = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "kept-links.jsonl"], t.dir);
+    expect(r.status, r.stderr).toBe(0);
+    expect(existsSync(stale)).toBe(false);
+    for (const f of [fresh, alive, other]) expect(existsSync(f), f).toBe(true);
   });
 
   it("links against a KB another process holds open, and the KB can be rebuilt meanwhile", () => {

@@ -284,7 +284,7 @@ describe("readMentions", () => {
     expect(error).toBeInstanceOf(UsageError);
     expect(error.message).toContain(".jsonl");
     expect(error.message).toContain(".conll");
-    expect(error.message).toContain("jsonl | csv | conll | spans");
+    expect(error.message).toContain("jsonl | csv | tsv | conll | spans");
   });
 
   it("rejects options that do not apply to the format", () => {

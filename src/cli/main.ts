@@ -21,7 +21,7 @@ import { ALL_PATHS } from "../candidates/generate.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import type { SearchPath } from "../types.js";
 import { printWarning } from "../read/warnings.js";
-import { removeUnfinished } from "../util/atomic-file.js";
+import { undoAll, watchUndos } from "../util/interrupt.js";
 import { InputError, OutputError, UsageError } from "../util/errors.js";
 
 /** Exit status when an output cannot be written: EX_IOERR of sysexits.h. */
@@ -82,6 +82,7 @@ function readerOptions(cmd: Command): Command {
       new Option("--from <format>", "mentions format (default: from the extension)").choices([
         "jsonl",
         "csv",
+        "tsv",
         "conll",
         "spans",
       ]),
@@ -242,7 +243,8 @@ export function program(): Command {
       kb: o.kb as string,
       mentions,
       ...common(o),
-      progress: process.stderr.isTTY === true,
+      // Not when the rows go to the same terminal: the bar would land among them.
+      progress: process.stderr.isTTY === true && (o.out !== undefined || process.stdout.isTTY !== true),
       warn: printWarning,
       ...(o.out ? { out: o.out as string } : {}),
       ...(o.to ? { to: o.to as "jsonl" | "csv" } : {}),
@@ -274,6 +276,7 @@ export function program(): Command {
       kb: o.kb as string,
       gold: o.gold as string,
       ...common(o),
+      progress: process.stderr.isTTY === true,
       warn: printWarning,
       ...(o.predicted ? { predicted: o.predicted as string } : {}),
       ...(o.spanMatch ? { spanMatch: o.spanMatch as "strict" | "relaxed" } : {}),
@@ -436,6 +439,8 @@ export async function main(argv: string[]): Promise<number> {
  * dying of an unhandled EPIPE with a stack trace.
  */
 process.stdout.on("error", (e: NodeJS.ErrnoException) => {
+  // Exiting here runs no `finally` block: a progress bar gives the cursor back first.
+  undoAll();
   if (e.code === "EPIPE") process.exit(0);
   // Any other failure of standard output (a full disk behind a redirection): say so, exit 74.
   err(`hawser: ${new OutputError("standard output", e).message}`);
@@ -444,18 +449,27 @@ process.stdout.on("error", (e: NodeJS.ErrnoException) => {
 
 /**
  * Interrupted (Ctrl-C, a kill, a closed terminal): no `finally` block runs, so the temporary KB
- * or links file under way is removed here, and the exit status says which signal it was (128 +
- * its number, as shells report it).
+ * or links file under way is removed here, a progress bar gives the terminal its cursor back,
+ * and the exit status says which signal it was (128 + its number, as shells report it). Handled
+ * only while there is something to undo (see src/util/interrupt.ts): otherwise the process ends
+ * at once, however long the computation under way.
  */
-for (const signal of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
-  process.on(signal, () => {
-    const removed = removeUnfinished();
+const SIGNAL_HANDLERS = (["SIGINT", "SIGTERM", "SIGHUP"] as const).map((signal) => {
+  const handler = () => {
+    const removed = undoAll();
     err(
       `hawser: interrupted (${signal})${removed > 0 ? "; the unfinished output was removed, nothing was written" : ""}`,
     );
     process.exit(128 + osConstants.signals[signal]);
-  });
-}
+  };
+  return [signal, handler] as const;
+});
+watchUndos((pending) => {
+  for (const [signal, handler] of SIGNAL_HANDLERS) {
+    process.off(signal, handler);
+    if (pending) process.on(signal, handler);
+  }
+});
 
 main(process.argv.slice(2)).then((code) => {
   process.exitCode = code;

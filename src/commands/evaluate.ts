@@ -2,11 +2,12 @@
 import { type AlignMode, type AlignedEvalReport, alignSpans, evaluateAligned } from "../evaluate/align.js";
 import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { type Kb, openKb } from "../kb/kb.js";
-import { createLinker } from "../link/linker.js";
+import { createLinker, DEFAULT_TOP } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
 import { type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
+import { progress } from "../util/progress.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
 
 export interface EvalOptions
@@ -38,6 +39,8 @@ export interface EvalOptions
   spanMatch?: AlignMode | undefined;
   /** k of candidate recall at k. Default 3 (the rows' default candidate count). */
   k?: number | undefined;
+  /** Show a progress bar on stderr while linking. Default false (the command line shows one when stderr is a terminal). */
+  progress?: boolean | undefined;
   /**
    * Called with each warning (gold ids the KB lacks, ill-formed tags) as it is found. Default:
    * none; the report's `warnings` holds them all either way (the command line prints them).
@@ -150,10 +153,21 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
   const kb = openKb(options.kb);
   try {
     warnUnknownGold(kb, gold, options.gold, note);
-    const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
+    const linkerOptions = linkerOptionsFrom(options, kb.info.fingerprint);
+    // Candidate recall at k reads the rows' candidate lists: they must hold k candidates.
+    if (options.k !== undefined) linkerOptions.top = Math.max(linkerOptions.top ?? DEFAULT_TOP, options.k);
+    const linker = createLinker(kb, linkerOptions);
     const pairs = [];
     let i = 0;
-    for await (const row of linker.linkAll(gold)) pairs.push({ gold: gold[i++]!, predicted: row });
+    const bar = progress("linking", options.progress);
+    try {
+      for await (const row of linker.linkAll(gold)) {
+        pairs.push({ gold: gold[i++]!, predicted: row });
+        bar.tick();
+      }
+    } finally {
+      bar.stop();
+    }
     for (const w of linker.labels.warnings()) note(w);
     return { ...measure(pairs, k), warnings };
   } finally {

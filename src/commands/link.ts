@@ -1,4 +1,5 @@
 /** `hawser link` as a library call: link a mentions file against a KB, writing one row per mention. */
+import { extname } from "node:path";
 import { openKb } from "../kb/kb.js";
 import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
 import { type LinkerOptions, createLinker } from "../link/linker.js";
@@ -105,7 +106,14 @@ export function outputFormat(out: string | undefined, to: string | undefined): O
       throw new UsageError(`unknown output format "${to}": use jsonl or csv`);
     return to;
   }
-  return out?.toLowerCase().endsWith(".csv") ? "csv" : "jsonl";
+  const extension = out === undefined ? "" : extname(out).toLowerCase();
+  if (extension === ".csv") return "csv";
+  // Any other extension gets JSONL, but .tsv promises a table in tabs its reader would not find.
+  if (extension === ".tsv")
+    throw new UsageError(
+      `--out ${out}: rows are written as JSONL or CSV; name the file .jsonl or .csv, or give --to jsonl|csv`,
+    );
+  return "jsonl";
 }
 
 export async function link(options: LinkOptions): Promise<LinkSummary> {

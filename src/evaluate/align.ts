@@ -52,6 +52,11 @@ function checkOffset(
   field: string,
   where: { file: string; line?: number | undefined },
 ): number {
+  if (value === undefined || value === null)
+    throw new InputError(
+      { ...where, field },
+      "is missing: span alignment (--predicted) needs start and end offsets on every row, gold and predicted; rows without spans are scored by linking the gold mentions (eval without --predicted)",
+    );
   if (typeof value !== "number" || !Number.isInteger(value) || value < 0)
     throw new InputError(
       { ...where, field },

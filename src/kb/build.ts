@@ -5,14 +5,20 @@
  */
 import { createHash } from "node:crypto";
 import { existsSync, renameSync, rmSync } from "node:fs";
-import { basename, dirname, join } from "node:path";
+import { basename } from "node:path";
 import Database from "better-sqlite3";
 import { LabelMap } from "../labels/label-map.js";
 import { NORMALIZER_VERSION } from "../normalize/name.js";
 import { contextTerms } from "../score/terms.js";
 import { TABLE_LOOKALIKE_COLUMNS } from "../read/field-hints.js";
 import { STDIN } from "../read/lines.js";
-import { checkOutputFile, trackUnfinished } from "../util/atomic-file.js";
+import {
+  checkOutputFile,
+  removeStaleTemporaries,
+  temporaryPath,
+  trackUnfinished,
+} from "../util/atomic-file.js";
+import { eventLoopTurn } from "../util/interrupt.js";
 import { InputError, OutputError, requirePaths } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
@@ -103,7 +109,8 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   if (options.table !== STDIN && !existsSync(options.table))
     throw new InputError({ file: options.table }, "no such file");
   const labels = options.labels ?? new LabelMap();
-  const tmp = join(dirname(options.out), `.${basename(options.out)}.tmp-${process.pid}-${Date.now()}`);
+  removeStaleTemporaries(options.out);
+  const tmp = temporaryPath(options.out);
   let db: Database.Database;
   try {
     db = new Database(tmp);
@@ -163,6 +170,9 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
     db.exec(FTS_DEFAULT_SETTINGS);
     summary.phases["indexes and statistics"] = Number(process.hrtime.bigint() - before) / 1e9;
     db.close();
+    // The last phases are synchronous: an interruption during them is handled here, before the
+    // KB lands, so that an interrupted build leaves no KB (and an existing one untouched).
+    await eventLoopTurn();
     renameSync(tmp, options.out);
     ok = true;
     const seconds = Number(process.hrtime.bigint() - started) / 1e9;

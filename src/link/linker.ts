@@ -117,6 +117,8 @@ export interface LinkerOptions {
 export const MAX_DOCUMENT_MENTIONS = 5000;
 
 export const DEFAULT_TOP = 3;
+/** Mentions linkAll links between two returns to the event loop (a few milliseconds of work). */
+const MENTIONS_PER_LOOP_TURN = 64;
 export const DEFAULT_SURFACE_CACHE = 1024;
 /**
  * Weight budget of the surface cache (pool members held, see SurfaceCache) per surface it may
@@ -681,8 +683,12 @@ export class Linker {
       );
     let doc: string | undefined;
     let batch: Mention[] = [];
+    let seen = 0;
     try {
       for await (const m of mentions) {
+        // An array links without ever returning to the event loop otherwise: timers, I/O and
+        // signal handlers of the caller would wait for the whole of it.
+        if (++seen % MENTIONS_PER_LOOP_TURN === 0) await new Promise((resolve) => setImmediate(resolve));
         if (
           batch.length > 0 &&
           (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)

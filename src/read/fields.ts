@@ -96,7 +96,13 @@ export const NIL_WORDS: readonly string[] = ["null", "NIL"];
  */
 export function goldField(ctx: RowContext, row: Record<string, unknown>, field = "gold"): string | null {
   if (!Object.hasOwn(row, field))
-    fail(ctx, field, "is required in a labeled set (an entity id, or null for NIL)");
+    fail(
+      ctx,
+      field,
+      Object.hasOwn(row, "mention") && Object.hasOwn(row, "entity")
+        ? `is required in a labeled set (an entity id, or null for NIL); this looks like a row of \`hawser link\`'s output, whose answer is "entity": a labeled set gives it as "${field}"`
+        : "is required in a labeled set (an entity id, or null for NIL)",
+    );
   const value = row[field];
   if (ctx.cells) {
     const cell = typeof value === "string" ? value.trim() : "";

@@ -35,16 +35,16 @@ export {
 } from "./spans.js";
 
 /** Mention input formats. */
-export type MentionFormat = "jsonl" | "csv" | "conll" | "spans";
+export type MentionFormat = "jsonl" | "csv" | "tsv" | "conll" | "spans";
 
-export const MENTION_FORMATS: readonly MentionFormat[] = ["jsonl", "csv", "conll", "spans"];
+export const MENTION_FORMATS: readonly MentionFormat[] = ["jsonl", "csv", "tsv", "conll", "spans"];
 
 /** File extensions and the format (and, for tables, the row flavour) they imply. */
 const EXTENSIONS: Record<string, { format: MentionFormat; rows?: RowFormat }> = {
   ".jsonl": { format: "jsonl", rows: "jsonl" },
   ".ndjson": { format: "jsonl", rows: "jsonl" },
   ".csv": { format: "csv", rows: "csv" },
-  ".tsv": { format: "csv", rows: "tsv" },
+  ".tsv": { format: "tsv", rows: "tsv" },
   ".conll": { format: "conll" },
   ".bio": { format: "conll" },
   ".iob": { format: "conll" },
@@ -176,8 +176,10 @@ export async function* readMentions(
     case "jsonl":
       yield* warnUnreadFields(file, readMentionsJsonl(file, { labeled }), options.onWarning);
       return;
-    case "csv": {
-      const tsv = extname(file).toLowerCase() === ".tsv";
+    case "csv":
+    case "tsv": {
+      // TSV has no quoting: a field runs to the next tab, and quotes are part of its text.
+      const tsv = format === "tsv" || extname(file).toLowerCase() === ".tsv";
       const rows = readMentionsCsv(file, tsv ? { labeled, delimiter: "\t", quoted: false } : { labeled });
       yield* warnUnreadFields(file, rows, options.onWarning);
       return;

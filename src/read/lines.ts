@@ -27,7 +27,11 @@ export function fileError(file: string, error: unknown): Error {
   if (error instanceof InputError) return error;
   const code = (error as NodeJS.ErrnoException | undefined)?.code;
   if (typeof code === "string" && code.startsWith("E")) {
-    return new InputError({ file }, `cannot read the file (${code}): ${(error as Error).message}`);
+    // Node's message repeats the code and the path ("ENOENT: no such file or directory, open 'x'"):
+    // keep its middle part, the reason.
+    const message = (error as Error).message;
+    const reason = /^E[A-Z]+: ([^,]+)/.exec(message)?.[1] ?? message;
+    return new InputError({ file }, `cannot read the file: ${reason} (${code})`);
   }
   return error instanceof Error ? error : new Error(String(error));
 }

@@ -9,6 +9,7 @@ import {
   createWriteStream,
   lstatSync,
   openSync,
+  readdirSync,
   renameSync,
   rmSync,
   statSync,
@@ -17,6 +18,7 @@ import {
 } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
 import { STDIN } from "../read/lines.js";
+import { eventLoopTurn, onInterrupt } from "./interrupt.js";
 import { OutputError, UsageError } from "./errors.js";
 
 /**
@@ -73,33 +75,71 @@ export function checkOutputFile(
  */
 export const OUTPUT_BUFFER_BYTES = 1 << 20;
 
-/** Temporary files being written (a KB under construction, links under way), by path. */
-const unfinished = new Set<string>();
-
-/**
- * Records a temporary file as unfinished until the returned function is called (on rename or
- * removal), so that an interrupted command line can remove it (see removeUnfinished).
- */
-export function trackUnfinished(path: string): () => void {
-  unfinished.add(path);
-  return () => unfinished.delete(path);
-}
-
 /** Files SQLite may keep beside a database while writing it. */
 const SQLITE_SIDE_FILES = ["-journal", "-wal", "-shm"];
 
 /**
- * Removes every unfinished temporary file, with SQLite's side files, and returns how many there
- * were: the command line calls it when interrupted (Ctrl-C, a kill), which runs no `finally`
- * block, so that nothing is left behind.
+ * The temporary file name of an output under way: the target's name after a dot, the process id
+ * and the time, so that removeStaleTemporaries can tell whose it is.
  */
-export function removeUnfinished(): number {
-  const count = unfinished.size;
-  for (const path of unfinished) {
-    for (const side of ["", ...SQLITE_SIDE_FILES]) rmSync(`${path}${side}`, { force: true });
+export function temporaryPath(target: string): string {
+  return join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
+}
+
+/**
+ * A temporary file left by a run killed outright (SIGKILL, the out-of-memory killer) is not
+ * removed by the run: the next run for the same target removes it, when the process that wrote
+ * it is gone from this machine and it has not been written to for this long (a writer on
+ * another machine sharing the folder keeps its file fresh).
+ */
+const STALE_AFTER_MS = 60_000;
+
+/** Removes the temporary files (and SQLite side files) of earlier runs for `target` that died unfinished. */
+export function removeStaleTemporaries(target: string): void {
+  const folder = dirname(target);
+  const prefix = `.${basename(target)}.tmp-`;
+  let names: string[];
+  try {
+    names = readdirSync(folder);
+  } catch {
+    return; // the output check reports an unreadable folder
   }
-  unfinished.clear();
-  return count;
+  for (const name of names) {
+    if (!name.startsWith(prefix)) continue;
+    const pid = Number(/^(\d+)-\d+/.exec(name.slice(prefix.length))?.[1]);
+    if (!Number.isSafeInteger(pid) || pid === process.pid || processAlive(pid)) continue;
+    const path = join(folder, name);
+    try {
+      if (Date.now() - lstatSync(path).mtimeMs < STALE_AFTER_MS) continue;
+      rmSync(path, { force: true });
+    } catch {
+      // gone meanwhile, or not ours to remove: leave it
+    }
+  }
+}
+
+/** Whether a process of this id runs on this machine (one we may not signal still counts). */
+function processAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return (e as NodeJS.ErrnoException).code === "EPERM";
+  }
+}
+
+/**
+ * Records a temporary file (a KB under construction, links under way) as unfinished until the
+ * returned function is called (on rename or removal), so that an interrupted command line
+ * removes it, with SQLite's side files (see src/util/interrupt.ts).
+ */
+export function trackUnfinished(path: string): () => void {
+  return onInterrupt({
+    output: true,
+    run: () => {
+      for (const side of ["", ...SQLITE_SIDE_FILES]) rmSync(`${path}${side}`, { force: true });
+    },
+  });
 }
 
 export class AtomicWriter {
@@ -114,7 +154,8 @@ export class AtomicWriter {
   private failure: Error | null = null;
 
   constructor(readonly target: string) {
-    this.tmp = join(dirname(target), `.${basename(target)}.tmp-${process.pid}-${Date.now()}`);
+    removeStaleTemporaries(target);
+    this.tmp = temporaryPath(target);
     // Opened synchronously: the file exists when the constructor returns, so abort() always finds it.
     let fd: number;
     try {
@@ -167,6 +208,7 @@ export class AtomicWriter {
     this.stream.end();
     await this.first("finish", "close");
     this.check();
+    await eventLoopTurn(); // an interruption that came meanwhile is handled before the rename
     renameSync(this.tmp, this.target);
     this.finished();
     this.done = true;

@@ -3,6 +3,7 @@
  * when progress is turned off, so data on stdout stays clean.
  */
 import cliProgress from "cli-progress";
+import { onInterrupt } from "./interrupt.js";
 
 export interface Progress {
   tick(n?: number): void;
@@ -32,6 +33,9 @@ export function progress(label: string, enabled = false): Progress {
   const started = Date.now();
   let n = 0;
   bar.start(0, 0, { rate: 0 });
+  // The bar hides the cursor and turns line wrapping off until stopped: an interruption stops it
+  // too (the command line's signal handler), or the terminal is left without them.
+  const done = onInterrupt({ output: false, run: () => bar.stop() });
   return {
     tick(k = 1) {
       n += k;
@@ -44,6 +48,7 @@ export function progress(label: string, enabled = false): Progress {
       const secs = (Date.now() - started) / 1000;
       bar.update(n, { rate: secs > 0 ? Math.round(n / secs) : 0 });
       bar.stop();
+      done();
     },
   };
 }
