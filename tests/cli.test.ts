@@ -277,6 +277,27 @@ describe("hawser link", () => {
     expect(JSON.parse(r.stdout).candidateRecall).toMatchObject({ k: 2, foundAtK: 1, atK: 1 });
   });
 
+  it("tells what tune kept by the figures of its objective", () => {
+    // With --min-precision the procedures are compared by recall at that precision: F1 alone made
+    // the kept procedure look the worse.
+    const samples = hawser(
+      ["index", join(SAMPLES_DIR, "gazette-entities.csv"), "--out", "samples.kb"],
+      t.dir,
+    );
+    expect(samples.status, samples.stderr).toBe(0);
+    const gold = join(SAMPLES_DIR, "gazette-gold.jsonl");
+    const byRecall = hawser(
+      ["tune", "--kb", "samples.kb", "--gold", gold, "--out", "p.json", "--min-precision", "0.99"],
+      t.dir,
+    );
+    expect(byRecall.status, byRecall.stderr).toBe(0);
+    expect(byRecall.stdout).toMatch(
+      /kept: .*held-out link precision \/ recall, for the highest recall at precision >= 0\.99: fitted [\d.]+% \/ [\d.]+%/,
+    );
+    const byF1 = hawser(["tune", "--kb", "samples.kb", "--gold", gold, "--out", "f.json"], t.dir);
+    expect(byF1.stdout).toMatch(/kept: .*\(held-out link F1: fitted [\d.]+%, /);
+  });
+
   it("reads CoNLL from standard input as from a file, its tag scheme detected from what it reads", () => {
     // Standard input cannot be read twice: the scheme is detected from its first sentences, held.
     const conll = join(SAMPLES_DIR, "articles", "gazette.conll");

@@ -13,7 +13,7 @@ import { evaluate } from "../commands/evaluate.js";
 import { index } from "../commands/index-table.js";
 import { link } from "../commands/link.js";
 import { tune } from "../commands/tune.js";
-import { PROCEDURE_WORDS } from "../tune/tune.js";
+import { PROCEDURE_WORDS, type TuneResult } from "../tune/tune.js";
 import { formatEvalTable } from "../evaluate/format.js";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
@@ -324,7 +324,7 @@ export function program(): Command {
     out(
       [
         `tuned on ${result.mentions} mentions (${result.pairs} candidate pairs), ${result.folds}-fold cross-validation, seed ${result.seed}`,
-        `kept: ${PROCEDURE_WORDS[result.procedure]} (held-out link F1: fitted ${pct(result.procedures.fitted.linkF1)}, default weights ${pct(result.procedures["default-weights"].linkF1)}, defaults ${pct(result.procedures.defaults.linkF1)})`,
+        keptLine(result, config.minPrecision),
         `operating point: threshold ${config.threshold}, minimum margin ${config.minMargin} (objective ${config.objective})`,
         `                 link precision  recall     F1   accuracy`,
         `defaults         ${pct(f.defaults.linkPrecision).padStart(9)} ${pct(f.defaults.linkRecall).padStart(7)} ${pct(f.defaults.linkF1).padStart(6)} ${pct(f.defaults.accuracy).padStart(9)}`,
@@ -408,6 +408,22 @@ function differingPairLines(
   if (differing.length > AGREE_PAIRS_SHOWN)
     lines.push(`  ... ${differing.length - AGREE_PAIRS_SHOWN} more pairs (--json lists every pair)`);
   return lines;
+}
+
+/**
+ * The procedure tune kept, with the held-out figures it was chosen by: link F1, or, for the
+ * highest recall at a minimum precision, precision and recall (F1 would make a procedure kept
+ * for its recall look the worse).
+ */
+function keptLine(result: TuneResult, minPrecision: number | undefined): string {
+  const p = result.procedures;
+  const shown = (f: TuneResult["procedures"]["fitted"]) =>
+    minPrecision === undefined ? pct(f.linkF1) : `${pct(f.linkPrecision)} / ${pct(f.linkRecall)}`;
+  const what =
+    minPrecision === undefined
+      ? "held-out link F1"
+      : `held-out link precision / recall, for the highest recall at precision >= ${minPrecision}`;
+  return `kept: ${PROCEDURE_WORDS[result.procedure]} (${what}: fitted ${shown(p.fitted)}, default weights ${shown(p["default-weights"])}, defaults ${shown(p.defaults)})`;
 }
 
 export async function main(argv: string[]): Promise<number> {
