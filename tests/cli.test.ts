@@ -275,6 +275,9 @@ describe("hawser link", () => {
     );
     expect(r.status, r.stderr).toBe(0);
     expect(JSON.parse(r.stdout).candidateRecall).toMatchObject({ k: 2, foundAtK: 1, atK: 1 });
+    // The same with the default k (3) and fewer candidates listed.
+    const byDefault = hawser(["eval", "--kb", kb, "--gold", "k-gold.jsonl", "--top", "1", "--json"], t.dir);
+    expect(JSON.parse(byDefault.stdout).candidateRecall).toMatchObject({ k: 3, foundAtK: 1 });
   });
 
   it("tells what tune kept by the figures of its objective", () => {

@@ -1,6 +1,6 @@
 /** `hawser eval` as a library call: link a labeled set (or read predicted rows) and measure. */
 import { type AlignMode, type AlignedEvalReport, alignSpans, evaluateAligned } from "../evaluate/align.js";
-import { type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
+import { DEFAULT_CANDIDATE_K, type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { type Kb, openKb } from "../kb/kb.js";
 import { createLinker, DEFAULT_TOP } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
@@ -155,7 +155,7 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
     warnUnknownGold(kb, gold, options.gold, note);
     const linkerOptions = linkerOptionsFrom(options, kb.info.fingerprint);
     // Candidate recall at k reads the rows' candidate lists: they must hold k candidates.
-    if (options.k !== undefined) linkerOptions.top = Math.max(linkerOptions.top ?? DEFAULT_TOP, options.k);
+    linkerOptions.top = Math.max(linkerOptions.top ?? DEFAULT_TOP, options.k ?? DEFAULT_CANDIDATE_K);
     const linker = createLinker(kb, linkerOptions);
     const pairs = [];
     let i = 0;
