@@ -3,7 +3,14 @@ import { decide } from "../src/decide/decide.js";
 import { evaluate } from "../src/evaluate/metrics.js";
 import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
 import { linkRowsFor } from "../src/tune/rows.js";
-import { MARGIN_GRID, THRESHOLD_GRID, measurePoint, scoreAll, sweep } from "../src/tune/sweep.js";
+import {
+  MARGIN_GRID,
+  measureGrid,
+  measurePoint,
+  scoreAll,
+  sweep,
+  THRESHOLD_GRID,
+} from "../src/tune/sweep.js";
 import type { ScoredMention } from "../src/tune/types.js";
 import type { Weights } from "../src/types.js";
 import { ZERO_FEATURES } from "./eval-helpers.js";
@@ -81,6 +88,23 @@ describe("sweep", () => {
     expect(none.message).toMatch(/no operating point reaches link precision 0\.5/);
     expect(none.curve).toHaveLength(101);
     expect(() => sweep(data, PRIOR_ONLY, { objective: "recall-at-precision" })).toThrow(/needs minPrecision/);
+  });
+
+  it("measures the whole grid as measurePoint measures each point", () => {
+    // measureGrid sorts mentions by best score instead of deciding each at every point: the
+    // figures must be the same to the last bit, ties on a grid threshold included.
+    for (const seed of [1, 2, 3, 4]) {
+      const set = syntheticSet(120, { seed, noise: 0.3 });
+      const sets = scoreAll(set, DEFAULT_WEIGHTS);
+      // Scores exactly on grid thresholds, and a mention without candidates.
+      sets[0]!.scores = [0.5, 0.25];
+      sets[1]!.scores = [0.75];
+      sets[2]!.scores = [];
+      sets[2]!.entities = [];
+      const grid = measureGrid(sets, THRESHOLD_GRID, MARGIN_GRID);
+      const expected = MARGIN_GRID.flatMap((m) => THRESHOLD_GRID.map((t) => measurePoint(sets, t, m)));
+      expect(grid).toEqual(expected);
+    }
   });
 
   it("agrees with evaluate over rebuilt link rows", () => {

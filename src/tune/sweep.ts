@@ -104,6 +104,28 @@ export function measurePoint(
     predictedLinks++;
     if (s.entities[d.chosen] === s.gold) correctLinks++;
   }
+  return pointOf(threshold, minMargin, {
+    predictedLinks,
+    correctLinks,
+    goldLinks,
+    correctNil,
+    mentions: sets.length,
+  });
+}
+
+/** A point's figures from its counts (measurePoint and measureGrid share it, so both give the same numbers). */
+function pointOf(
+  threshold: number,
+  minMargin: number,
+  counts: {
+    predictedLinks: number;
+    correctLinks: number;
+    goldLinks: number;
+    correctNil: number;
+    mentions: number;
+  },
+): OperatingPoint {
+  const { predictedLinks, correctLinks, goldLinks, correctNil, mentions } = counts;
   const linkPrecision = ratio(correctLinks, predictedLinks);
   const linkRecall = ratio(correctLinks, goldLinks);
   return {
@@ -112,12 +134,85 @@ export function measurePoint(
     linkPrecision,
     linkRecall,
     linkF1: f1(linkPrecision, linkRecall),
-    accuracy: ratio(correctLinks + correctNil, sets.length),
+    accuracy: ratio(correctLinks + correctNil, mentions),
     predictedLinks,
     correctLinks,
     goldLinks,
-    mentions: sets.length,
+    mentions,
   };
+}
+
+/**
+ * Every point of a grid, margin-major: the same as measurePoint at each, computed from each
+ * mention's one decision input (its best score and margin: a mention links at (t, m) exactly when
+ * best score >= t and margin >= m, see decide) by sorting, instead of deciding every mention at
+ * every point. A sweep of 909 points over 50,000 mentions, in every fold of every procedure, was
+ * about two fifths of a tune run.
+ */
+export function measureGrid(
+  sets: readonly ScoredSet[],
+  thresholds: readonly number[],
+  margins: readonly number[],
+): OperatingPoint[] {
+  const n = sets.length;
+  const bestScore = new Float64Array(n);
+  const margin = new Float64Array(n);
+  const correct = new Uint8Array(n);
+  const goldNil = new Uint8Array(n);
+  const hasBest = new Uint8Array(n);
+  let goldLinks = 0;
+  let goldNils = 0;
+  sets.forEach((s, i) => {
+    // Any threshold and margin: decide's best candidate, score and margin do not depend on them.
+    const d = decide(s.scores, 0, 0);
+    if (s.gold === null) {
+      goldNil[i] = 1;
+      goldNils++;
+    } else goldLinks++;
+    if (d.best < 0) return;
+    hasBest[i] = 1;
+    bestScore[i] = d.bestScore;
+    margin[i] = d.margin;
+    correct[i] = s.entities[d.best] === s.gold ? 1 : 0;
+  });
+  const out: OperatingPoint[] = [];
+  for (const m of margins) {
+    // The mentions that pass the margin, by best score ascending, with suffix counts: those at
+    // index >= k are the ones whose score is at least the k-th.
+    const passing: number[] = [];
+    // A score that is not a number never links (see decide), and would not sort.
+    for (let i = 0; i < n; i++)
+      if (hasBest[i] === 1 && margin[i]! >= m && !Number.isNaN(bestScore[i]!)) passing.push(i);
+    passing.sort((a, b) => bestScore[a]! - bestScore[b]!);
+    const scores = passing.map((i) => bestScore[i]!);
+    const correctFrom = new Int32Array(passing.length + 1);
+    const nilLinkedFrom = new Int32Array(passing.length + 1);
+    for (let k = passing.length - 1; k >= 0; k--) {
+      correctFrom[k] = correctFrom[k + 1]! + correct[passing[k]!]!;
+      nilLinkedFrom[k] = nilLinkedFrom[k + 1]! + goldNil[passing[k]!]!;
+    }
+    for (const t of thresholds) {
+      // First index whose score is >= t.
+      let lo = 0;
+      let hi = scores.length;
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (scores[mid]! >= t) hi = mid;
+        else lo = mid + 1;
+      }
+      const predictedLinks = scores.length - lo;
+      out.push(
+        pointOf(t, m, {
+          predictedLinks,
+          correctLinks: correctFrom[lo]!,
+          goldLinks,
+          correctNil: goldNils - nilLinkedFrom[lo]!,
+          mentions: n,
+        }),
+      );
+    }
+  }
+  return out;
 }
 
 /** Compare two numbers with TIE_EPSILON: positive when a is larger. */
@@ -184,8 +279,7 @@ export function sweep(
     throw new RangeError(`sweep: recall-at-precision needs minPrecision in [0, 1], got ${minPrecision}`);
 
   const sets = scoreAll(data, weights);
-  const grid: OperatingPoint[] = [];
-  for (const m of margins) for (const t of thresholds) grid.push(measurePoint(sets, t, m));
+  const grid = measureGrid(sets, thresholds, margins);
 
   const highestPrecision = best(
     grid,
