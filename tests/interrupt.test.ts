@@ -11,21 +11,21 @@ describe("interrupt undos", () => {
     const states: boolean[] = [];
     watchUndos((pending) => states.push(pending));
     const ran: string[] = [];
-    const doneOutput = onInterrupt({ output: true, run: () => ran.push("output") });
-    onInterrupt({ output: false, run: () => ran.push("display") });
+    const doneOutput = onInterrupt({ output: "links.jsonl", run: () => ran.push("output") });
+    onInterrupt({ run: () => ran.push("display") });
     doneOutput();
-    onInterrupt({ output: true, run: () => ran.push("output 2") });
-    expect(undoAll()).toBe(1);
+    onInterrupt({ output: "people.kb", run: () => ran.push("output 2") });
+    expect(undoAll()).toEqual(["people.kb"]);
     expect(ran).toEqual(["display", "output 2"]);
     // Nothing pending at first, something from the first undo on, nothing after undoAll.
     expect(states[0]).toBe(false);
     expect(states[1]).toBe(true);
     expect(states.at(-1)).toBe(false);
     // A finished undo is not run again, and finishing twice is harmless.
-    const done = onInterrupt({ output: true, run: () => ran.push("never") });
+    const done = onInterrupt({ output: "x", run: () => ran.push("never") });
     done();
     done();
-    expect(undoAll()).toBe(0);
+    expect(undoAll()).toEqual([]);
     expect(ran).not.toContain("never");
     watchUndos(() => {});
   });

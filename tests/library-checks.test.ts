@@ -3,18 +3,21 @@
  * deep inside, not a quietly wrong link), KB handles closed when opening fails, and exported
  * defaults that one caller cannot change for the others.
  */
-import { readdirSync, readlinkSync, writeFileSync } from "node:fs";
+import { existsSync, readdirSync, readlinkSync, writeFileSync } from "node:fs";
 import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
 import { decide } from "../src/decide/decide.js";
 import { DEFAULT_DOCUMENT_EVIDENCE } from "../src/document/evidence.js";
+import { agree } from "../src/commands/agree.js";
 import { evaluate } from "../src/commands/evaluate.js";
 import { link } from "../src/commands/link.js";
+import { tune } from "../src/commands/tune.js";
 import { buildKb } from "../src/kb/build.js";
 import { type Kb, openKb } from "../src/kb/kb.js";
 import { createLinker, type Linker, type LinkerOptions } from "../src/link/linker.js";
 import { DEFAULT_WEIGHTS } from "../src/score/combine.js";
+import { readConfig } from "../src/tune/config.js";
 import type { Mention, Weights } from "../src/types.js";
 import { InputError, OutputError, UsageError } from "../src/util/errors.js";
 import { buildGazetteKb, jsonl, tempDir, writeText } from "./helpers/gazette.js";
@@ -229,5 +232,118 @@ describe("library commands", () => {
       OutputError,
     );
     await expect(buildKb({ table, out: "/sys/hawser.kb" })).rejects.toThrow(OutputError);
+  });
+});
+
+describe("wrong arguments of every kind", () => {
+  it("refuses misspelt, mistyped and misplaced linker options", () => {
+    const refused: unknown[] = [
+      { treshold: 0.9 },
+      [],
+      { labels: {} },
+      { labels: "labels.json" },
+      { paths: ["exact"], candidates: { paths: 42 } },
+    ];
+    for (const options of refused)
+      expect(() => createLinker(kb, options as LinkerOptions), JSON.stringify(options)).toThrow(UsageError);
+    // NaN is shown as NaN, not as JSON's null.
+    expect(() => createLinker(kb, { threshold: Number.NaN })).toThrow(/got NaN/);
+    // An explicit undefined means the default, inside `candidates` as outside.
+    expect(() => createLinker(kb, { candidates: { ftsLimit: undefined } })).not.toThrow();
+  });
+
+  it("refuses a null among the mentions of linkAll", async () => {
+    await expect(linker.linkAll([null as unknown as Mention]).next()).rejects.toThrow(UsageError);
+  });
+
+  it("takes a tuned config whole, and refuses one tuned on another KB", async () => {
+    const gold = writeText(
+      t.file("tune-gold.jsonl"),
+      jsonl(
+        Array.from({ length: 40 }, (_, i) => {
+          // Look-alikes (Stenmoor beside Stenmouth, the two Aldouses) and a NIL: links and non-links to learn from.
+          const [text, gold] = (
+            [
+              ["Stenmoor", "L02"],
+              ["Stenmouth", "L01"],
+              ["Josiah Aldous", "P01"],
+              ["Jonas Aldous", "P02"],
+              ["Quentin Fairweather", null],
+            ] as const
+          )[i % 5]!;
+          return { id: `g${i}`, text, gold };
+        }),
+      ),
+    );
+    const out = t.file("tuned.json");
+    await tune({ kb: kb.info.file, gold, out, folds: 2 });
+    const config = readConfig(out);
+    expect(createLinker(kb, config as unknown as LinkerOptions).config.threshold).toBe(config.threshold);
+    const elsewhere = { ...config, kb: { ...config.kb, fingerprint: "another" } };
+    expect(() => createLinker(kb, elsewhere as unknown as LinkerOptions)).toThrow(/tuned on another KB/);
+  });
+
+  it("refuses paths that are not file names and values of the wrong type in the commands", async () => {
+    const gold = writeText(t.file("g.jsonl"), jsonl([{ id: "a", text: "Stenmoor", gold: "L02" }]));
+    const mentions = writeText(t.file("m2.jsonl"), jsonl([{ id: "a", text: "Stenmoor" }]));
+    const file = kb.info.file;
+    const calls: Array<[string, () => Promise<unknown>]> = [
+      ["evaluate without gold", () => evaluate({ kb: file } as never)],
+      [
+        "evaluate with a number as config (read as a file descriptor)",
+        () => evaluate({ kb: file, gold, config: 5 } as never),
+      ],
+      ["link with 0 as labels (standard input)", () => link({ kb: file, mentions, labels: 0 } as never)],
+      ["evaluate with k 0", () => evaluate({ kb: file, gold, k: 0 })],
+      ["evaluate with top as a string", () => evaluate({ kb: file, gold, top: "2" } as never)],
+      ["tune without out", () => tune({ kb: file, gold } as never)],
+      [
+        "tune with minPrecision as a string",
+        () => tune({ kb: file, gold, out: t.file("x.json"), minPrecision: "0.99" } as never),
+      ],
+      ["agree without b", () => agree({ a: gold } as never)],
+      ["link to an object that is no stream", () => link({ kb: file, mentions, stdout: {} } as never)],
+      ["link with a warn that is no function", () => link({ kb: file, mentions, warn: 5 } as never)],
+      [
+        "buildKb with labels as a string",
+        () => buildKb({ table, out: t.file("x.kb"), labels: "x" } as never),
+      ],
+      ["buildKb with progressEvery 0", () => buildKb({ table, out: t.file("x.kb"), progressEvery: 0 })],
+      [
+        "a tag column that is no number",
+        () => link({ kb: file, mentions: t.file("x.conll"), tagColumn: "x" } as never),
+      ],
+      [
+        "both windows",
+        () => link({ kb: file, mentions, documents: mentions, window: { chars: 5, sentences: 1 } } as never),
+      ],
+    ];
+    for (const [what, call] of calls) await expect(call(), what).rejects.toThrow(UsageError);
+    expect(existsSync(t.file("x.json"))).toBe(false);
+  });
+
+  it("warns when predicted rows list fewer candidates than recall is asked at", async () => {
+    const gold = writeText(
+      t.file("span-gold.jsonl"),
+      jsonl([{ id: "a", text: "Stenmoor", start: 0, end: 8, doc: "d", gold: "L01" }]),
+    );
+    const predicted = writeText(
+      t.file("span-pred.jsonl"),
+      jsonl([
+        {
+          mention: "a",
+          text: "Stenmoor",
+          start: 0,
+          end: 8,
+          doc: "d",
+          entity: "L01",
+          candidates: [{ entity: "L01" }],
+        },
+      ]),
+    );
+    const report = await evaluate({ kb: kb.info.file, gold, predicted, k: 5 });
+    expect(report.warnings.join("\n")).toContain(
+      'rows list at most 1 candidates, so candidate recall "at 5"',
+    );
   });
 });

@@ -472,9 +472,9 @@ process.stdout.on("error", (e: NodeJS.ErrnoException) => {
  */
 const SIGNAL_HANDLERS = (["SIGINT", "SIGTERM", "SIGHUP"] as const).map((signal) => {
   const handler = () => {
-    const removed = undoAll();
+    const unfinished = undoAll();
     err(
-      `hawser: interrupted (${signal})${removed > 0 ? "; the unfinished output was removed, nothing was written" : ""}`,
+      `hawser: interrupted (${signal})${unfinished.length > 0 ? `; not written: ${unfinished.join(", ")} (the unfinished file was removed)` : ""}`,
     );
     process.exit(128 + osConstants.signals[signal]);
   };

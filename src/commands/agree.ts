@@ -1,6 +1,7 @@
 /** `hawser agree` as a library call: agreement of two labeled files over the same mentions. */
 import { type Agreement, agreement } from "../evaluate/agree.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
+import { requirePaths, UsageError } from "../util/errors.js";
 import { readLabeled } from "./evaluate.js";
 
 export interface AgreeOptions {
@@ -13,6 +14,11 @@ export interface AgreeOptions {
 }
 
 export async function agree(options: AgreeOptions): Promise<Agreement> {
+  requirePaths("agree", options, ["a", "b"], ["out"]);
+  if (options.out !== undefined && /\.(csv|tsv)$/i.test(options.out))
+    throw new UsageError(
+      `--out ${options.out}: agree writes its disagreements as JSONL; name the file .jsonl`,
+    );
   const a = await readLabeled(options.a);
   const b = await readLabeled(options.b);
   const result = agreement(a, b, { fileA: options.a, fileB: options.b });

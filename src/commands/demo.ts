@@ -3,12 +3,13 @@
  * river-port trade gazette): index the table, link the mentions, measure against the gold set,
  * tune on it, and measure again.
  */
-import { mkdirSync, mkdtempSync, readFileSync, statSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { alignSpans, evaluateAligned } from "../evaluate/align.js";
 import { type EvalReport, evaluate as evaluateRows } from "../evaluate/metrics.js";
+import { onInterrupt } from "../util/interrupt.js";
 import { UsageError } from "../util/errors.js";
 import type { LinkRow } from "../types.js";
 import { type EvalResult, evaluate, readLabeled } from "./evaluate.js";
@@ -53,79 +54,88 @@ export async function demo(options: DemoOptions = {}): Promise<DemoResult> {
   if (options.out !== undefined && statSync(options.out, { throwIfNoEntry: false })?.isDirectory() === false)
     throw new UsageError(`--out ${options.out} is a file: the demo writes its files into a folder`);
   const dir = options.out ?? mkdtempSync(join(tmpdir(), "hawser-demo-"));
-  mkdirSync(dir, { recursive: true });
-  const table = join(SAMPLES_DIR, "gazette-entities.csv");
-  const from = options.from ?? "jsonl";
-  const inputs: Record<DemoInput, { mentions: string; extra: Partial<LinkOptions> }> = {
-    jsonl: { mentions: join(SAMPLES_DIR, "gazette-mentions.jsonl"), extra: {} },
-    conll: { mentions: join(SAMPLES_DIR, "articles/gazette.conll"), extra: {} },
-    spans: {
-      mentions: join(SAMPLES_DIR, "articles/spans.jsonl"),
-      extra: { documents: join(SAMPLES_DIR, "articles/documents.jsonl"), window: { sentences: 1 } },
-    },
-  };
-  const input = inputs[from];
-  if (input === undefined) throw new UsageError(`unknown demo input "${from}": use jsonl, conll or spans`);
-  const gold = join(SAMPLES_DIR, "gazette-gold.jsonl");
-  const kb = join(dir, "gazette.kb");
-  const links = join(dir, "links.jsonl");
-  const config = join(dir, "tuned-config.json");
-  const report = join(dir, "tuning-report.html");
+  // A folder of its own making is removed whole if the demo is interrupted (--out's is the user's).
+  const made =
+    options.out === undefined
+      ? onInterrupt({ run: () => rmSync(dir, { recursive: true, force: true }) })
+      : () => {};
+  try {
+    mkdirSync(dir, { recursive: true });
+    const table = join(SAMPLES_DIR, "gazette-entities.csv");
+    const from = options.from ?? "jsonl";
+    const inputs: Record<DemoInput, { mentions: string; extra: Partial<LinkOptions> }> = {
+      jsonl: { mentions: join(SAMPLES_DIR, "gazette-mentions.jsonl"), extra: {} },
+      conll: { mentions: join(SAMPLES_DIR, "articles/gazette.conll"), extra: {} },
+      spans: {
+        mentions: join(SAMPLES_DIR, "articles/spans.jsonl"),
+        extra: { documents: join(SAMPLES_DIR, "articles/documents.jsonl"), window: { sentences: 1 } },
+      },
+    };
+    const input = inputs[from];
+    if (input === undefined) throw new UsageError(`unknown demo input "${from}": use jsonl, conll or spans`);
+    const gold = join(SAMPLES_DIR, "gazette-gold.jsonl");
+    const kb = join(dir, "gazette.kb");
+    const links = join(dir, "links.jsonl");
+    const config = join(dir, "tuned-config.json");
+    const report = join(dir, "tuning-report.html");
 
-  print("hawser demo: The Harrowmouth Gazette & Shipping List, 1890-1930 (invented sample archive)");
-  const built = await index({ table, out: kb, progress: false });
-  print(`1. indexed ${built.entities} entities (${built.aliases} names and aliases) from ${table}`);
-  const s = await link({
-    kb,
-    mentions: input.mentions,
-    ...input.extra,
-    out: links,
-    progress: false,
-    warn: (m) => print(`   warning: ${m}`),
-  });
-  print(
-    `2. linked ${s.mentions} mentions from ${input.mentions}: ${s.linked} linked, ${s.nil} NIL, in ${s.seconds.toFixed(2)}s`,
-  );
-  const rows = readFileSync(links, "utf8")
-    .split("\n")
-    .filter(Boolean)
-    .map((l) => JSON.parse(l) as LinkRow);
-  const before = await measureRows(rows, gold, from);
-  const o = before.overall;
-  print(
-    `3. against the gold set (defaults): accuracy ${pct(o.accuracy)}, link precision ${pct(o.linkPrecision)}, ` +
-      `recall ${pct(o.linkRecall)}, F1 ${pct(o.linkF1)}; gold among candidates ${pct(before.candidateRecall.atAll)}`,
-  );
-  print("   a few rows with their reasons:");
-  for (const r of pickExamples(rows, options.examples ?? 4)) {
+    print("hawser demo: The Harrowmouth Gazette & Shipping List, 1890-1930 (invented sample archive)");
+    const built = await index({ table, out: kb, progress: false });
+    print(`1. indexed ${built.entities} entities (${built.aliases} names and aliases) from ${table}`);
+    const s = await link({
+      kb,
+      mentions: input.mentions,
+      ...input.extra,
+      out: links,
+      progress: false,
+      warn: (m) => print(`   warning: ${m}`),
+    });
     print(
-      `   - "${r.text}" (${r.type ?? "no label"}) -> ${r.entity === null ? "NIL" : `${r.entity} ${r.name}`}, score ${r.score}`,
+      `2. linked ${s.mentions} mentions from ${input.mentions}: ${s.linked} linked, ${s.nil} NIL, in ${s.seconds.toFixed(2)}s`,
     );
-    for (const reason of r.reasons.filter((x) => x.code !== "found-by"))
-      print(`       ${reason.code}: ${reason.message}`);
+    const rows = readFileSync(links, "utf8")
+      .split("\n")
+      .filter(Boolean)
+      .map((l) => JSON.parse(l) as LinkRow);
+    const before = await measureRows(rows, gold, from);
+    const o = before.overall;
+    print(
+      `3. against the gold set (defaults): accuracy ${pct(o.accuracy)}, link precision ${pct(o.linkPrecision)}, ` +
+        `recall ${pct(o.linkRecall)}, F1 ${pct(o.linkF1)}; gold among candidates ${pct(before.candidateRecall.atAll)}`,
+    );
+    print("   a few rows with their reasons:");
+    for (const r of pickExamples(rows, options.examples ?? 4)) {
+      print(
+        `   - "${r.text}" (${r.type ?? "no label"}) -> ${r.entity === null ? "NIL" : `${r.entity} ${r.name}`}, score ${r.score}`,
+      );
+      for (const reason of r.reasons.filter((x) => x.code !== "found-by"))
+        print(`       ${reason.code}: ${reason.message}`);
+    }
+    const warn = (m: string) => print(`   warning: ${m}`);
+    const tuned = await tune({ kb, gold, out: config, report, warn });
+    const after = (await evaluate({ kb, gold, config, warn })) as EvalResult & EvalReport;
+    const f = tuned.result.figures;
+    print(
+      `4. tuned on the gold set (a logistic fit, the default weights with a swept threshold and the defaults, ` +
+        `compared by 5-fold cross-validation; mentions scored one by one): ` +
+        `kept ${PROCEDURE_WORDS[tuned.result.procedure]}, threshold ${tuned.config.threshold}, ` +
+        `minimum margin ${tuned.config.minMargin} log-odds`,
+    );
+    print(
+      `   link F1: defaults ${pct(f.defaults.linkF1)} -> tuned, held-out ${pct(f.heldOut.linkF1)} ` +
+        `(in-sample ${pct(f.inSample.linkF1)})`,
+    );
+    const a = after.overall;
+    print(
+      `5. linked again with the tuned config and document evidence: accuracy ${pct(a.accuracy)}, ` +
+        `link precision ${pct(a.linkPrecision)}, recall ${pct(a.linkRecall)}, F1 ${pct(a.linkF1)} ` +
+        `(in-sample: tuned on these same mentions)`,
+    );
+    print(`files: KB ${kb}\n       links ${links}\n       config ${config}\n       report ${report}`);
+    return { dir, kb, links, config, report, before, after };
+  } finally {
+    made();
   }
-  const warn = (m: string) => print(`   warning: ${m}`);
-  const tuned = await tune({ kb, gold, out: config, report, warn });
-  const after = (await evaluate({ kb, gold, config, warn })) as EvalResult & EvalReport;
-  const f = tuned.result.figures;
-  print(
-    `4. tuned on the gold set (a logistic fit, the default weights with a swept threshold and the defaults, ` +
-      `compared by 5-fold cross-validation; mentions scored one by one): ` +
-      `kept ${PROCEDURE_WORDS[tuned.result.procedure]}, threshold ${tuned.config.threshold}, ` +
-      `minimum margin ${tuned.config.minMargin} log-odds`,
-  );
-  print(
-    `   link F1: defaults ${pct(f.defaults.linkF1)} -> tuned, held-out ${pct(f.heldOut.linkF1)} ` +
-      `(in-sample ${pct(f.inSample.linkF1)})`,
-  );
-  const a = after.overall;
-  print(
-    `5. linked again with the tuned config and document evidence: accuracy ${pct(a.accuracy)}, ` +
-      `link precision ${pct(a.linkPrecision)}, recall ${pct(a.linkRecall)}, F1 ${pct(a.linkF1)} ` +
-      `(in-sample: tuned on these same mentions)`,
-  );
-  print(`files: KB ${kb}\n       links ${links}\n       config ${config}\n       report ${report}`);
-  return { dir, kb, links, config, report, before, after };
 }
 
 /**

@@ -6,7 +6,7 @@ import { createLinker, DEFAULT_TOP } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
 import { type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
-import { InputError, UsageError } from "../util/errors.js";
+import { InputError, requireCallback, requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
 
@@ -130,6 +130,22 @@ async function readLinkRows(file: string): Promise<LinkRow[]> {
 }
 
 export async function evaluate(options: EvalOptions): Promise<EvalResult> {
+  requirePaths("evaluate", options, ["kb", "gold"], ["predicted", "config", "labels", "documents"]);
+  requireCallback("evaluate", "warn", options.warn);
+  if (
+    options.k !== undefined &&
+    !(typeof options.k === "number" && Number.isInteger(options.k) && options.k >= 1)
+  )
+    throw new UsageError(
+      `evaluate: k must be a whole number >= 1, got ${JSON.stringify(options.k) ?? String(options.k)}`,
+    );
+  if (
+    options.top !== undefined &&
+    !(typeof options.top === "number" && Number.isInteger(options.top) && options.top >= 0)
+  )
+    throw new UsageError(
+      `evaluate: top must be a whole number >= 0, got ${JSON.stringify(options.top) ?? String(options.top)}`,
+    );
   if (options.spanMatch !== undefined && options.predicted === undefined) {
     throw new UsageError(
       "--span-match needs --predicted (rows from another NER run to align with the gold spans)",
@@ -143,6 +159,12 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
   const k = options.k !== undefined ? { k: options.k } : {};
   if (options.predicted !== undefined) {
     const predicted = await readLinkRows(options.predicted);
+    const wanted = options.k ?? DEFAULT_CANDIDATE_K;
+    const listed = predicted.reduce((most, r) => Math.max(most, r.candidates.length), 0);
+    if (listed < wanted)
+      note(
+        `${options.predicted}: the rows list at most ${listed} candidates, so candidate recall "at ${wanted}" counts among those (link with --top ${wanted} to measure it)`,
+      );
     const alignment = alignSpans(gold, predicted, {
       mode: options.spanMatch ?? "strict",
       goldFile: options.gold,

@@ -1,6 +1,7 @@
 /** `hawser index` as a library call: build a KB file from a knowledge table. */
 import { type BuildKbOptions, type BuildSummary, buildKb } from "../kb/build.js";
 import { readLabelMapFile } from "../labels/label-map.js";
+import { requirePaths } from "../util/errors.js";
 import { progress } from "../util/progress.js";
 
 export interface IndexOptions {
@@ -17,6 +18,7 @@ export interface IndexOptions {
 }
 
 export async function index(options: IndexOptions): Promise<BuildSummary> {
+  requirePaths("index", options, ["table", "out"], ["labels"]);
   const bar = progress("indexing", options.progress);
   let shown = 0;
   const onProgress = (rows: number) => {

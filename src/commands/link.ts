@@ -9,7 +9,7 @@ import { warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { LinkRow, SearchPath } from "../types.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
-import { requirePaths, UsageError } from "../util/errors.js";
+import { requireCallback, requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
 
 export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
@@ -118,7 +118,10 @@ export function outputFormat(out: string | undefined, to: string | undefined): O
 
 export async function link(options: LinkOptions): Promise<LinkSummary> {
   const started = Date.now();
-  requirePaths("link", options, ["kb", "mentions"]);
+  requirePaths("link", options, ["kb", "mentions"], ["out", "config", "labels", "documents"]);
+  requireCallback("link", "warn", options.warn);
+  if (options.stdout !== undefined && typeof (options.stdout as { write?: unknown }).write !== "function")
+    throw new UsageError("link: stdout must be a writable stream (with a write method)");
   const format = outputFormat(options.out, options.to);
   resolveFormat(options.mentions, readerOptions(options)); // usage errors before any file is opened
   if (options.out !== undefined)

@@ -19,7 +19,7 @@ import {
   trackUnfinished,
 } from "../util/atomic-file.js";
 import { eventLoopTurn } from "../util/interrupt.js";
-import { InputError, OutputError, requirePaths } from "../util/errors.js";
+import { InputError, OutputError, requireCallback, requirePaths, UsageError } from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
@@ -104,6 +104,19 @@ const FTS_DEFAULT_SETTINGS =
 export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   const started = process.hrtime.bigint();
   requirePaths("buildKb", options, ["table", "out"]);
+  if (options.labels !== undefined && !(options.labels instanceof LabelMap))
+    throw new UsageError("buildKb: labels must be a LabelMap (readLabelMapFile reads one from a file)");
+  requireCallback("buildKb", "onProgress", options.onProgress);
+  for (const [name, least] of [
+    ["progressEvery", 1],
+    ["maxFuzzyVariants", 0],
+  ] as const) {
+    const v = options[name];
+    if (v !== undefined && !(typeof v === "number" && Number.isInteger(v) && v >= least))
+      throw new UsageError(
+        `buildKb: ${name} must be a whole number >= ${least}, got ${JSON.stringify(v) ?? String(v)}`,
+      );
+  }
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
   checkOutputFile(options.out, "--out", [["the table", options.table]]);
   if (options.table !== STDIN && !existsSync(options.table))
@@ -117,7 +130,7 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   } catch (e) {
     throw new OutputError(options.out, e as Error);
   }
-  const finished = trackUnfinished(tmp);
+  const finished = trackUnfinished(tmp, options.out);
   let ok = false;
   try {
     // The temporary file is private until renamed, so durability pragmas buy nothing during the build.

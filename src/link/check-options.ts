@@ -8,6 +8,7 @@ import { ALL_PATHS, type CandidateOptions } from "../candidates/generate.js";
 import type { DocumentEvidenceOptions } from "../document/evidence.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import { FEATURE_NAMES, type Mention, type SearchPath, type Weights } from "../types.js";
+import { CONFIG_FORMAT } from "../tune/config.js";
 import { UsageError } from "../util/errors.js";
 
 /** Most edits a fuzzy correction may take: the fuzzy index holds up to two deletions a token (see src/kb/deletions.ts). */
@@ -15,8 +16,13 @@ export const MAX_FUZZY_EDITS = 2;
 
 const isObject = (v: unknown): v is Record<string, unknown> =>
   typeof v === "object" && v !== null && !Array.isArray(v);
+/** A value as a message shows it: JSON, but numbers as JavaScript writes them (NaN, Infinity: JSON says null). */
 const shown = (v: unknown): string =>
-  typeof v === "string" ? JSON.stringify(v) : (JSON.stringify(v) ?? String(v));
+  typeof v === "number"
+    ? String(v)
+    : typeof v === "string"
+      ? JSON.stringify(v)
+      : (JSON.stringify(v) ?? String(v));
 
 /** A number in [lo, hi]. */
 export function checkRange(name: string, v: unknown, lo: number, hi: number): number {
@@ -99,13 +105,61 @@ const CANDIDATE_SETTINGS: ReadonlySet<string> = new Set([
 export function checkCandidateSettings(given: unknown): Partial<CandidateOptions> {
   if (given === undefined) return {};
   if (!isObject(given)) throw new UsageError(`candidates must be an object of settings, got ${shown(given)}`);
-  for (const name of Object.keys(given)) {
+  const settings: Record<string, unknown> = {};
+  for (const [name, v] of Object.entries(given)) {
     if (!CANDIDATE_SETTINGS.has(name))
       throw new UsageError(
         `candidates.${name}: unknown setting; known: ${[...CANDIDATE_SETTINGS].join(", ")}`,
       );
+    // An explicit undefined means the default, as for the linker's own options.
+    if (v !== undefined) settings[name] = name === "paths" ? checkPaths(v) : v;
   }
-  return given as Partial<CandidateOptions>;
+  return settings as Partial<CandidateOptions>;
+}
+
+/** The linker's options (LinkerOptions), by name: another name is a misspelling, refused. */
+export const LINKER_OPTION_NAMES: ReadonlySet<string> = new Set([
+  "weights",
+  "threshold",
+  "minMargin",
+  "top",
+  "maxCandidates",
+  "paths",
+  "candidates",
+  "labels",
+  "blockMinCompat",
+  "document",
+  "surfaceCache",
+]);
+
+/** The fields of a tuned config (readConfig) beside its weights, threshold and margin. */
+const CONFIG_FIELDS: ReadonlySet<string> = new Set([
+  "format",
+  "version",
+  "objective",
+  "minPrecision",
+  "figures",
+  "kb",
+  "created",
+]);
+
+/**
+ * The options object itself: an object (not an array) of known names. A tuned config as
+ * readConfig returns it is taken whole (its weights, threshold and margin are linker options),
+ * and refused when it was tuned on another KB than `kbFingerprint`, as `link --config` refuses it.
+ */
+export function checkOptionNames(options: unknown, kbFingerprint: string): void {
+  if (!isObject(options)) throw new UsageError(`linker options must be an object, got ${shown(options)}`);
+  const config = options.format === CONFIG_FORMAT;
+  for (const name of Object.keys(options))
+    if (!LINKER_OPTION_NAMES.has(name) && !(config && CONFIG_FIELDS.has(name)))
+      throw new UsageError(`unknown linker option "${name}"; known: ${[...LINKER_OPTION_NAMES].join(", ")}`);
+  const tunedOn = (options.kb as { fingerprint?: unknown } | undefined)?.fingerprint;
+  if (config && tunedOn !== kbFingerprint)
+    throw new UsageError(
+      `this config was tuned on another KB (fingerprint ${shown(tunedOn)}, this KB's ${kbFingerprint}): ` +
+        "tune again on this KB, or pass its weights, threshold and minMargin yourself to use it anyway",
+    );
 }
 
 /** The `document` option: false, or an object of the three steps, each true or false. */

@@ -55,6 +55,7 @@ import {
   checkDecision,
   checkDocumentOptions,
   checkMention,
+  checkOptionNames,
   checkPaths,
   checkRange,
   checkWeights,
@@ -307,8 +308,9 @@ export class Linker {
 
   constructor(kb: Kb, options: LinkerOptions = {}) {
     if (!(kb instanceof Kb)) throw new UsageError(`createLinker needs a KB from openKb, got ${String(kb)}`);
-    if (typeof options !== "object" || options === null)
-      throw new UsageError(`linker options must be an object, got ${String(options)}`);
+    checkOptionNames(options, kb.info.fingerprint);
+    if (options.labels !== undefined && !(options.labels instanceof LabelMap))
+      throw new UsageError("labels must be a LabelMap (readLabelMapFile reads one from a file)");
     this.kb = kb;
     this.labels = options.labels ?? new LabelMap();
     this.config = {
@@ -686,6 +688,7 @@ export class Linker {
     let seen = 0;
     try {
       for await (const m of mentions) {
+        if (typeof m !== "object" || m === null) checkMention(m); // throws a UsageError naming it
         // An array links without ever returning to the event loop otherwise: timers, I/O and
         // signal handlers of the caller would wait for the whole of it.
         if (++seen % MENTIONS_PER_LOOP_TURN === 0) await new Promise((resolve) => setImmediate(resolve));

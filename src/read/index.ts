@@ -90,6 +90,27 @@ function rowFormat(file: string, purpose: string): RowFormat {
   return rows;
 }
 
+/** The reader's numeric options, checked: a string or NaN there failed deep inside. */
+function checkReaderNumbers(options: ReadMentionsOptions): void {
+  const whole = (name: string, v: unknown, least: number) => {
+    if (v !== undefined && !(typeof v === "number" && Number.isInteger(v) && v >= least))
+      throw new UsageError(
+        `${name} must be a whole number${least > -Infinity ? ` >= ${least}` : ""}, got ${typeof v === "number" ? v : JSON.stringify(v)}`,
+      );
+  };
+  whole("tagColumn", options.tagColumn, -Infinity);
+  whole("tokenColumn", options.tokenColumn, -Infinity);
+  whole("contextSentences", options.contextSentences, 0);
+  const w = options.window as Record<string, unknown> | undefined;
+  if (w === undefined) return;
+  const keys = typeof w === "object" && w !== null ? Object.keys(w).filter((k) => w[k] !== undefined) : [];
+  if (keys.length !== 1 || (keys[0] !== "chars" && keys[0] !== "sentences"))
+    throw new UsageError(
+      `window must be { chars: N } or { sentences: N }, one of them, got ${JSON.stringify(w)}`,
+    );
+  whole(`window.${keys[0]}`, w[keys[0]!], 0);
+}
+
 /** Choose the format; throws UsageError for unknown extensions or options that do not apply. */
 export function resolveFormat(file: string, options: ReadMentionsOptions): MentionFormat {
   let format = options.from;
@@ -116,6 +137,7 @@ export function resolveFormat(file: string, options: ReadMentionsOptions): Menti
       `${conllOnly.join(", ")} ${conllOnly.length === 1 ? "applies" : "apply"} to CoNLL input only (format is ${format})`,
     );
   }
+  checkReaderNumbers(options);
   if (format !== "spans" && options.window !== undefined)
     throw new UsageError(`window applies to spans input only (format is ${format})`);
   if (format !== "spans" && options.documents !== undefined) {

@@ -64,6 +64,9 @@ export const PROCEDURE_WORDS: Readonly<Record<TuneProcedure, string>> = {
   defaults: "the defaults as they are",
 };
 
+/** Two procedures' objective values closer than this are a tie (float noise of equal counts). */
+const PROCEDURE_TIE = 1e-12;
+
 /** The procedures tune compares, simplest first: a tie goes to the simpler. */
 export const TUNE_PROCEDURES: readonly TuneProcedure[] = ["defaults", "default-weights", "fitted"];
 
@@ -289,15 +292,28 @@ export function tune(data: readonly ScoredMention[], opts: TuneOptions = {}): Tu
   for (const p of TUNE_PROCEDURES) {
     heldOutReports[p] = evaluate(pairsFor(data, heldOutRows[p]), evalOpts);
     const value = (q: TuneProcedure) => objectiveValue(heldOutReports[q].overall, objective, minPrecision);
-    if (value(p) > value(procedure)) procedure = p;
+    const precision = (q: TuneProcedure) => heldOutReports[q].overall.linkPrecision;
+    // Better on the objective; for recall at a precision, an equal recall goes to the higher
+    // precision (as operating points do); any other tie to the simpler procedure, listed first.
+    const diff = value(p) - value(procedure);
+    if (
+      diff > PROCEDURE_TIE ||
+      (Math.abs(diff) <= PROCEDURE_TIE &&
+        objective === "recall-at-precision" &&
+        precision(p) > precision(procedure) + PROCEDURE_TIE)
+    )
+      procedure = p;
   }
   notes.push(...foldNotes[procedure]);
   if (procedure !== "fitted") {
     const fitted = heldOutReports.fitted.overall;
     const kept = heldOutReports[procedure].overall;
+    const figures =
+      objective === "f1"
+        ? `link F1 ${fitted.linkF1.toFixed(4)} against ${kept.linkF1.toFixed(4)}`
+        : `link precision / recall ${fitted.linkPrecision.toFixed(4)} / ${fitted.linkRecall.toFixed(4)} against ${kept.linkPrecision.toFixed(4)} / ${kept.linkRecall.toFixed(4)}, for the highest recall at precision >= ${minPrecision}`;
     notes.push(
-      `fitted weights did no better held out than ${PROCEDURE_WORDS[procedure]} ` +
-        `(link F1 ${fitted.linkF1.toFixed(4)} against ${kept.linkF1.toFixed(4)}): kept ${PROCEDURE_WORDS[procedure]}`,
+      `fitted weights did no better held out than ${PROCEDURE_WORDS[procedure]} (${figures}): kept ${PROCEDURE_WORDS[procedure]}`,
     );
   }
 

@@ -94,6 +94,9 @@ export function temporaryPath(target: string): string {
  */
 const STALE_AFTER_MS = 60_000;
 
+/** What follows ".NAME.tmp-" in a temporary file's name: process id, time in milliseconds (ten digits or more), maybe a SQLite side file's ending. */
+const STALE_TEMPORARY = new RegExp(`^(\\d+)-\\d{10,}(?:${SQLITE_SIDE_FILES.join("|")})?$`);
+
 /** Removes the temporary files (and SQLite side files) of earlier runs for `target` that died unfinished. */
 export function removeStaleTemporaries(target: string): void {
   const folder = dirname(target);
@@ -106,11 +109,17 @@ export function removeStaleTemporaries(target: string): void {
   }
   for (const name of names) {
     if (!name.startsWith(prefix)) continue;
-    const pid = Number(/^(\d+)-\d+/.exec(name.slice(prefix.length))?.[1]);
+    // Exactly the shape temporaryPath gives, or SQLite's side file of one: nothing that merely
+    // begins like it ("...tmp-1-2.backup", another output's "....tmp-1-2.tmp-3-4").
+    const shape = STALE_TEMPORARY.exec(name.slice(prefix.length));
+    if (shape === null) continue;
+    const pid = Number(shape[1]);
     if (!Number.isSafeInteger(pid) || pid === process.pid || processAlive(pid)) continue;
     const path = join(folder, name);
     try {
-      if (Date.now() - lstatSync(path).mtimeMs < STALE_AFTER_MS) continue;
+      const stat = lstatSync(path);
+      // A plain file only (not a link, a folder), untouched for a while.
+      if (!stat.isFile() || Date.now() - stat.mtimeMs < STALE_AFTER_MS) continue;
       rmSync(path, { force: true });
     } catch {
       // gone meanwhile, or not ours to remove: leave it
@@ -133,9 +142,9 @@ function processAlive(pid: number): boolean {
  * returned function is called (on rename or removal), so that an interrupted command line
  * removes it, with SQLite's side files (see src/util/interrupt.ts).
  */
-export function trackUnfinished(path: string): () => void {
+export function trackUnfinished(path: string, target: string): () => void {
   return onInterrupt({
-    output: true,
+    output: target,
     run: () => {
       for (const side of ["", ...SQLITE_SIDE_FILES]) rmSync(`${path}${side}`, { force: true });
     },
@@ -163,7 +172,7 @@ export class AtomicWriter {
     } catch (e) {
       throw new OutputError(target, e as Error);
     }
-    this.finished = trackUnfinished(this.tmp);
+    this.finished = trackUnfinished(this.tmp, target);
     this.stream = createWriteStream(this.tmp, { fd, encoding: "utf8", highWaterMark: OUTPUT_BUFFER_BYTES });
     this.stream.on("error", (e) => {
       this.failure ??= e;

@@ -44,13 +44,32 @@ export class UsageError extends Error {
   }
 }
 
-/** Throws a UsageError unless each named option of a library call is a non-empty string (a path). */
-export function requirePaths(call: string, options: object, names: readonly string[]): void {
-  for (const name of names) {
-    const v = (options as Record<string, unknown>)[name];
+/**
+ * Throws a UsageError unless each named option of a library call is a non-empty string (a path);
+ * `optional` names may also be absent (undefined). A number is no path: Node would read it as a
+ * file descriptor (0, standard input).
+ */
+export function requirePaths(
+  call: string,
+  options: object,
+  names: readonly string[],
+  optional: readonly string[] = [],
+): void {
+  if (typeof options !== "object" || options === null || Array.isArray(options))
+    throw new UsageError(`${call} needs an object of options, got ${String(options)}`);
+  const o = options as Record<string, unknown>;
+  for (const name of [...names, ...optional]) {
+    const v = o[name];
+    if (v === undefined && optional.includes(name)) continue;
     if (typeof v !== "string" || v === "")
       throw new UsageError(`${call} needs ${name}, a file name, got ${JSON.stringify(v) ?? "nothing"}`);
   }
+}
+
+/** Throws a UsageError unless `v` is a function or absent (a callback option). */
+export function requireCallback(call: string, name: string, v: unknown): void {
+  if (v !== undefined && typeof v !== "function")
+    throw new UsageError(`${call}: ${name} must be a function, got ${JSON.stringify(v) ?? String(v)}`);
 }
 
 /**

@@ -10,8 +10,8 @@
  */
 
 export interface Undo {
-  /** True when it removes an unfinished output (for the message: "nothing was written"). */
-  output: boolean;
+  /** The output it keeps from landing (a file the message names as not written), if any. */
+  output?: string | undefined;
   run(): void;
 }
 
@@ -27,13 +27,13 @@ export function onInterrupt(undo: Undo): () => void {
   };
 }
 
-/** Runs every pending undo (display first, then outputs) and returns how many outputs it removed. */
-export function undoAll(): number {
-  const all = [...undos].sort((a, b) => Number(a.output) - Number(b.output));
+/** Runs every pending undo (display first, then outputs) and returns the outputs it kept from landing. */
+export function undoAll(): string[] {
+  const all = [...undos].sort((a, b) => Number(a.output !== undefined) - Number(b.output !== undefined));
   undos.clear();
-  let outputs = 0;
+  const outputs: string[] = [];
   for (const u of all) {
-    if (u.output) outputs++;
+    if (u.output !== undefined) outputs.push(u.output);
     u.run();
   }
   watcher?.(false);

@@ -35,7 +35,7 @@ export function progress(label: string, enabled = false): Progress {
   bar.start(0, 0, { rate: 0 });
   // The bar hides the cursor and turns line wrapping off until stopped: an interruption stops it
   // too (the command line's signal handler), or the terminal is left without them.
-  const done = onInterrupt({ output: false, run: () => bar.stop() });
+  const done = onInterrupt({ run: () => bar.stop() });
   return {
     tick(k = 1) {
       n += k;
