@@ -108,7 +108,7 @@ export interface Features {
 
 export type FeatureName = keyof Features;
 
-export const FEATURE_NAMES: readonly FeatureName[] = [
+export const FEATURE_NAMES: readonly FeatureName[] = Object.freeze([
   "jaroWinkler",
   "levenshtein",
   "tokenSet",
@@ -120,7 +120,7 @@ export const FEATURE_NAMES: readonly FeatureName[] = [
   "nearSpelling",
   "contextConflict",
   "prominence",
-];
+]);
 
 /** A candidate generation path: the linker's `paths` option names these. */
 export type SearchPath = "exact" | "ocr" | "acronym" | "initials" | "fts" | "fuzzy";

@@ -262,6 +262,19 @@ describe("hawser link", () => {
     expect(missing.stderr).toContain("no such file or directory");
   });
 
+  it("refuses a folder as a KB, a hexadecimal threshold, and says a missing label map is missing", () => {
+    const folder = hawser(["link", "--kb", t.dir, "mentions.jsonl"], t.dir);
+    expect(folder.status).toBe(1);
+    expect(folder.stderr).toContain("is a folder, not a KB file");
+    const hex = hawser(["link", "--kb", kb, "mentions.jsonl", "--threshold", "0x1"], t.dir);
+    expect(hex.status).toBe(2);
+    expect(hex.stderr).toContain('needs a decimal number, got "0x1"');
+    const labels = hawser(["link", "--kb", kb, "mentions.jsonl", "--labels", "no-labels.json"], t.dir);
+    expect(labels.status).toBe(1);
+    // It said "not a JSON label map" of a file that is not there.
+    expect(labels.stderr).toContain("no-labels.json: cannot read the file: no such file or directory");
+  });
+
   it("measures candidate recall at a k beyond the candidates a row lists", () => {
     // eval --k K reported recall among the --top candidates a row lists (3 by default), labeled
     // "at K". "Aldous" has two candidates, Josiah and Jonas Aldous: gold is the second.

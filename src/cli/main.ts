@@ -31,9 +31,16 @@ const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.ur
   version: string;
 };
 
-/** An option's value as a number; an empty value is no number (`Number("")` would read 0). */
+/**
+ * A decimal number as options are written ("0.6", "30", "1e-3"). `Number` alone read an empty
+ * value as 0 and "0x1" as 1.
+ */
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+
+/** An option's value as a number; anything but a decimal number is refused. */
 function numberOf(name: string, v: string): number {
   if (v.trim() === "") throw new InvalidArgumentError(`${name} needs a number, got an empty value`);
+  if (!DECIMAL.test(v.trim())) throw new InvalidArgumentError(`${name} needs a decimal number, got "${v}"`);
   return Number(v);
 }
 function unit(name: string) {

@@ -2,7 +2,7 @@
  * Opening a KB file read-only, checking it is one of ours, and the lookups the candidate and
  * scoring stages need (prepared once, cached where the same rows recur).
  */
-import { existsSync } from "node:fs";
+import { existsSync, statSync } from "node:fs";
 import Database from "better-sqlite3";
 import { abbreviates, NORMALIZER_VERSION } from "../normalize/name.js";
 import { ftsWords } from "./postings.js";
@@ -151,6 +151,11 @@ export class Kb {
       );
     if (!existsSync(file))
       throw new InputError({ file }, "no such KB file (build one with `hawser index TABLE --out KB`)");
+    if (statSync(file).isDirectory())
+      throw new InputError(
+        { file },
+        "is a folder, not a KB file (build one with `hawser index TABLE --out KB`)",
+      );
     let db: Database.Database | undefined;
     try {
       db = new Database(file, { readonly: true, fileMustExist: true });

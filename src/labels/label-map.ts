@@ -5,6 +5,7 @@
 import { readFileSync } from "node:fs";
 import { ENTITY_CLASSES, type EntityClass } from "../types.js";
 import { InputError } from "../util/errors.js";
+import { fileError } from "../read/lines.js";
 import { BUILTIN_LABELS, type CompatRow, type LabelInfo, UNLABELED_COMPAT } from "./builtin.js";
 
 /** Folds a label for lookup: trims, drops a BIO prefix, lowercases, `-` and spaces become `_`. */
@@ -118,9 +119,15 @@ export class LabelMap {
  * compat entries come from the built-in row of the class.
  */
 export function readLabelMapFile(file: string): LabelMap {
+  let text: string;
+  try {
+    text = readFileSync(file, "utf8");
+  } catch (e) {
+    throw fileError(file, e);
+  }
   let data: unknown;
   try {
-    data = JSON.parse(readFileSync(file, "utf8"));
+    data = JSON.parse(text);
   } catch (e) {
     throw new InputError({ file }, `not a JSON label map: ${(e as Error).message}`);
   }

@@ -10,6 +10,7 @@ import type { Figures } from "../evaluate/metrics.js";
 import { FEATURE_NAMES, type FeatureName, type LinkConfig } from "../types.js";
 import { writeFileAtomic } from "../util/atomic-file.js";
 import { InputError } from "../util/errors.js";
+import { fileError } from "../read/lines.js";
 import type { TuneResult } from "./tune.js";
 import { OBJECTIVES, type Objective } from "./types.js";
 
@@ -207,7 +208,7 @@ export function readConfig(file: string, opts: ReadConfigOptions = {}): TunedCon
   try {
     text = readFileSync(file, "utf8");
   } catch (e) {
-    throw new InputError({ file }, `cannot read the config file: ${(e as Error).message}`);
+    throw fileError(file, e);
   }
   let value: unknown;
   try {
