@@ -80,7 +80,9 @@ describe("tuned config files", () => {
     const file = join(dir, "broken.json");
     writeFileSync(file, '{\n  "format": "hawser-config",\n  "version": 1,\n  oops\n}\n');
     expect(() => readConfig(file)).toThrow(/broken\.json:4: not valid JSON/);
-    expect(() => readConfig(join(dir, "absent.json"))).toThrow(/absent\.json: cannot read the file: no such file or directory \(ENOENT\)/);
+    expect(() => readConfig(join(dir, "absent.json"))).toThrow(
+      /absent\.json: cannot read the file: no such file or directory \(ENOENT\)/,
+    );
     expect(readFileSync(join(dir, "other.json"), "utf8").endsWith("}\n")).toBe(true);
   });
 });
