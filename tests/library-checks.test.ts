@@ -152,6 +152,8 @@ describe("exported defaults", () => {
     expect(() => {
       DEFAULT_DOCUMENT_EVIDENCE.sameText = false;
     }).toThrow(TypeError);
+    expect(() => (DEFAULT_CANDIDATE_OPTIONS.paths as Set<string>).delete("fuzzy")).toThrow(TypeError);
+    expect(DEFAULT_CANDIDATE_OPTIONS.paths.has("fuzzy")).toBe(true);
     expect(
       createLinker(kb).link({ id: "a", text: "Aldous", type: "PER", context: "harbour master" }),
     ).toEqual(before);

@@ -92,7 +92,25 @@ export const ALL_PATHS: readonly SearchPath[] = Object.freeze([
   "fuzzy",
 ]);
 
-/** Frozen (see DEFAULT_WEIGHTS); its `paths` set is typed read-only. */
+/** A set whose members cannot change once made (Object.freeze leaves a Set's add and delete working). */
+class FrozenSet<T> extends Set<T> {
+  constructor(values: Iterable<T>) {
+    super();
+    for (const v of values) Set.prototype.add.call(this, v);
+    Object.freeze(this);
+  }
+  override add(): this {
+    throw new TypeError("Cannot add to a frozen set: copy it (new Set(...)) to change it");
+  }
+  override delete(): boolean {
+    throw new TypeError("Cannot delete from a frozen set: copy it (new Set(...)) to change it");
+  }
+  override clear(): void {
+    throw new TypeError("Cannot clear a frozen set: copy it (new Set(...)) to change it");
+  }
+}
+
+/** Frozen (see DEFAULT_WEIGHTS), its `paths` set too. */
 export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = Object.freeze({
   maxCandidates: 30,
   maxSearchCandidates: 10,
@@ -103,7 +121,7 @@ export const DEFAULT_CANDIDATE_OPTIONS: CandidateOptions = Object.freeze({
   skipSearchOnKeyMatch: true,
   respellSurnameOnKeyMatch: true,
   subKeys: true,
-  paths: new Set(ALL_PATHS),
+  paths: new FrozenSet(ALL_PATHS),
 });
 
 /** One bit per path: a candidate's paths as a bit set while pools of thousands are sorted. */
