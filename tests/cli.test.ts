@@ -275,6 +275,29 @@ describe("hawser link", () => {
     expect(labels.stderr).toContain("no-labels.json: cannot read the file: no such file or directory");
   });
 
+  it("scores predicted rows without a KB, and names CSV link rows given as a labeled set", () => {
+    writeText(
+      t.file("span-gold.jsonl"),
+      jsonl([{ id: "a", text: "Stenmoor", start: 0, end: 8, doc: "d", gold: "L02" }]),
+    );
+    writeText(
+      t.file("span-pred.jsonl"),
+      jsonl([{ mention: "a", text: "Stenmoor", start: 0, end: 8, doc: "d", entity: "L02", candidates: [] }]),
+    );
+    const scored = hawser(
+      ["eval", "--gold", "span-gold.jsonl", "--predicted", "span-pred.jsonl", "--json"],
+      t.dir,
+    );
+    expect(scored.status, scored.stderr).toBe(0);
+    expect(JSON.parse(scored.stdout).overall.accuracy).toBe(1);
+    expect(hawser(["eval", "--gold", "span-gold.jsonl"], t.dir).stderr).toContain("eval needs --kb");
+    const csv = hawser(["link", "--kb", kb, "mentions.jsonl", "--out", "rows.csv"], t.dir);
+    expect(csv.status, csv.stderr).toBe(0);
+    const agree = hawser(["agree", "rows.csv", "rows.csv"], t.dir);
+    expect(agree.status).toBe(1);
+    expect(agree.stderr).toContain("this looks like `hawser link` output");
+  });
+
   it("measures candidate recall at a k beyond the candidates a row lists", () => {
     // eval --k K reported recall among the --top candidates a row lists (3 by default), labeled
     // "at K". "Aldous" has two candidates, Josiah and Jonas Aldous: gold is the second.

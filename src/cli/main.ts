@@ -266,7 +266,7 @@ export function program(): Command {
       p
         .command("eval")
         .description("measure linking against a labeled link set")
-        .requiredOption("--kb <kb>", "KB file")
+        .option("--kb <kb>", "KB file (not needed with --predicted)")
         .requiredOption("--gold <file>", "labeled link set: mentions plus gold (entity id or null)")
         .option("--predicted <file>", "link rows (JSONL) from another NER run, aligned to the gold spans")
         .addOption(
@@ -279,6 +279,10 @@ export function program(): Command {
         .option("--json", "print the full report as JSON"),
     ),
   ).action(async (o: Record<string, unknown>) => {
+    if (o.kb === undefined && o.predicted === undefined)
+      throw new UsageError(
+        "eval needs --kb to link the gold mentions (or --predicted rows to score instead)",
+      );
     const { warnings: _printed, ...report } = await evaluate({
       kb: o.kb as string,
       gold: o.gold as string,

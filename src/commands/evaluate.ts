@@ -26,8 +26,8 @@ export interface EvalOptions
     | "documents"
     | "window"
   > {
-  /** KB file. */
-  kb: string;
+  /** KB file (not read when `predicted` is given). */
+  kb?: string | undefined;
   /** Labeled link set: mentions plus `gold` (entity id or null). */
   gold: string;
   /**
@@ -130,7 +130,14 @@ async function readLinkRows(file: string): Promise<LinkRow[]> {
 }
 
 export async function evaluate(options: EvalOptions): Promise<EvalResult> {
-  requirePaths("evaluate", options, ["kb", "gold"], ["predicted", "config", "labels", "documents"]);
+  // The KB is not opened when predicted rows are scored.
+  requirePaths("evaluate", options, options.predicted === undefined ? ["kb", "gold"] : ["gold"], [
+    "kb",
+    "predicted",
+    "config",
+    "labels",
+    "documents",
+  ]);
   requireCallback("evaluate", "warn", options.warn);
   if (
     options.k !== undefined &&
@@ -172,7 +179,7 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
     });
     return { ...evaluateAligned(alignment, k), warnings };
   }
-  const kb = openKb(options.kb);
+  const kb = openKb(options.kb as string); // required above when there are no predicted rows
   try {
     warnUnknownGold(kb, gold, options.gold, note);
     const linkerOptions = linkerOptionsFrom(options, kb.info.fingerprint);

@@ -33,11 +33,15 @@ export async function* readMentionsCsv(
     for (const name of required) {
       if (columns.includes(name)) continue;
       const like = lookalikeOf(name, columns);
+      // Rows of `hawser link --to csv` where a labeled set belongs: say so, as for JSONL rows.
+      const linkRows = name === "gold" && columns.includes("mention") && columns.includes("entity");
       throw new InputError(
         { file, line, field: name },
-        like === undefined
-          ? `missing column in header${separatorHint(columns, options.delimiter ?? ",")}`
-          : `missing column in header (found "${like}": hawser reads the mention's ${name} from "${name}")`,
+        linkRows
+          ? 'missing column in header; this looks like `hawser link` output, whose answer is "entity": a labeled set gives it as "gold"'
+          : like === undefined
+            ? `missing column in header${separatorHint(columns, options.delimiter ?? ",")}`
+            : `missing column in header (found "${like}": hawser reads the mention's ${name} from "${name}")`,
       );
     }
   };
