@@ -6,7 +6,7 @@ import { createLinker, DEFAULT_TOP } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
 import { type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
-import { InputError, requireCallback, requirePaths, UsageError } from "../util/errors.js";
+import { checkWhole, InputError, requireCallback, requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
 import { type LinkOptions, linkerOptionsFrom, readerOptions } from "./link.js";
 
@@ -139,20 +139,8 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
     "documents",
   ]);
   requireCallback("evaluate", "warn", options.warn);
-  if (
-    options.k !== undefined &&
-    !(typeof options.k === "number" && Number.isInteger(options.k) && options.k >= 1)
-  )
-    throw new UsageError(
-      `evaluate: k must be a whole number >= 1, got ${JSON.stringify(options.k) ?? String(options.k)}`,
-    );
-  if (
-    options.top !== undefined &&
-    !(typeof options.top === "number" && Number.isInteger(options.top) && options.top >= 0)
-  )
-    throw new UsageError(
-      `evaluate: top must be a whole number >= 0, got ${JSON.stringify(options.top) ?? String(options.top)}`,
-    );
+  if (options.k !== undefined) checkWhole("evaluate: k", options.k, 1);
+  if (options.top !== undefined) checkWhole("evaluate: top", options.top, 0);
   if (options.spanMatch !== undefined && options.predicted === undefined) {
     throw new UsageError(
       "--span-match needs --predicted (rows from another NER run to align with the gold spans)",

@@ -6,7 +6,7 @@ import { renderReport } from "../tune/report-html.js";
 import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
 import { checkOutputFile, writeFileAtomic } from "../util/atomic-file.js";
-import { requireCallback, requirePaths, UsageError } from "../util/errors.js";
+import { requireCallback, requirePaths, shown, UsageError } from "../util/errors.js";
 import { keepingWarnings, readLabeled, warnUnknownGold } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
 
@@ -58,7 +58,7 @@ export async function tune(options: TuneCommandOptions): Promise<TuneCommandResu
   for (const name of ["minPrecision", "folds", "seed", "l2"] as const) {
     const v = options[name];
     if (v !== undefined && !(typeof v === "number" && Number.isFinite(v)))
-      throw new UsageError(`tune: ${name} must be a number, got ${JSON.stringify(v) ?? String(v)}`);
+      throw new UsageError(`tune: ${name} must be a number, got ${shown(v)}`);
   }
   if (options.minPrecision !== undefined && !(options.minPrecision > 0 && options.minPrecision <= 1)) {
     throw new UsageError(`--min-precision must be in (0, 1], got ${options.minPrecision}`);

@@ -19,7 +19,14 @@ import {
   trackUnfinished,
 } from "../util/atomic-file.js";
 import { eventLoopTurn } from "../util/interrupt.js";
-import { InputError, OutputError, requireCallback, requirePaths, UsageError } from "../util/errors.js";
+import {
+  checkWhole,
+  InputError,
+  OutputError,
+  requireCallback,
+  requirePaths,
+  UsageError,
+} from "../util/errors.js";
 import { BatchInsert } from "./batch-insert.js";
 import { FUZZY_MIN_TOKEN_LENGTH, MAX_TABLE_VARIANTS, tableDeletions, tableVariants } from "./deletions.js";
 import { readTable, tableFormatOf } from "./read-table.js";
@@ -107,16 +114,9 @@ export async function buildKb(options: BuildKbOptions): Promise<BuildSummary> {
   if (options.labels !== undefined && !(options.labels instanceof LabelMap))
     throw new UsageError("buildKb: labels must be a LabelMap (readLabelMapFile reads one from a file)");
   requireCallback("buildKb", "onProgress", options.onProgress);
-  for (const [name, least] of [
-    ["progressEvery", 1],
-    ["maxFuzzyVariants", 0],
-  ] as const) {
-    const v = options[name];
-    if (v !== undefined && !(typeof v === "number" && Number.isInteger(v) && v >= least))
-      throw new UsageError(
-        `buildKb: ${name} must be a whole number >= ${least}, got ${JSON.stringify(v) ?? String(v)}`,
-      );
-  }
+  if (options.progressEvery !== undefined) checkWhole("buildKb: progressEvery", options.progressEvery, 1);
+  if (options.maxFuzzyVariants !== undefined)
+    checkWhole("buildKb: maxFuzzyVariants", options.maxFuzzyVariants, 0);
   tableFormatOf(options.table, options.from); // usage errors before any file is touched
   checkOutputFile(options.out, "--out", [["the table", options.table]]);
   if (options.table !== STDIN && !existsSync(options.table))

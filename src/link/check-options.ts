@@ -9,37 +9,13 @@ import type { DocumentEvidenceOptions } from "../document/evidence.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import { FEATURE_NAMES, type Mention, type SearchPath, type Weights } from "../types.js";
 import { CONFIG_FORMAT } from "../tune/config.js";
-import { UsageError } from "../util/errors.js";
+import { checkRange, checkWhole, shown, UsageError } from "../util/errors.js";
 
 /** Most edits a fuzzy correction may take: the fuzzy index holds up to two deletions a token (see src/kb/deletions.ts). */
 export const MAX_FUZZY_EDITS = 2;
 
 const isObject = (v: unknown): v is Record<string, unknown> =>
   typeof v === "object" && v !== null && !Array.isArray(v);
-/** A value as a message shows it: JSON, but numbers as JavaScript writes them (NaN, Infinity: JSON says null). */
-const shown = (v: unknown): string =>
-  typeof v === "number"
-    ? String(v)
-    : typeof v === "string"
-      ? JSON.stringify(v)
-      : (JSON.stringify(v) ?? String(v));
-
-/** A number in [lo, hi]. */
-export function checkRange(name: string, v: unknown, lo: number, hi: number): number {
-  if (!(typeof v === "number" && v >= lo && v <= hi))
-    throw new UsageError(`${name} must be a number in [${lo}, ${hi}], got ${shown(v)}`);
-  return v;
-}
-
-/** A whole number in [lo, hi]. */
-export function checkWhole(name: string, v: unknown, lo: number, hi = Number.MAX_SAFE_INTEGER): number {
-  if (!(typeof v === "number" && Number.isInteger(v) && v >= lo && v <= hi))
-    throw new UsageError(
-      `${name} must be a whole number ${hi === Number.MAX_SAFE_INTEGER ? `>= ${lo}` : `in [${lo}, ${hi}]`}, got ${shown(v)}`,
-    );
-  return v;
-}
-
 /**
  * Score weights: a finite bias and a finite weight for every feature, no unknown name (a
  * misspelt feature would be dropped silently, its real weight left out).
@@ -195,13 +171,13 @@ export function checkMention(m: Mention): void {
   if (!isObject(m)) throw new UsageError(`a mention must be an object, got ${shown(m)}`);
   if (typeof m.id !== "string" || m.id === "")
     throw new UsageError(
-      `a mention's id must be a non-empty string, got ${shown(m.id) ?? "nothing"} (text ${shown(m.text)})`,
+      `a mention's id must be a non-empty string, got ${shown(m.id)} (text ${shown(m.text)})`,
     );
   const what = `mention "${m.id}"`;
   // A blank text is allowed here (a NIL row, as for any text without a candidate); the readers
   // refuse it in files, where it is a sign of a broken row.
   if (typeof m.text !== "string")
-    throw new UsageError(`${what}: text must be a string, got ${shown(m.text) ?? "nothing"}`);
+    throw new UsageError(`${what}: text must be a string, got ${shown(m.text)}`);
   for (const field of ["type", "context", "doc"] as const) {
     const v = m[field];
     if (v !== undefined && v !== null && typeof v !== "string")

@@ -48,7 +48,7 @@ import {
   type SearchPath,
   type Weights,
 } from "../types.js";
-import { UsageError } from "../util/errors.js";
+import { checkRange, checkWhole, UsageError } from "../util/errors.js";
 import {
   checkCandidateOptions,
   checkCandidateSettings,
@@ -57,9 +57,7 @@ import {
   checkMention,
   checkOptionNames,
   checkPaths,
-  checkRange,
   checkWeights,
-  checkWhole,
 } from "./check-options.js";
 import {
   DEFAULT_DOCUMENT_EVIDENCE,

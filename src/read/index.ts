@@ -4,7 +4,7 @@
  */
 
 import { extname } from "node:path";
-import { UsageError } from "../util/errors.js";
+import { checkWhole, shown, UsageError } from "../util/errors.js";
 import { readConll } from "./conll.js";
 import type { ContextWindow } from "./context-window.js";
 import { lookalikeOf } from "./field-hints.js";
@@ -93,10 +93,7 @@ function rowFormat(file: string, purpose: string): RowFormat {
 /** The reader's numeric options, checked: a string or NaN there failed deep inside. */
 function checkReaderNumbers(options: ReadMentionsOptions): void {
   const whole = (name: string, v: unknown, least: number) => {
-    if (v !== undefined && !(typeof v === "number" && Number.isInteger(v) && v >= least))
-      throw new UsageError(
-        `${name} must be a whole number${least > -Infinity ? ` >= ${least}` : ""}, got ${typeof v === "number" ? v : JSON.stringify(v)}`,
-      );
+    if (v !== undefined) checkWhole(name, v, least);
   };
   whole("tagColumn", options.tagColumn, -Infinity);
   whole("tokenColumn", options.tokenColumn, -Infinity);
@@ -105,9 +102,7 @@ function checkReaderNumbers(options: ReadMentionsOptions): void {
   if (w === undefined) return;
   const keys = typeof w === "object" && w !== null ? Object.keys(w).filter((k) => w[k] !== undefined) : [];
   if (keys.length !== 1 || (keys[0] !== "chars" && keys[0] !== "sentences"))
-    throw new UsageError(
-      `window must be { chars: N } or { sentences: N }, one of them, got ${JSON.stringify(w)}`,
-    );
+    throw new UsageError(`window must be { chars: N } or { sentences: N }, one of them, got ${shown(w)}`);
   whole(`window.${keys[0]}`, w[keys[0]!], 0);
 }
 

@@ -45,6 +45,31 @@ export class UsageError extends Error {
 }
 
 /**
+ * A value as a usage error shows it: JSON, but numbers as JavaScript writes them (NaN, Infinity:
+ * JSON says null) and a missing value as "nothing".
+ */
+export function shown(v: unknown): string {
+  if (v === undefined) return "nothing";
+  return typeof v === "number" ? String(v) : (JSON.stringify(v) ?? String(v));
+}
+
+/** A number in [lo, hi], else a UsageError naming it. */
+export function checkRange(name: string, v: unknown, lo: number, hi: number): number {
+  if (!(typeof v === "number" && v >= lo && v <= hi))
+    throw new UsageError(`${name} must be a number in [${lo}, ${hi}], got ${shown(v)}`);
+  return v;
+}
+
+/** A whole number in [lo, hi] (lo -Infinity: any whole number), else a UsageError naming it. */
+export function checkWhole(name: string, v: unknown, lo: number, hi = Number.MAX_SAFE_INTEGER): number {
+  if (!(typeof v === "number" && Number.isInteger(v) && v >= lo && v <= hi)) {
+    const bounds = hi !== Number.MAX_SAFE_INTEGER ? ` in [${lo}, ${hi}]` : lo > -Infinity ? ` >= ${lo}` : "";
+    throw new UsageError(`${name} must be a whole number${bounds}, got ${shown(v)}`);
+  }
+  return v;
+}
+
+/**
  * Throws a UsageError unless each named option of a library call is a non-empty string (a path);
  * `optional` names may also be absent (undefined). A number is no path: Node would read it as a
  * file descriptor (0, standard input).
@@ -62,14 +87,14 @@ export function requirePaths(
     const v = o[name];
     if (v === undefined && optional.includes(name)) continue;
     if (typeof v !== "string" || v === "")
-      throw new UsageError(`${call} needs ${name}, a file name, got ${JSON.stringify(v) ?? "nothing"}`);
+      throw new UsageError(`${call} needs ${name}, a file name, got ${shown(v)}`);
   }
 }
 
 /** Throws a UsageError unless `v` is a function or absent (a callback option). */
 export function requireCallback(call: string, name: string, v: unknown): void {
   if (v !== undefined && typeof v !== "function")
-    throw new UsageError(`${call}: ${name} must be a function, got ${JSON.stringify(v) ?? String(v)}`);
+    throw new UsageError(`${call}: ${name} must be a function, got ${shown(v)}`);
 }
 
 /**
