@@ -295,7 +295,7 @@ describe("hawser link", () => {
     expect(csv.status, csv.stderr).toBe(0);
     const agree = hawser(["agree", "rows.csv", "rows.csv"], t.dir);
     expect(agree.status).toBe(1);
-    expect(agree.stderr).toContain("this looks like `hawser link` output");
+    expect(agree.stderr).toContain("this looks like a row of `hawser link`'s output");
   });
 
   it("measures candidate recall at a k beyond the candidates a row lists", () => {

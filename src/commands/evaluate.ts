@@ -4,7 +4,7 @@ import { DEFAULT_CANDIDATE_K, type EvalReport, evaluate as measure } from "../ev
 import { type Kb, openKb } from "../kb/kb.js";
 import { createLinker, DEFAULT_TOP } from "../link/linker.js";
 import { readMentions, readJsonLines } from "../read/index.js";
-import { type ReadWarning, warningLine } from "../read/warnings.js";
+import { keepingWarnings, type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
 import { checkWhole, InputError, requireCallback, requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
@@ -50,21 +50,6 @@ export interface EvalOptions
 
 /** What `evaluate` returns: the report, and the warnings met on the way. */
 export type EvalResult = (EvalReport | AlignedEvalReport) & { warnings: string[] };
-
-/** A warning handler that also keeps every message, for a result's `warnings`. */
-export function keepingWarnings(warn: ((message: string) => void) | undefined): {
-  warnings: string[];
-  note: (message: string) => void;
-} {
-  const warnings: string[] = [];
-  return {
-    warnings,
-    note: (message) => {
-      warnings.push(message);
-      warn?.(message);
-    },
-  };
-}
 
 export async function readLabeled(
   file: string,

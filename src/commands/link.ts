@@ -5,7 +5,7 @@ import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
 import { type LinkerOptions, createLinker } from "../link/linker.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
 import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
-import { warningLine } from "../read/warnings.js";
+import { keepingWarnings, warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { LinkRow, SearchPath } from "../types.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
@@ -133,12 +133,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
       ["--documents", options.documents],
     ]);
   const kb = openKb(options.kb);
-  const warnings: string[] = [];
-  const warn = options.warn ?? (() => {});
-  const note = (m: string) => {
-    warnings.push(m);
-    warn(m);
-  };
+  const { warnings, note } = keepingWarnings(options.warn);
   try {
     const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
     const source = readMentions(options.mentions, {

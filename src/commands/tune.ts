@@ -7,7 +7,8 @@ import { type TuneResult, tune as tuneScored } from "../tune/tune.js";
 import type { Objective, ScoredMention } from "../tune/types.js";
 import { checkOutputFile, writeFileAtomic } from "../util/atomic-file.js";
 import { requireCallback, requirePaths, shown, UsageError } from "../util/errors.js";
-import { keepingWarnings, readLabeled, warnUnknownGold } from "./evaluate.js";
+import { keepingWarnings } from "../read/warnings.js";
+import { readLabeled, warnUnknownGold } from "./evaluate.js";
 import { type LinkOptions, linkerOptionsFrom } from "./link.js";
 
 export interface TuneCommandOptions

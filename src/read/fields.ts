@@ -91,6 +91,16 @@ export function requiredOffset(ctx: RowContext, row: Record<string, unknown>, fi
 export const NIL_WORDS: readonly string[] = ["null", "NIL"];
 
 /**
+ * Where a labeled set lacks its gold field but has a link row's fields (rows of `hawser link`,
+ * JSONL or CSV, given as a labeled set): the sentence that says so, else nothing.
+ */
+export function linkRowsHint(fields: readonly string[], goldField: string): string {
+  return fields.includes("mention") && fields.includes("entity")
+    ? `; this looks like a row of \`hawser link\`'s output, whose answer is "entity": a labeled set gives it as "${goldField}"`
+    : "";
+}
+
+/**
  * The `gold` answer of a labeled row: an entity id, or null for NIL. Required (the field must be
  * present). In JSON: a non-empty string or null. In CSV: an empty cell, `null` or `NIL` mean null.
  */
@@ -99,9 +109,7 @@ export function goldField(ctx: RowContext, row: Record<string, unknown>, field =
     fail(
       ctx,
       field,
-      Object.hasOwn(row, "mention") && Object.hasOwn(row, "entity")
-        ? `is required in a labeled set (an entity id, or null for NIL); this looks like a row of \`hawser link\`'s output, whose answer is "entity": a labeled set gives it as "${field}"`
-        : "is required in a labeled set (an entity id, or null for NIL)",
+      `is required in a labeled set (an entity id, or null for NIL)${linkRowsHint(Object.keys(row), field)}`,
     );
   const value = row[field];
   if (ctx.cells) {

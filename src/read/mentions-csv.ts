@@ -3,7 +3,7 @@
 import { InputError } from "../util/errors.js";
 import { type CsvOptions, readCsvRows } from "./csv.js";
 import { lookalikeOf, separatorHint } from "./field-hints.js";
-import { isAbsent, UniqueIds } from "./fields.js";
+import { isAbsent, linkRowsHint, UniqueIds } from "./fields.js";
 import {
   type MentionRowOptions,
   mentionFromRow,
@@ -33,12 +33,11 @@ export async function* readMentionsCsv(
     for (const name of required) {
       if (columns.includes(name)) continue;
       const like = lookalikeOf(name, columns);
-      // Rows of `hawser link --to csv` where a labeled set belongs: say so, as for JSONL rows.
-      const linkRows = name === "gold" && columns.includes("mention") && columns.includes("entity");
+      const linkRows = name === "gold" ? linkRowsHint(columns, name) : "";
       throw new InputError(
         { file, line, field: name },
-        linkRows
-          ? 'missing column in header; this looks like `hawser link` output, whose answer is "entity": a labeled set gives it as "gold"'
+        linkRows !== ""
+          ? `missing column in header${linkRows}`
           : like === undefined
             ? `missing column in header${separatorHint(columns, options.delimiter ?? ",")}`
             : `missing column in header (found "${like}": hawser reads the mention's ${name} from "${name}")`,

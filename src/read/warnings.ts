@@ -26,3 +26,18 @@ export function warningLine(w: ReadWarning): string {
 export function printWarning(message: string): void {
   process.stderr.write(`hawser: warning: ${message}\n`);
 }
+
+/** A warning handler that also keeps every message, for a result's `warnings`. */
+export function keepingWarnings(warn: ((message: string) => void) | undefined): {
+  warnings: string[];
+  note: (message: string) => void;
+} {
+  const warnings: string[] = [];
+  return {
+    warnings,
+    note: (message) => {
+      warnings.push(message);
+      warn?.(message);
+    },
+  };
+}
