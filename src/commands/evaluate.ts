@@ -115,9 +115,10 @@ async function readLinkRows(file: string): Promise<LinkRow[]> {
 }
 
 export async function evaluate(options: EvalOptions): Promise<EvalResult> {
-  // The KB is not opened when predicted rows are scored.
-  requirePaths("evaluate", options, options.predicted === undefined ? ["kb", "gold"] : ["gold"], [
-    "kb",
+  // The KB is not opened when predicted rows are scored: then it is optional.
+  const scoring = options.predicted !== undefined;
+  requirePaths("evaluate", options, scoring ? ["gold"] : ["kb", "gold"], [
+    ...(scoring ? ["kb"] : []),
     "predicted",
     "config",
     "labels",
