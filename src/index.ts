@@ -13,9 +13,10 @@ export { link, type LinkOptions, type LinkSummary } from "./commands/link.js";
 export { scoredMentionsFor, type TuneCommandOptions, type TuneCommandResult, tune } from "./commands/tune.js";
 
 export { type BuildKbOptions, type BuildSummary, buildKb } from "./kb/build.js";
-export { Kb, type KbInfo, openKb } from "./kb/kb.js";
+export { Kb, type KbInfo, openKb, readKbInfo } from "./kb/kb.js";
 export { readTable } from "./kb/read-table.js";
 export { createLinker, Linker, type LinkerOptions, type ScoredCandidate } from "./link/linker.js";
+export { LinkPool, MAX_JOBS } from "./link/parallel.js";
 export { type CandidateOptions, DEFAULT_CANDIDATE_OPTIONS } from "./candidates/generate.js";
 export { csvRow, jsonlRow } from "./link/write.js";
 export { type ReadMentionsOptions, readMentions } from "./read/index.js";

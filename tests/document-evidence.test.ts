@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { definedAcronyms } from "../src/document/evidence.js";
 import { buildKb } from "../src/kb/build.js";
 import { type Kb, openKb } from "../src/kb/kb.js";
+import { LabelMap } from "../src/labels/label-map.js";
 import { createLinker } from "../src/link/linker.js";
 import type { LinkRow, Mention } from "../src/types.js";
 
@@ -113,6 +114,34 @@ describe("acronyms defined in the document", () => {
     expect(rows[0]!.entity).toBe("F1");
     expect(rows[1]!.entity).toBe("F1");
     expect(codes(rows[1]!)).toContain("doc-acronym");
+  });
+  it("a mention of a label that is not linked takes no part: it stays NIL, and nothing fails", () => {
+    // A user's label that is not linked but leans to a class (compat above zero): the document's
+    // acronym once scored it with no name form to compare and threw a TypeError.
+    const labels = new LabelMap(
+      new Map([
+        [
+          "VESSEL_CODE",
+          {
+            cls: "other" as const,
+            linkable: false,
+            compat: { person: 0, organization: 1, location: 0, other: 1 },
+          },
+        ],
+      ]),
+    );
+    for (const step of ["acronym", "short form", "same text"]) {
+      const second: Mention =
+        step === "acronym"
+          ? { ...doc[1]!, type: "VESSEL_CODE" }
+          : step === "short form"
+            ? { id: "b", doc: "D3", text: "Wend Valley", type: "VESSEL_CODE" }
+            : { ...doc[0]!, id: "b", type: "VESSEL_CODE" };
+      const rows = createLinker(kb, { labels }).linkDocument([doc[0]!, second]);
+      expect(rows[0]!.entity).toBe("F1");
+      expect(rows[1]!.entity).toBeNull();
+      expect(codes(rows[1]!)).toEqual(["not-linkable"]);
+    }
   });
   it("without the step, the acronym stays ambiguous", () => {
     const rows = createLinker(kb, { document: { acronyms: false } }).linkDocument(doc);

@@ -17,6 +17,7 @@ import { PROCEDURE_WORDS, type TuneResult } from "../tune/tune.js";
 import { formatEvalTable } from "../evaluate/format.js";
 import { openKb } from "../kb/kb.js";
 import { createLinker } from "../link/linker.js";
+import { MAX_JOBS } from "../link/parallel.js";
 import { ALL_PATHS } from "../candidates/generate.js";
 import { MARGIN_CAP } from "../decide/decide.js";
 import type { SearchPath } from "../types.js";
@@ -243,6 +244,11 @@ export function program(): Command {
             "jsonl",
             "csv",
           ]),
+        )
+        .option(
+          "--jobs <n>",
+          `threads that link, 1-${MAX_JOBS}; each holds the KB's in-memory store (default 1)`,
+          whole("--jobs", 1),
         ),
     ),
   ).action(async (mentions: string, o: Record<string, unknown>) => {
@@ -255,6 +261,7 @@ export function program(): Command {
       warn: printWarning,
       ...(o.out ? { out: o.out as string } : {}),
       ...(o.to ? { to: o.to as "jsonl" | "csv" } : {}),
+      ...(o.jobs !== undefined ? { jobs: o.jobs as number } : {}),
     });
     err(
       `linked ${s.linked} of ${s.mentions} mentions (${s.nil} NIL) in ${s.seconds.toFixed(2)}s${s.out ? ` -> ${s.out}` : ""}`,

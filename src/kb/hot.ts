@@ -233,6 +233,12 @@ export class HotStoreBuilder {
   }
 }
 
+/**
+ * The hot store's arrays in memory that threads share (array name -> its bytes): the linking
+ * threads of src/link/parallel.ts hold one copy between them instead of one each.
+ */
+export type SharedHotArrays = Map<string, SharedArrayBuffer>;
+
 /** The loaded hot store (see the top of this file). Entity ids index every per-entity array. */
 export class HotStore {
   readonly entities: number;
@@ -259,8 +265,12 @@ export class HotStore {
   /** The KB's hot table, kept for the arrays read on first use. */
   private readonly table: HotTable;
 
-  constructor(db: Database.Database) {
-    const table = new HotTable(db);
+  /**
+   * Loads the store from the KB's hot table. With `shared`, the arrays it holds are used as they
+   * are, and those it lacks are read into shared memory and added to it.
+   */
+  constructor(db: Database.Database, shared?: SharedHotArrays) {
+    const table = new HotTable(db, shared);
     this.table = table;
     const bytes = (name: string) => table.read(name);
     this.cls = new Uint8Array(bytes("cls"));
@@ -286,7 +296,8 @@ export class HotStore {
       tokenStart: new Uint32Array(bytes("nameTokenStart")),
       tokens: table.ids("nameTokens"),
       info: new Uint32Array(bytes("nameInfo")),
-      tails: JSON.parse(new TextDecoder().decode(bytes("nameTails"))) as string[],
+      // Parsed into strings of this thread's own: never shared.
+      tails: JSON.parse(new TextDecoder().decode(new Uint8Array(table.read("nameTails", false)))) as string[],
     };
     this.display = new Display({
       text: new Uint8Array(bytes("displayText")),
@@ -376,7 +387,11 @@ class HotTable {
   private readonly total: Database.Statement<[string], number | null>;
   private readonly parts: Database.Statement<[string], Buffer>;
 
-  constructor(db: Database.Database) {
+  constructor(
+    db: Database.Database,
+    /** Arrays in shared memory (see SharedHotArrays); none: each read makes a private copy. */
+    private readonly shared?: SharedHotArrays,
+  ) {
     this.total = db
       .prepare<[string], number | null>("SELECT sum(length(data)) FROM hot WHERE name = ?")
       .pluck(true);
@@ -391,16 +406,20 @@ class HotTable {
    * transient copies SQLite and the driver make of each BLOB are small too: with parts of 64 MB,
    * those freed copies stayed in the process's resident set.
    */
-  read(name: string): ArrayBuffer {
+  read(name: string, share = true): ArrayBufferLike {
+    const held = share ? this.shared?.get(name) : undefined;
+    if (held !== undefined) return held;
     const total = this.total.get(name) ?? null;
     if (total === null) throw new Error(`hot store: no "${name}" array`);
-    const out = new Uint8Array(total);
+    const sharing = share && this.shared !== undefined;
+    const out = new Uint8Array(sharing ? new SharedArrayBuffer(total) : new ArrayBuffer(total));
     let at = 0;
     for (const b of this.parts.iterate(name)) {
       if (at + b.length > total) throw new Error(`hot store: "${name}" parts do not add up`);
       out.set(b, at);
       at += b.length;
     }
+    if (sharing) this.shared!.set(name, out.buffer as SharedArrayBuffer);
     return out.buffer;
   }
 

@@ -6,7 +6,7 @@ import { existsSync, statSync } from "node:fs";
 import Database from "better-sqlite3";
 import { abbreviates, NORMALIZER_VERSION } from "../normalize/name.js";
 import { ftsWords } from "./postings.js";
-import { HotStore } from "./hot.js";
+import { HotStore, type SharedHotArrays } from "./hot.js";
 import { NameForms, NameStore } from "./names.js";
 import type { EntityClass } from "../types.js";
 import { InputError, UsageError } from "../util/errors.js";
@@ -144,39 +144,14 @@ export class Kb {
   /** Every entity's normalized name forms, in memory (see names.ts). */
   readonly names: NameStore;
 
-  constructor(file: string) {
-    if (typeof file !== "string" || file === "")
-      throw new UsageError(
-        `openKb: the KB file must be a path (a non-empty string), not ${JSON.stringify(file)}`,
-      );
-    if (!existsSync(file))
-      throw new InputError({ file }, "no such KB file (build one with `hawser index TABLE --out KB`)");
-    if (statSync(file).isDirectory())
-      throw new InputError(
-        { file },
-        "is a folder, not a KB file (build one with `hawser index TABLE --out KB`)",
-      );
-    let db: Database.Database | undefined;
-    try {
-      db = new Database(file, { readonly: true, fileMustExist: true });
-      db.pragma("query_only = ON");
-      // Keep the shared (read) lock from the first read until the KB is closed. Otherwise SQLite
-      // takes and drops the file lock and re-reads the file header around every statement, which
-      // cost about 13 us of the 15 us of a cached single-row read. Other readers are not blocked
-      // (they take shared locks too); a rebuild writes a new file and renames it into place.
-      db.pragma("locking_mode = EXCLUSIVE");
-    } catch (e) {
-      db?.close();
-      throw new InputError({ file }, `cannot open as a KB: ${(e as Error).message}`);
-    }
+  /**
+   * Opens a KB file (openKb). With `shared`, the in-memory store's arrays are shared memory
+   * that other threads can use too (see SharedHotArrays in hot.ts).
+   */
+  constructor(file: string, shared?: SharedHotArrays) {
+    const { db, info } = openKbFile(file);
     this.db = db;
-    try {
-      this.info = readInfo(db, file);
-    } catch (e) {
-      // Not a KB, or another version's: the handle is closed now, not whenever the GC finds it.
-      db.close();
-      throw e;
-    }
+    this.info = info;
     try {
       for (const r of db.prepare("SELECT token, df, id FROM vocab").raw(true).iterate() as Iterable<
         [string, number, number]
@@ -196,7 +171,7 @@ export class Kb {
         byId: db.prepare("SELECT eid FROM entities WHERE id = ?"),
         stored: db.prepare("SELECT type, forms, attributes FROM entities WHERE eid = ?"),
       };
-      this.hot = new HotStore(db);
+      this.hot = new HotStore(db, shared);
       if (this.hot.entities !== this.info.entities)
         throw new Error(`hot store holds ${this.hot.entities} entities, meta says ${this.info.entities}`);
       this.names = new NameStore(this.hot.names, this.vocabTokens);
@@ -497,6 +472,54 @@ function searchWords(
 /** An FTS5 string literal: wrapped in double quotes, inner double quotes doubled. */
 export function ftsString(token: string): string {
   return `"${token.replace(/"/g, '""')}"`;
+}
+
+/**
+ * The KB file opened read-only with its metadata checked (a hawser KB of this schema and
+ * normalizer version), else an InputError naming the file; the handle is closed on failure.
+ */
+function openKbFile(file: string): { db: Database.Database; info: KbInfo } {
+  if (typeof file !== "string" || file === "")
+    throw new UsageError(
+      `openKb: the KB file must be a path (a non-empty string), not ${JSON.stringify(file)}`,
+    );
+  if (!existsSync(file))
+    throw new InputError({ file }, "no such KB file (build one with `hawser index TABLE --out KB`)");
+  if (statSync(file).isDirectory())
+    throw new InputError(
+      { file },
+      "is a folder, not a KB file (build one with `hawser index TABLE --out KB`)",
+    );
+  let db: Database.Database | undefined;
+  try {
+    db = new Database(file, { readonly: true, fileMustExist: true });
+    db.pragma("query_only = ON");
+    // Keep the shared (read) lock from the first read until the KB is closed. Otherwise SQLite
+    // takes and drops the file lock and re-reads the file header around every statement, which
+    // cost about 13 us of the 15 us of a cached single-row read. Other readers are not blocked
+    // (they take shared locks too); a rebuild writes a new file and renames it into place.
+    db.pragma("locking_mode = EXCLUSIVE");
+  } catch (e) {
+    db?.close();
+    throw new InputError({ file }, `cannot open as a KB: ${(e as Error).message}`);
+  }
+  try {
+    return { db, info: readInfo(db, file) };
+  } catch (e) {
+    // Not a KB, or another version's: the handle is closed now, not whenever the GC finds it.
+    db.close();
+    throw e;
+  }
+}
+
+/**
+ * A KB file's metadata (counts, versions, fingerprint), checked as openKb checks it, without
+ * loading the KB: for a caller that hands the KB to other threads (src/link/parallel.ts).
+ */
+export function readKbInfo(file: string): KbInfo {
+  const { db, info } = openKbFile(file);
+  db.close();
+  return info;
 }
 
 function readInfo(db: Database.Database, file: string): KbInfo {

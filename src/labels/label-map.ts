@@ -44,9 +44,31 @@ export class LabelMap {
   /** Non-linkable label -> how many mentions carried it. */
   readonly skipped = new Map<string, number>();
 
+  /** The user's own labels, as given (see overrides). */
+  private readonly own: ReadonlyArray<readonly [string, LabelInfo]>;
+
   constructor(overrides?: ReadonlyMap<string, LabelInfo>) {
     this.labels = new Map(BUILTIN_LABELS);
-    if (overrides) for (const [k, v] of overrides) this.labels.set(foldLabel(k), v);
+    this.own = overrides ? [...overrides] : [];
+    for (const [k, v] of this.own) this.labels.set(foldLabel(k), v);
+  }
+
+  /**
+   * The labels given to the constructor over the built-in sets: `new LabelMap(new
+   * Map(map.overrides()))` is the same map with fresh counts (what a linking thread is given,
+   * src/link/parallel.ts).
+   */
+  overrides(): Array<[string, LabelInfo]> {
+    return this.own.map(([k, v]) => [k, v]);
+  }
+
+  /**
+   * Add another map's counts of unknown and non-linkable labels to this one's, in their order
+   * (a linking thread's counts, src/link/parallel.ts).
+   */
+  addCounts(unknown: Iterable<[string, number]>, skipped: Iterable<[string, number]>): void {
+    for (const [label, n] of unknown) this.unknown.set(label, (this.unknown.get(label) ?? 0) + n);
+    for (const [label, n] of skipped) this.skipped.set(label, (this.skipped.get(label) ?? 0) + n);
   }
 
   /** The info for a label, or null when the label is unknown (also counted). */

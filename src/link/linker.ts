@@ -72,6 +72,7 @@ import { type KindWords, KindValues, kindWordsOf } from "./kind-values.js";
 import { separatesEntries } from "./separating-words.js";
 import { decisionReason, evidenceReasons } from "./explain.js";
 import { type Surface, SurfaceCache } from "./surface-cache.js";
+import { checkMentionSource, isDocumentUnit, type MentionUnit, mentionUnits } from "./units.js";
 
 export interface LinkerOptions {
   /** Feature weights of the score combination. Default: DEFAULT_WEIGHTS (src/score/combine.ts). */
@@ -109,15 +110,7 @@ export interface LinkerOptions {
   surfaceCache?: number | undefined;
 }
 
-/**
- * Most mentions of one document held back for document-level evidence; a longer run of one
- * document is decided in slices of this size, so memory stays bounded whatever the input.
- */
-export const MAX_DOCUMENT_MENTIONS = 5000;
-
 export const DEFAULT_TOP = 3;
-/** Mentions linkAll links between two returns to the event loop (a few milliseconds of work). */
-const MENTIONS_PER_LOOP_TURN = 64;
 export const DEFAULT_SURFACE_CACHE = 1024;
 /**
  * Weight budget of the surface cache (pool members held, see SurfaceCache) per surface it may
@@ -609,19 +602,24 @@ export class Linker {
     if (mentions.length < 2 || !(steps.sameText || steps.shortForm || steps.acronyms)) {
       return analyses.map((a) => this.rowFor(a));
     }
-    const items: DocItem[] = analyses.map((a) => {
-      const form = a.p.forms.find((f) => f.cls === a.p.info.cls) ?? a.p.forms[0];
+    // A mention with no form to compare (a label not linked, or compatible with no class) is NIL
+    // whatever the document says: it takes no part in the evidence, lending or receiving.
+    const taking = analyses.flatMap((a, i) => (a.p.forms.length > 0 ? [i] : []));
+    const items: DocItem[] = taking.map((i) => {
+      const a = analyses[i]!;
+      const form = a.p.forms.find((f) => f.cls === a.p.info.cls) ?? a.p.forms[0]!;
       return {
         mention: a.p.mention,
-        key: form?.norm.key ?? "",
-        cls: form?.cls ?? "",
-        tokens: form?.norm.tokens ?? [],
+        key: form.norm.key,
+        cls: form.cls,
+        tokens: form.norm.tokens,
         scored: a.scored,
         chosen: a.decision.outcome === "link" ? a.scored[a.decision.chosen]! : null,
-        scoreEntity: (e: EntityRow) => this.scoreOne(a.p, e, form?.cls ?? e.cls, new Set(["document"])),
+        scoreEntity: (e: EntityRow) => this.scoreOne(a.p, e, form.cls, new Set(["document"])),
       };
     });
-    const overrides = documentEvidence(items, steps, this.config);
+    const overrides = new Map<number, DocOverride>();
+    for (const [k, o] of documentEvidence(items, steps, this.config)) overrides.set(taking[k]!, o);
     return analyses.map((a, i) => this.rowFor(a, overrides.get(i)));
   }
 
@@ -673,46 +671,13 @@ export class Linker {
    * mentions without a `doc` are linked alone. Memory is bounded by one document.
    */
   async *linkAll(mentions: Iterable<Mention> | AsyncIterable<Mention>): AsyncGenerator<LinkRow> {
-    const source = mentions as Partial<Iterable<Mention> & AsyncIterable<Mention>> | null | undefined;
-    if (
-      typeof source?.[Symbol.iterator] !== "function" &&
-      typeof source?.[Symbol.asyncIterator] !== "function"
-    )
-      throw new UsageError(
-        `linkAll needs an iterable or async iterable of mentions (an array, a generator, a stream), got ${String(mentions)}`,
-      );
-    let doc: string | undefined;
-    let batch: Mention[] = [];
-    let seen = 0;
-    try {
-      for await (const m of mentions) {
-        if (typeof m !== "object" || m === null) checkMention(m); // throws a UsageError naming it
-        // An array links without ever returning to the event loop otherwise: timers, I/O and
-        // signal handlers of the caller would wait for the whole of it.
-        if (++seen % MENTIONS_PER_LOOP_TURN === 0) await new Promise((resolve) => setImmediate(resolve));
-        if (
-          batch.length > 0 &&
-          (m.doc === undefined || m.doc !== doc || batch.length >= MAX_DOCUMENT_MENTIONS)
-        ) {
-          // Handed over before it is linked: a failure there is not the source's (see below).
-          const whole = batch;
-          batch = [];
-          yield* this.linkDocument(whole);
-        }
-        if (m.doc === undefined) {
-          yield this.link(m);
-          continue;
-        }
-        doc = m.doc;
-        batch.push(m);
-      }
-    } catch (error) {
-      // The source failed (a bad line): the mentions of the document under way that came before
-      // it still get their rows, decided over the part of the document that was read.
-      if (batch.length > 0) yield* this.linkDocument(batch);
-      throw error;
-    }
-    if (batch.length > 0) yield* this.linkDocument(batch);
+    checkMentionSource("linkAll", mentions);
+    for await (const unit of mentionUnits(mentions)) yield* this.linkUnit(unit);
+  }
+
+  /** Link one unit of mentionUnits (src/link/units.ts): a mention alone, or one document's run. */
+  linkUnit(unit: MentionUnit): LinkRow[] {
+    return isDocumentUnit(unit) ? this.linkDocument(unit) : unit.map((m) => this.link(m));
   }
 
   private rowFor(a: Analysis, override?: DocOverride): LinkRow {

@@ -23,6 +23,8 @@ export class InputError extends Error {
   readonly file: string;
   readonly line: number | undefined;
   readonly field: string | undefined;
+  /** What is wrong, without the location (the message is the two together). */
+  readonly problem: string;
 
   constructor(location: InputLocation, problem: string) {
     const file = fileShown(location.file);
@@ -33,6 +35,7 @@ export class InputError extends Error {
     this.file = location.file;
     this.line = location.line;
     this.field = location.field;
+    this.problem = problem;
   }
 }
 
@@ -102,8 +105,54 @@ export function requireCallback(call: string, name: string, v: unknown): void {
  * of the input or of hawser. The command line exits 74 (EX_IOERR of sysexits.h) on it.
  */
 export class OutputError extends Error {
+  readonly target: string;
+  readonly causeMessage: string;
+
   constructor(target: string, cause: Error) {
     super(`cannot write ${target}: ${cause.message}`);
     this.name = "OutputError";
+    this.target = target;
+    this.causeMessage = cause.message;
   }
+}
+
+/**
+ * An error as it crosses from one thread to another (structured cloning keeps an Error's message
+ * but not its class, which the command line's exit status and callers' `instanceof` go by).
+ */
+export interface ErrorMessage {
+  name: string;
+  message: string;
+  stack?: string | undefined;
+  location?: InputLocation | undefined;
+  problem?: string | undefined;
+  target?: string | undefined;
+}
+
+/** `e` as another thread can rebuild it (errorFromMessage). */
+export function errorToMessage(e: unknown): ErrorMessage {
+  if (e instanceof InputError)
+    return {
+      name: e.name,
+      message: e.message,
+      location: { file: e.file, line: e.line, field: e.field },
+      problem: e.problem,
+    };
+  if (e instanceof OutputError)
+    return { name: e.name, message: e.message, target: e.target, problem: e.causeMessage };
+  if (e instanceof Error) return { name: e.name, message: e.message, stack: e.stack };
+  return { name: "Error", message: String(e) };
+}
+
+/** The error errorToMessage sent: hawser's own classes again, other errors as plain Errors. */
+export function errorFromMessage(m: ErrorMessage): Error {
+  if (m.name === "InputError" && m.location !== undefined && m.problem !== undefined)
+    return new InputError(m.location, m.problem);
+  if (m.name === "UsageError") return new UsageError(m.message);
+  if (m.name === "OutputError" && m.target !== undefined && m.problem !== undefined)
+    return new OutputError(m.target, new Error(m.problem));
+  const e = new Error(m.message);
+  e.name = m.name;
+  if (m.stack !== undefined) e.stack = m.stack;
+  return e;
 }

@@ -1,0 +1,45 @@
+/**
+ * A linking thread of the worker pool (src/link/parallel.ts): opens the KB, makes a linker with
+ * the pool's options, then links the batches of units it is sent, replying with their rows in
+ * the order they came. Replies: `ready` once the linker is made (with the KB's in-memory store,
+ * shared), `rows` per batch (with the
+ * batch's counts of unknown and non-linkable labels), `failed` with the error of the opening or
+ * of a batch.
+ */
+import { parentPort, workerData } from "node:worker_threads";
+import { Kb } from "../kb/kb.js";
+import type { SharedHotArrays } from "../kb/hot.js";
+import { LabelMap } from "../labels/label-map.js";
+import { errorToMessage } from "../util/errors.js";
+import { createLinker, type Linker } from "./linker.js";
+import type { WorkerReply, WorkerRequest, WorkerSetup } from "./parallel.js";
+
+const port = parentPort;
+if (port === null) throw new Error("link-worker.js runs as a worker thread of src/link/parallel.ts");
+const reply = (m: WorkerReply) => port.postMessage(m);
+
+const setup = workerData as WorkerSetup;
+let linker: Linker | undefined;
+try {
+  const labels = new LabelMap(new Map(setup.labels));
+  // The first thread loads the in-memory store into shared memory; the others are given it.
+  const shared: SharedHotArrays = setup.shared ?? new Map();
+  linker = createLinker(new Kb(setup.kb, shared), { ...setup.options, labels });
+  reply({ kind: "ready", shared });
+} catch (e) {
+  reply({ kind: "failed", error: errorToMessage(e) });
+}
+
+port.on("message", (request: WorkerRequest) => {
+  if (linker === undefined) return;
+  try {
+    const rows = request.units.flatMap((unit) => linker.linkUnit(unit));
+    const { unknown, skipped } = linker.labels;
+    reply({ kind: "rows", seq: request.seq, rows, unknown: [...unknown], skipped: [...skipped] });
+    // Counts go with each batch, so the pool adds them up in the input's order.
+    unknown.clear();
+    skipped.clear();
+  } catch (e) {
+    reply({ kind: "failed", seq: request.seq, error: errorToMessage(e) });
+  }
+});

@@ -1,0 +1,299 @@
+/**
+ * Linking on several threads: a pool of worker threads (src/link/link-worker.ts), each with the
+ * KB open and a linker of the same options. The main thread reads the mentions, cuts them into
+ * the units linkAll links (src/link/units.ts), sends batches of units to the threads, and gives
+ * the rows back in input order: the rows are those of Linker.linkAll on one thread, byte for
+ * byte (tests/parallel.test.ts).
+ *
+ * The first thread loads the KB's in-memory store (about 210 MB at a million entities, see
+ * src/kb/hot.ts) into shared memory and the others use it; each thread keeps its own SQLite
+ * connection, caches and vocabulary map (about 100 MB more at a million entities).
+ */
+import { existsSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
+import type { SharedHotArrays } from "../kb/hot.js";
+import type { LabelInfo } from "../labels/builtin.js";
+import { LabelMap } from "../labels/label-map.js";
+import type { LinkRow, Mention } from "../types.js";
+import { checkWhole, type ErrorMessage, errorFromMessage, UsageError } from "../util/errors.js";
+import type { LinkerOptions } from "./linker.js";
+import { checkMentionSource, type MentionUnit, mentionUnits } from "./units.js";
+
+/** Most threads a pool runs (each holds a copy of the KB's in-memory store). */
+export const MAX_JOBS = 64;
+/**
+ * Mentions sent to a thread at a time (whole units: one document's run may make a batch
+ * longer). Large enough that messaging costs little beside linking (a few hundred microseconds a
+ * mention at a million entities), small enough that the first rows come soon and few wait.
+ */
+const BATCH_MENTIONS = 256;
+/** Batches sent to a thread and not yet answered: one being linked, one queued behind it. */
+const BATCHES_IN_FLIGHT = 2;
+
+/** What a linking thread is started with (workerData). */
+export interface WorkerSetup {
+  kb: string;
+  /** The linker's options without the label map (a class instance does not cross threads). */
+  options: Omit<LinkerOptions, "labels">;
+  /** The label map's own labels over the built-in sets (LabelMap.overrides). */
+  labels: Array<[string, LabelInfo]>;
+  /** The in-memory store loaded by the first thread; null for the first thread itself. */
+  shared: SharedHotArrays | null;
+}
+
+/** A batch sent to a thread. */
+export interface WorkerRequest {
+  seq: number;
+  units: MentionUnit[];
+}
+
+/** What a thread answers. */
+export type WorkerReply =
+  | { kind: "ready"; shared: SharedHotArrays }
+  | {
+      kind: "rows";
+      seq: number;
+      rows: LinkRow[];
+      unknown: Array<[string, number]>;
+      skipped: Array<[string, number]>;
+    }
+  | { kind: "failed"; seq?: number; error: ErrorMessage };
+
+/** The compiled worker script (tests running TypeScript sources use the build's). */
+function workerScript(): URL {
+  const own = new URL("./link-worker.js", import.meta.url);
+  if (existsSync(fileURLToPath(own))) return own;
+  const built = new URL("../../dist/link/link-worker.js", import.meta.url);
+  if (existsSync(fileURLToPath(built))) return built;
+  throw new Error(`the linking thread's script is missing (${fileURLToPath(own)}): run \`npm run build\``);
+}
+
+interface Waiting {
+  seq: number;
+  resolve: (rows: LinkRow[]) => void;
+  reject: (e: Error) => void;
+}
+
+/** One thread and the batches it has not answered yet, oldest first (it answers in order). */
+class Thread {
+  readonly waiting: Waiting[] = [];
+  /** Set when the thread failed outside a batch or stopped: every later batch fails with it. */
+  broken: Error | null = null;
+
+  constructor(
+    readonly worker: Worker,
+    private readonly labels: LabelMap,
+  ) {
+    worker.on("message", (m: WorkerReply) => this.answer(m));
+    worker.on("error", (e) => this.fail(e));
+    worker.on("exit", (code) => this.fail(new Error(`a linking thread stopped (exit code ${code})`)));
+    // An idle thread does not hold the process open (a caller who forgets close() still exits).
+    worker.unref();
+  }
+
+  private answer(m: WorkerReply): void {
+    if (m.kind === "ready") return;
+    const w = this.waiting.shift();
+    if (this.waiting.length === 0) this.worker.unref();
+    if (w === undefined) return;
+    if (m.kind === "rows") {
+      w.resolve(m.rows);
+      this.labels.addCounts(m.unknown, m.skipped);
+    } else w.reject(errorFromMessage(m.error));
+  }
+
+  private fail(e: Error): void {
+    this.broken ??= e;
+    for (const w of this.waiting.splice(0)) w.reject(e);
+    this.worker.unref();
+  }
+
+  send(seq: number, units: MentionUnit[]): Promise<LinkRow[]> {
+    if (this.broken !== null) return Promise.reject(this.broken);
+    const rows = new Promise<LinkRow[]>((resolve, reject) => {
+      this.waiting.push({ seq, resolve, reject });
+    });
+    // Kept alive while it owes answers; idle threads do not hold the process open.
+    this.worker.ref();
+    this.worker.postMessage({ seq, units } satisfies WorkerRequest);
+    return rows;
+  }
+}
+
+/**
+ * Consecutive units gathered into batches of at least `size` mentions (the last may be
+ * shorter). When the source fails, the batch under way is given first, then the failure.
+ */
+async function* batchesOf(units: AsyncIterable<MentionUnit>, size: number): AsyncGenerator<MentionUnit[]> {
+  let batch: MentionUnit[] = [];
+  let mentions = 0;
+  try {
+    for await (const unit of units) {
+      batch.push(unit);
+      mentions += unit.length;
+      if (mentions >= size) {
+        const full = batch;
+        batch = [];
+        mentions = 0;
+        yield full;
+      }
+    }
+  } catch (error) {
+    if (batch.length > 0) yield batch;
+    throw error;
+  }
+  if (batch.length > 0) yield batch;
+}
+
+/**
+ * Threads that link mentions (see the top of this file). Start one with `LinkPool.start`, link
+ * with `linkAll` (as often as needed), and `close` it when done.
+ */
+export class LinkPool {
+  private readonly threads: Thread[];
+  private nextSeq = 0;
+  private closed = false;
+
+  private constructor(
+    workers: Worker[],
+    /** The label map, counting the unknown and non-linkable labels of every thread's mentions. */
+    readonly labels: LabelMap,
+  ) {
+    this.threads = workers.map((w) => new Thread(w, labels));
+  }
+
+  /** Number of threads. */
+  get jobs(): number {
+    return this.threads.length;
+  }
+
+  /**
+   * Start `jobs` threads, each opening `kb` and making a linker with `options`; resolves when all
+   * are ready. Opening errors (not a KB, bad options) are thrown as openKb and createLinker throw
+   * them, and no thread is left running.
+   */
+  static async start(kb: string, options: LinkerOptions, jobs: number): Promise<LinkPool> {
+    checkWhole("jobs", jobs, 1, MAX_JOBS);
+    if (typeof kb !== "string" || kb === "")
+      throw new UsageError(`LinkPool.start needs the KB's file name, got ${JSON.stringify(kb)}`);
+    const { labels, ...rest } = options;
+    if (labels !== undefined && !(labels instanceof LabelMap))
+      throw new UsageError("labels must be a LabelMap (readLabelMapFile reads one from a file)");
+    const labelMap = labels ?? new LabelMap();
+    const setup: WorkerSetup = { kb, options: rest, labels: labelMap.overrides(), shared: null };
+    const script = workerScript();
+    const workers: Worker[] = [];
+    const startOne = (shared: SharedHotArrays | null) => {
+      try {
+        const w = new Worker(script, { workerData: { ...setup, shared } });
+        workers.push(w);
+        return ready(w);
+      } catch (e) {
+        if ((e as Error).name === "DataCloneError")
+          throw new UsageError(
+            `linker options must be plain data to be sent to linking threads: ${(e as Error).message}`,
+          );
+        throw e;
+      }
+    };
+    try {
+      // The first loads the store into shared memory, then the others start on it together.
+      const shared = await startOne(null);
+      const rest: Array<Promise<SharedHotArrays>> = [];
+      for (let i = 1; i < jobs; i++) rest.push(startOne(shared));
+      await Promise.all(rest);
+    } catch (e) {
+      await Promise.all(workers.map((w) => w.terminate()));
+      throw e;
+    }
+    return new LinkPool(workers, labelMap);
+  }
+
+  /**
+   * Link a stream of mentions, in order, one row each, as Linker.linkAll does (the same rows).
+   * When the source fails (a bad line), the rows of the mentions read before it are given, then
+   * the failure is thrown.
+   */
+  async *linkAll(mentions: Iterable<Mention> | AsyncIterable<Mention>): AsyncGenerator<LinkRow> {
+    if (this.closed) throw new UsageError("this linking pool is closed");
+    checkMentionSource("linkAll", mentions);
+    const batches = batchesOf(mentionUnits(mentions), BATCH_MENTIONS);
+    /** Batches sent, oldest first: their rows are given in this order. */
+    const sent: Array<Promise<LinkRow[]>> = [];
+    let ended = false;
+    let sourceFailure: { error: unknown } | null = null;
+    const fill = async () => {
+      while (!ended && sent.length < this.threads.length * BATCHES_IN_FLIGHT) {
+        let next: IteratorResult<MentionUnit[]>;
+        try {
+          next = await batches.next();
+        } catch (error) {
+          sourceFailure = { error };
+          ended = true;
+          return;
+        }
+        if (next.done) {
+          ended = true;
+          return;
+        }
+        const rows = this.leastBusy().send(this.nextSeq++, next.value);
+        // Awaited in turn below; until then a failure must not count as unhandled.
+        rows.catch(() => {});
+        sent.push(rows);
+      }
+    };
+    try {
+      await fill();
+      while (sent.length > 0) {
+        const rows = await sent.shift()!;
+        await fill();
+        yield* rows;
+      }
+      if (sourceFailure !== null) throw (sourceFailure as { error: unknown }).error;
+    } finally {
+      // Stopped early (the caller broke off, or a batch failed): the source is closed; batches
+      // still out are answered into the void.
+      if (!ended) await batches.return(undefined);
+    }
+  }
+
+  private leastBusy(): Thread {
+    let best = this.threads[0]!;
+    for (const t of this.threads) if (t.waiting.length < best.waiting.length) best = t;
+    return best;
+  }
+
+  /** Stop the threads. */
+  async close(): Promise<void> {
+    if (this.closed) return;
+    this.closed = true;
+    await Promise.all(this.threads.map((t) => t.worker.terminate()));
+  }
+}
+
+/** Resolves with the shared store when the thread says it is ready; rejects with its opening error. */
+function ready(worker: Worker): Promise<SharedHotArrays> {
+  let shared: SharedHotArrays = new Map();
+  return new Promise((resolve, reject) => {
+    const onMessage = (m: WorkerReply) => {
+      if (m.kind === "ready") {
+        shared = m.shared;
+        done(null);
+      } else if (m.kind === "failed") done(errorFromMessage(m.error));
+    };
+    const onError = (e: Error) => done(e);
+    const onExit = (code: number) =>
+      done(new Error(`a linking thread stopped while opening (exit code ${code})`));
+    const done = (e: Error | null) => {
+      worker.off("message", onMessage);
+      worker.off("error", onError);
+      worker.off("exit", onExit);
+      if (e === null) resolve(shared);
+      else reject(e);
+    };
+    worker.on("message", onMessage);
+    worker.on("error", onError);
+    worker.on("exit", onExit);
+  });
+}

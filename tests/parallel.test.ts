@@ -1,0 +1,216 @@
+/**
+ * Linking on several threads (src/link/parallel.ts): the rows, warnings and failures are those
+ * of one thread, on the bundled sample archive (whose mentions come in documents, so document
+ * units cross batch bounds) and on streams made to cut documents and batches awkwardly.
+ * The threads run the build's worker script (dist/link/link-worker.js), as the CLI tests do.
+ */
+import { readFileSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { Writable } from "node:stream";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { link } from "../src/commands/link.js";
+import { SAMPLES_DIR } from "../src/commands/demo.js";
+import { buildKb } from "../src/kb/build.js";
+import { type Kb, openKb } from "../src/kb/kb.js";
+import { LabelMap } from "../src/labels/label-map.js";
+import { createLinker } from "../src/link/linker.js";
+import { LinkPool } from "../src/link/parallel.js";
+import type { LinkRow, Mention } from "../src/types.js";
+import { InputError, UsageError } from "../src/util/errors.js";
+import { hawser, requireBuiltCli } from "./helpers/cli.js";
+import { tempDir } from "./helpers/gazette.js";
+import { collect, failure } from "./helpers/streams.js";
+
+let t: ReturnType<typeof tempDir>;
+let kbFile: string;
+let kb: Kb;
+let mentions: Mention[];
+const mentionsFile = join(SAMPLES_DIR, "gazette-mentions.jsonl");
+
+beforeAll(async () => {
+  requireBuiltCli();
+  t = tempDir("hawser-parallel-");
+  kbFile = t.file("kb.sqlite");
+  await buildKb({ table: join(SAMPLES_DIR, "gazette-entities.csv"), out: kbFile });
+  kb = openKb(kbFile);
+  mentions = readFileSync(mentionsFile, "utf8")
+    .trim()
+    .split("\n")
+    .map((l) => JSON.parse(l) as Mention);
+});
+afterAll(() => {
+  kb.close();
+  t.cleanup();
+});
+
+/** A stream with documents longer than a batch (256), short ones, and mentions without a doc. */
+function awkwardStream(): Mention[] {
+  const out: Mention[] = [];
+  let n = 0;
+  const take = (doc: string | undefined, count: number) => {
+    for (let i = 0; i < count; i++) {
+      const m = mentions[n++ % mentions.length]!;
+      const { doc: _doc, ...rest } = m;
+      out.push({ ...rest, id: `x${out.length}`, ...(doc !== undefined ? { doc } : {}) });
+    }
+  };
+  take("long", 600);
+  take(undefined, 3);
+  take("short", 2);
+  take("long", 5); // the same doc again after others: a unit of its own
+  take(undefined, 300);
+  take("tail", 1);
+  return out;
+}
+
+describe("a pool of linking threads", () => {
+  it("gives the rows of one thread, in input order, for any number of threads", async () => {
+    const one = await collect(createLinker(kb).linkAll(mentions));
+    const awkward = awkwardStream();
+    const oneAwkward = await collect(createLinker(kb).linkAll(awkward));
+    expect(oneAwkward.filter((r) => r.reasons.some((x) => x.code.startsWith("doc-"))).length).toBeGreaterThan(
+      0,
+    );
+    for (const jobs of [1, 2, 3]) {
+      const pool = await LinkPool.start(kbFile, {}, jobs);
+      try {
+        expect(pool.jobs).toBe(jobs);
+        expect(await collect(pool.linkAll(mentions))).toEqual(one);
+        expect(await collect(pool.linkAll(awkward))).toEqual(oneAwkward);
+      } finally {
+        await pool.close();
+      }
+    }
+  });
+
+  it("passes its options to every thread (threshold, top, labels) and adds up label counts in order", async () => {
+    const labels = () =>
+      new LabelMap(
+        new Map([
+          [
+            "SHIP",
+            {
+              cls: "other" as const,
+              linkable: false,
+              compat: { person: 0, organization: 0, location: 0, other: 1 },
+            },
+          ],
+        ]),
+      );
+    const odd = mentions.slice(0, 700).map((m, i) => ({
+      ...m,
+      type: i % 97 === 5 ? "WEIRD" : i % 89 === 3 ? "ODD" : i % 50 === 0 ? "SHIP" : m.type,
+    }));
+    const options = { threshold: 0.8, top: 1, maxCandidates: 5 };
+    const linker = createLinker(kb, { ...options, labels: labels() });
+    const want = await collect(linker.linkAll(odd));
+    const pool = await LinkPool.start(kbFile, { ...options, labels: labels() }, 2);
+    try {
+      expect(await collect(pool.linkAll(odd))).toEqual(want);
+      expect(pool.labels.warnings()).toEqual(linker.labels.warnings());
+      // WEIRD and ODD unknown, SHIP not linkable.
+      expect(pool.labels.warnings().length).toBe(3);
+    } finally {
+      await pool.close();
+    }
+    expect(want.every((r) => r.candidates.length <= 1)).toBe(true);
+  });
+
+  it("gives the rows read before a failing source, then its error", async () => {
+    async function* failing(): AsyncGenerator<Mention> {
+      yield* mentions.slice(0, 300);
+      throw new InputError({ file: "m.jsonl", line: 301 }, "not JSON");
+    }
+    const pool = await LinkPool.start(kbFile, {}, 2);
+    try {
+      const rows: LinkRow[] = [];
+      const error = await failure(
+        (async function* () {
+          for await (const r of pool.linkAll(failing())) {
+            rows.push(r);
+            yield r;
+          }
+        })(),
+      );
+      expect(error).toBeInstanceOf(InputError);
+      expect(error.message).toBe("m.jsonl:301: not JSON");
+      const linker = createLinker(kb);
+      const sequential: LinkRow[] = [];
+      await failure(
+        (async function* () {
+          for await (const r of linker.linkAll(failing())) {
+            sequential.push(r);
+            yield r;
+          }
+        })(),
+      );
+      expect(rows).toEqual(sequential);
+      expect(rows.length).toBe(300);
+      // Broken off part way, the pool links the next stream whole.
+      for await (const _ of pool.linkAll(mentions)) break;
+      expect(await collect(pool.linkAll(mentions.slice(0, 50)))).toEqual(
+        await collect(createLinker(kb).linkAll(mentions.slice(0, 50))),
+      );
+    } finally {
+      await pool.close();
+    }
+    await expect(collect(pool.linkAll(mentions))).rejects.toThrow(UsageError);
+  });
+
+  it("refuses a bad number of threads, and passes a thread's opening error on with its class", async () => {
+    for (const jobs of [0, 1.5, 65, Number.NaN])
+      await expect(LinkPool.start(kbFile, {}, jobs)).rejects.toThrow(UsageError);
+    const notKb = t.file("not.kb");
+    writeFileSync(notKb, "{}\n");
+    const e = await LinkPool.start(notKb, {}, 2).catch((x: unknown) => x as Error);
+    expect(e).toBeInstanceOf(InputError);
+    expect((e as Error).message).toBe(`${notKb}: not a hawser KB file`);
+    await expect(LinkPool.start(kbFile, { threshold: 2 } as never, 2)).rejects.toThrow(UsageError);
+    await expect(LinkPool.start(kbFile, { treshold: 0.2 } as never, 2)).rejects.toThrow(/treshold/);
+  });
+});
+
+describe("link with jobs", () => {
+  it("writes the file one thread writes, with the same summary", async () => {
+    const a = await link({ kb: kbFile, mentions: mentionsFile, out: t.file("a.jsonl") });
+    const b = await link({ kb: kbFile, mentions: mentionsFile, out: t.file("b.jsonl"), jobs: 2 });
+    expect(readFileSync(t.file("b.jsonl"), "utf8")).toBe(readFileSync(t.file("a.jsonl"), "utf8"));
+    expect({ ...b, seconds: 0, out: null }).toEqual({ ...a, seconds: 0, out: null });
+    const c = await link({ kb: kbFile, mentions: mentionsFile, out: t.file("c.csv"), jobs: 3 });
+    await link({ kb: kbFile, mentions: mentionsFile, out: t.file("d.csv") });
+    expect(readFileSync(t.file("c.csv"), "utf8")).toBe(readFileSync(t.file("d.csv"), "utf8"));
+    expect(c.mentions).toBe(mentions.length);
+  });
+
+  it("fails on a bad line with its location and writes no file; stdout gets the rows before it", async () => {
+    const lines = readFileSync(mentionsFile, "utf8").trim().split("\n");
+    const bad = t.file("bad.jsonl");
+    writeFileSync(bad, `${[...lines.slice(0, 400), "{not json", ...lines.slice(400)].join("\n")}\n`);
+    const out = t.file("bad-out.jsonl");
+    await expect(link({ kb: kbFile, mentions: bad, out, jobs: 2 })).rejects.toThrow(/bad\.jsonl:401/);
+    expect(() => readFileSync(out)).toThrow(/ENOENT/);
+    const written: string[] = [];
+    const sink = new Writable({
+      write(chunk, _encoding, done) {
+        written.push(String(chunk));
+        done();
+      },
+    });
+    await expect(link({ kb: kbFile, mentions: bad, stdout: sink, jobs: 2 })).rejects.toThrow(InputError);
+    const rows = written.join("").trim().split("\n");
+    expect(rows.length).toBe(400);
+    expect(rows).toEqual(readFileSync(t.file("a.jsonl"), "utf8").trim().split("\n").slice(0, 400));
+  });
+
+  it("refuses jobs out of range; the command line takes --jobs", async () => {
+    await expect(link({ kb: kbFile, mentions: mentionsFile, jobs: 0 })).rejects.toThrow(
+      "link: jobs must be a whole number in [1, 64], got 0",
+    );
+    const r = hawser(["link", "--kb", kbFile, mentionsFile, "--jobs", "2", "--out", "cli.jsonl"], t.dir);
+    expect(r.status).toBe(0);
+    expect(readFileSync(t.file("cli.jsonl"), "utf8")).toBe(readFileSync(t.file("a.jsonl"), "utf8"));
+    const zero = hawser(["link", "--kb", kbFile, mentionsFile, "--jobs", "0"], t.dir);
+    expect(zero.status).toBe(2);
+    expect(zero.stderr).toMatch(/--jobs must be a whole number >= 1/);
+  });
+});
