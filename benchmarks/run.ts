@@ -5,18 +5,23 @@
  *
  *   npm run bench -- --entities N [--mentions M] [--brute-sample S] [--keep DIR]
  *
- * Each phase (generate, build, link, brute) runs in its own child process, so the peak resident
+ * With --jobs J (default 2), the mentions are linked once more by a pool of J threads
+ * (src/link/parallel.ts), whose rows must be those of one thread (`sameRowsAsOneThread`).
+ *
+ * Each phase (generate, build, link, threads, brute) runs in its own child process, so the peak resident
  * set size of a phase is not inflated by what an earlier phase left on the heap.
  */
 
 import { spawnSync } from "node:child_process";
+import { createHash, type Hash } from "node:crypto";
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { Command } from "commander";
 import { DEFAULT_CANDIDATE_OPTIONS } from "../src/candidates/generate.js";
-import { buildKb, createLinker, openKb } from "../src/index.js";
+import { buildKb, createLinker, LinkPool, openKb } from "../src/index.js";
+import type { LinkRow } from "../src/types.js";
 import {
   DEFAULT_SEED,
   GENERATOR_VERSION,
@@ -57,12 +62,14 @@ const PROGRESS_STEPS = 10;
 const CHILD_MAX_BUFFER = 16 * 1024 * 1024;
 /** Bytes in a mebibyte. */
 const MIB = 1024 * 1024;
+/** Default number of threads of the pool phase (this machine has two cores); 0 skips the phase. */
+const DEFAULT_JOBS = 2;
 /** KB file name inside the data folder. */
 const KB_FILE = "bench.kb";
 /** The simple baseline's SQLite file inside the data folder (see simple-baseline.ts). */
 const SIMPLE_FILE = "simple.sqlite";
 
-type Phase = "generate" | "build" | "link" | "brute" | "simple";
+type Phase = "generate" | "build" | "link" | "threads" | "brute" | "simple";
 
 /** Everything a phase needs; passed to the child as JSON. */
 interface RunConfig {
@@ -78,6 +85,8 @@ interface RunConfig {
   seed: number;
   /** Candidates scored per mention (the linker's maxCandidates; also brute force's top k). */
   maxCandidates: number;
+  /** Threads of the pool phase; 0 skips it. */
+  jobs: number;
   /** Folder holding the generated files and the KB. */
   dataDir: string;
 }
@@ -193,14 +202,20 @@ function phaseLink(cfg: RunConfig): void {
 
   const quality = new QualityCounter();
   const step = Math.max(1, Math.round(inputs.length / PROGRESS_STEPS));
+  // The rows' digest, for the pool phase to compare with; its time is taken off the linking time.
+  const digest = createHash("sha256");
+  let digestNs = 0n;
   const started = process.hrtime.bigint();
   for (let i = 0; i < inputs.length; i++) {
     const row = linker.link(inputs[i]!);
+    const d = process.hrtime.bigint();
+    addRow(digest, row);
+    digestNs += process.hrtime.bigint() - d;
     quality.add(mentions[i]!.gold, row);
     if (i % CHECKPOINT_EVERY === 0) sampler.checkpoint();
     if ((i + 1) % step === 0) progress(`link ${i + 1}/${inputs.length}`);
   }
-  const linkSeconds = seconds(started);
+  const linkSeconds = seconds(started) - Number(digestNs) / 1e9;
 
   const completeness = new CompletenessCounter();
   for (let i = 0; i < inputs.length; i++) {
@@ -220,6 +235,7 @@ function phaseLink(cfg: RunConfig): void {
     target: TARGETS.linkMentionsPerSecond,
     targetAtEntities: TARGETS.atEntities,
     meetsTarget: mentionsPerSecond >= TARGETS.linkMentionsPerSecond,
+    rowsSha256: digest.digest("hex"),
   });
   emit({
     measure: "pairs-completeness",
@@ -236,6 +252,56 @@ function phaseLink(cfg: RunConfig): void {
   });
   emit(rssLine("link", sampler));
   kb.close();
+}
+
+/** A row into a digest of rows (one JSON line each, as `hawser link` writes them). */
+function addRow(digest: Hash, row: LinkRow): void {
+  digest.update(JSON.stringify(row));
+  digest.update("\n");
+}
+
+/**
+ * The same mentions linked by a pool of cfg.jobs threads (src/link/parallel.ts), timed the same
+ * way (the first WARMUP_MENTIONS once untimed); the time to start the pool (every thread opening
+ * the KB) is reported apart. Peak RSS is the whole process's: every thread's.
+ */
+async function phaseThreads(cfg: RunConfig): Promise<void> {
+  const inputs = readLabeled(join(cfg.dataDir, MENTIONS_FILE)).map(unlabeled);
+  collectGarbage();
+  const sampler = new RssSampler().start();
+  const opening = process.hrtime.bigint();
+  const pool = await LinkPool.start(
+    join(cfg.dataDir, KB_FILE),
+    { maxCandidates: cfg.maxCandidates },
+    cfg.jobs,
+  );
+  const startSeconds = seconds(opening);
+  try {
+    for await (const _ of pool.linkAll(inputs.slice(0, WARMUP_MENTIONS))) sampler.checkpoint();
+    const digest = createHash("sha256");
+    const step = Math.max(1, Math.round(inputs.length / PROGRESS_STEPS));
+    let n = 0;
+    const started = process.hrtime.bigint();
+    // The digest is taken on the main thread, which waits on the threads most of the time.
+    for await (const row of pool.linkAll(inputs)) {
+      addRow(digest, row);
+      if (++n % CHECKPOINT_EVERY === 0) sampler.checkpoint();
+      if (n % step === 0) progress(`threads ${n}/${inputs.length}`);
+    }
+    const linkSeconds = seconds(started);
+    emit({
+      measure: "link-threads",
+      jobs: cfg.jobs,
+      mentions: n,
+      startSeconds: round(startSeconds, 2),
+      seconds: round(linkSeconds, 2),
+      mentionsPerSecond: Math.round(n / linkSeconds),
+      rowsSha256: digest.digest("hex"),
+    });
+  } finally {
+    await pool.close();
+  }
+  emit(rssLine("threads", sampler));
 }
 
 /** Mentions scored together in one pass of the brute-force baseline over the table. */
@@ -342,6 +408,7 @@ async function runPhase(phase: Phase, cfg: RunConfig): Promise<void> {
   if (phase === "generate") phaseGenerate(cfg);
   else if (phase === "build") await phaseBuild(cfg);
   else if (phase === "link") phaseLink(cfg);
+  else if (phase === "threads") await phaseThreads(cfg);
   else if (phase === "simple") await phaseSimple(cfg);
   else phaseBrute(cfg);
 }
@@ -412,6 +479,21 @@ async function orchestrate(o: CliOptions): Promise<void> {
     buildLines.forEach(emit);
     const linkLines = spawnPhase("link", cfg);
     linkLines.forEach(emit);
+    const oneThread = linkLines.find((l) => l.measure === "link");
+    const threadLines = cfg.jobs > 0 ? spawnPhase("threads", cfg) : [];
+    for (const line of threadLines) {
+      if (line.measure === "link-threads" && oneThread !== undefined) {
+        line.sameRowsAsOneThread = line.rowsSha256 === oneThread.rowsSha256;
+        line.speedupOverOneThread = round(
+          (line.mentionsPerSecond as number) / (oneThread.mentionsPerSecond as number),
+          2,
+        );
+      }
+      emit(line);
+    }
+    const threads = threadLines.find((l) => l.measure === "link-threads")?.mentionsPerSecond as
+      | number
+      | undefined;
     // The simple baseline, with hawser's figures of this run beside it: speed ratios (hawser's
     // throughput over the baseline's; below 1 means hawser is slower) and the F1 each reaches.
     const ours: Record<string, number | undefined> = {
@@ -427,6 +509,10 @@ async function orchestrate(o: CliOptions): Promise<void> {
         line.hawserPerSecond = mine;
         line.hawserSpeedRatio = round(mine / theirs, 3);
         if (phase === "link") line.hawserF1 = oursF1;
+        if (phase === "link" && threads !== undefined) {
+          line.hawserThreadsPerSecond = threads;
+          line.hawserThreadsSpeedRatio = round(threads / theirs, 3);
+        }
       }
       emit(line);
     }
@@ -490,6 +576,12 @@ async function main(argv: string[]): Promise<void> {
       "candidates scored per mention (linker maxCandidates, brute-force top k)",
       intOption("max-candidates", 1),
       DEFAULT_CANDIDATE_OPTIONS.maxCandidates,
+    )
+    .option(
+      "--jobs <j>",
+      "threads of the pool phase, which links the mentions again on J threads (0 skips it)",
+      intOption("jobs", 0),
+      DEFAULT_JOBS,
     )
     .option("--keep <dir>", "keep generated data and the KB under DIR, reusing data generated before")
     .option("--phase <phase>", "internal: run one phase in this process")
