@@ -170,6 +170,144 @@ describe("a pool of linking threads", () => {
   });
 });
 
+describe("what a pool is given, as one thread takes it", () => {
+  /** The rows one thread gives before the error, and the error (null: none). */
+  async function sequential(source: () => Iterable<Mention> | AsyncIterable<Mention>, stopAfter = Infinity) {
+    const linker = createLinker(kb);
+    const rows: LinkRow[] = [];
+    let error: unknown = null;
+    try {
+      for await (const r of linker.linkAll(source())) {
+        rows.push(r);
+        if (rows.length >= stopAfter) break;
+      }
+    } catch (e) {
+      error = e;
+    }
+    return { rows, error, warnings: linker.labels.warnings() };
+  }
+  async function pooled(
+    pool: LinkPool,
+    source: () => Iterable<Mention> | AsyncIterable<Mention>,
+    stopAfter = Infinity,
+  ) {
+    const rows: LinkRow[] = [];
+    let error: unknown = null;
+    try {
+      for await (const r of pool.linkAll(source())) {
+        rows.push(r);
+        if (rows.length >= stopAfter) break;
+      }
+    } catch (e) {
+      error = e;
+    }
+    return { rows, error, warnings: pool.labels.warnings() };
+  }
+  const single = () => mentions.map(({ doc: _doc, ...m }) => m);
+
+  it("reads a mention's fields when it comes: extra fields that cannot be copied, getters, one object reused", async () => {
+    // A function in a field the linker does not read once broke the pool for good.
+    const withFunction = () => single().map((m, i) => (i === 600 ? { ...m, note: () => 1 } : m));
+    class Held {
+      constructor(private readonly m: Mention) {}
+      get id() {
+        return this.m.id;
+      }
+      get text() {
+        return this.m.text;
+      }
+      get type() {
+        return this.m.type;
+      }
+      get context() {
+        return this.m.context;
+      }
+    }
+    const getters = () => single().map((m) => new Held(m) as unknown as Mention);
+    async function* reused(): AsyncGenerator<Mention> {
+      const one = {} as Mention;
+      for (const m of single().slice(0, 300)) {
+        Object.assign(one, { id: m.id, text: m.text, type: m.type, context: m.context });
+        yield one;
+      }
+    }
+    const pool = await LinkPool.start(kbFile, {}, 2);
+    try {
+      for (const source of [withFunction, getters, reused, withFunction]) {
+        const want = await sequential(source);
+        expect(want.error).toBeNull();
+        const got = await pooled(pool, source);
+        expect(got.error).toBeNull();
+        expect(got.rows).toEqual(want.rows);
+      }
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it("an invalid mention: the rows before it, then the linker's error", async () => {
+    const pool = await LinkPool.start(kbFile, {}, 2);
+    try {
+      for (const at of [0, 5, 300, 700]) {
+        const source = () => single().map((m, i) => (i === at ? { ...m, start: 9, end: 3 } : m));
+        const want = await sequential(source);
+        const got = await pooled(pool, source);
+        expect(want.rows.length).toBe(at);
+        expect(got.rows).toEqual(want.rows);
+        expect(got.error).toBeInstanceOf(UsageError);
+        expect((got.error as Error).message).toBe((want.error as Error).message);
+      }
+      // The pool links the next stream whole.
+      expect((await pooled(pool, () => single().slice(0, 40))).rows).toEqual(
+        (await sequential(() => single().slice(0, 40))).rows,
+      );
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it("counts labels in input order, and only of the rows given when the caller stops early", async () => {
+    // A long document with one label first, then mentions alone with another: the document's
+    // rows come back last of the first batches, but its label was met first.
+    const ordered = () => [
+      ...mentions.slice(0, 600).map((m, i) => ({ ...m, doc: "long", type: i === 0 ? "ZZA" : m.type })),
+      ...single()
+        .slice(0, 300)
+        .map((m, i) => ({ ...m, id: `s${i}`, type: i === 0 ? "ZZB" : m.type })),
+    ];
+    for (const stopAfter of [Infinity, 5, 601]) {
+      const want = await sequential(ordered, stopAfter);
+      const pool = await LinkPool.start(kbFile, {}, 2);
+      try {
+        const got = await pooled(pool, ordered, stopAfter);
+        expect(got.rows).toEqual(want.rows);
+        expect(got.warnings).toEqual(want.warnings);
+        await new Promise((resolve) => setTimeout(resolve, 200));
+        expect(pool.labels.warnings()).toEqual(want.warnings); // nothing counted after the stop
+      } finally {
+        await pool.close();
+      }
+    }
+    expect((await sequential(ordered)).warnings[0]).toMatch(/"ZZA"/);
+  });
+
+  it("takes its options as createLinker does: none, or an object", async () => {
+    const pool = await LinkPool.start(kbFile);
+    try {
+      expect(pool.jobs).toBe(2);
+      expect(await collect(pool.linkAll(mentions.slice(0, 20)))).toEqual(
+        await collect(createLinker(kb).linkAll(mentions.slice(0, 20))),
+      );
+    } finally {
+      await pool.close();
+    }
+    for (const bad of [null, [], "x"])
+      await expect(LinkPool.start(kbFile, bad as never, 2)).rejects.toThrow(
+        /^linker options must be an object/,
+      );
+  });
+});
+
 describe("link with jobs", () => {
   it("writes the file one thread writes, with the same summary", async () => {
     const a = await link({ kb: kbFile, mentions: mentionsFile, out: t.file("a.jsonl") });
@@ -209,8 +347,17 @@ describe("link with jobs", () => {
     const r = hawser(["link", "--kb", kbFile, mentionsFile, "--jobs", "2", "--out", "cli.jsonl"], t.dir);
     expect(r.status).toBe(0);
     expect(readFileSync(t.file("cli.jsonl"), "utf8")).toBe(readFileSync(t.file("a.jsonl"), "utf8"));
-    const zero = hawser(["link", "--kb", kbFile, mentionsFile, "--jobs", "0"], t.dir);
-    expect(zero.status).toBe(2);
-    expect(zero.stderr).toMatch(/--jobs must be a whole number >= 1/);
+    for (const n of ["0", "65", "1.5"]) {
+      const bad = hawser(["link", "--kb", kbFile, mentionsFile, "--jobs", n], t.dir);
+      expect(bad.status).toBe(2);
+      expect(bad.stderr).toMatch(/--jobs must be a whole number from 1 to 64/);
+    }
+    // A missing mentions file is named before the threads start, as with one thread.
+    const one = hawser(["link", "--kb", kbFile, "nosuch.jsonl"], t.dir);
+    const many = hawser(["link", "--kb", kbFile, "nosuch.jsonl", "--jobs", "8"], t.dir);
+    expect(one.status).toBe(1);
+    expect(many.status).toBe(1);
+    expect(many.stderr).toBe(one.stderr);
+    expect(many.stderr).toMatch(/nosuch\.jsonl: cannot read the file: no such file or directory \(ENOENT\)/);
   });
 });

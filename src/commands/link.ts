@@ -6,6 +6,7 @@ import { type LinkerOptions, createLinker } from "../link/linker.js";
 import { LinkPool, MAX_JOBS } from "../link/parallel.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
 import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
+import { checkReadable } from "../read/lines.js";
 import { keepingWarnings, warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
 import type { LinkRow, Mention, SearchPath } from "../types.js";
@@ -51,8 +52,8 @@ export interface LinkOptions extends Omit<ReadMentionsOptions, "labeled"> {
   stdout?: NodeJS.WritableStream | undefined;
   /**
    * Threads that link (src/link/parallel.ts), 1 to 64; the rows are the same with any number.
-   * Each thread holds its own copy of the KB's in-memory store (about 210 MB at a million
-   * entities). Default 1: linking on the calling thread.
+   * They share the KB's in-memory store; each keeps its own SQLite connection and caches (about
+   * 100 MB more per thread at a million entities). Default 1: linking on the calling thread.
    */
   jobs?: number | undefined;
 }
@@ -206,6 +207,9 @@ function linkingHere(options: LinkOptions): Linking {
 /** The KB is not loaded here: only its metadata is read, for the config's KB check. */
 async function linkingThreads(options: LinkOptions, jobs: number): Promise<Linking> {
   const info = readKbInfo(options.kb);
+  // Starting the threads takes seconds at a million entities: an unreadable input says so first.
+  checkReadable(options.mentions);
+  if (options.documents !== undefined) checkReadable(options.documents);
   const pool = await LinkPool.start(options.kb, linkerOptionsFrom(options, info.fingerprint), jobs);
   return { linkAll: (m) => pool.linkAll(m), labels: pool.labels, close: () => pool.close() };
 }

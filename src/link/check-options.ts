@@ -14,7 +14,7 @@ import { checkRange, checkWhole, shown, UsageError } from "../util/errors.js";
 /** Most edits a fuzzy correction may take: the fuzzy index holds up to two deletions a token (see src/kb/deletions.ts). */
 export const MAX_FUZZY_EDITS = 2;
 
-const isObject = (v: unknown): v is Record<string, unknown> =>
+export const isObject = (v: unknown): v is Record<string, unknown> =>
   typeof v === "object" && v !== null && !Array.isArray(v);
 /**
  * Score weights: a finite bias and a finite weight for every feature, no unknown name (a

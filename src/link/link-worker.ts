@@ -2,9 +2,8 @@
  * A linking thread of the worker pool (src/link/parallel.ts): opens the KB, makes a linker with
  * the pool's options, then links the batches of units it is sent, replying with their rows in
  * the order they came. Replies: `ready` once the linker is made (with the KB's in-memory store,
- * shared), `rows` per batch (with the
- * batch's counts of unknown and non-linkable labels), `failed` with the error of the opening or
- * of a batch.
+ * shared), `rows` per batch (with the failure of a unit, if one failed), `failed` with the
+ * error of the opening. The labels are counted by the pool, not here.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { Kb } from "../kb/kb.js";
@@ -12,6 +11,7 @@ import type { SharedHotArrays } from "../kb/hot.js";
 import { LabelMap } from "../labels/label-map.js";
 import { errorToMessage } from "../util/errors.js";
 import { createLinker, type Linker } from "./linker.js";
+import type { LinkRow } from "../types.js";
 import type { WorkerReply, WorkerRequest, WorkerSetup } from "./parallel.js";
 
 const port = parentPort;
@@ -35,14 +35,15 @@ try {
 
 port.on("message", (request: WorkerRequest) => {
   if (linker === undefined) return;
-  try {
-    const rows = request.units.flatMap((unit) => linker.linkUnit(unit));
-    const { unknown, skipped } = linker.labels;
-    reply({ kind: "rows", seq: request.seq, rows, unknown: [...unknown], skipped: [...skipped] });
-    // Counts go with each batch, so the pool adds them up in the input's order.
-    unknown.clear();
-    skipped.clear();
-  } catch (e) {
-    reply({ kind: "failed", seq: request.seq, error: errorToMessage(e) });
+  const rows: LinkRow[] = [];
+  for (const unit of request.units) {
+    try {
+      rows.push(...linker.linkUnit(unit));
+    } catch (e) {
+      // The rows before the failed unit, then its failure: what linkAll gives on one thread.
+      reply({ kind: "rows", seq: request.seq, rows, failure: errorToMessage(e) });
+      return;
+    }
   }
+  reply({ kind: "rows", seq: request.seq, rows });
 });

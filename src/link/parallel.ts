@@ -16,7 +16,8 @@ import type { SharedHotArrays } from "../kb/hot.js";
 import type { LabelInfo } from "../labels/builtin.js";
 import { LabelMap } from "../labels/label-map.js";
 import type { LinkRow, Mention } from "../types.js";
-import { checkWhole, type ErrorMessage, errorFromMessage, UsageError } from "../util/errors.js";
+import { checkWhole, type ErrorMessage, errorFromMessage, shown, UsageError } from "../util/errors.js";
+import { checkMention, isObject } from "./check-options.js";
 import type { LinkerOptions } from "./linker.js";
 import { checkMentionSource, type MentionUnit, mentionUnits } from "./units.js";
 
@@ -48,17 +49,14 @@ export interface WorkerRequest {
   units: MentionUnit[];
 }
 
-/** What a thread answers. */
+/**
+ * What a thread answers: `rows` of a batch, the rows of its units in order; when a unit failed,
+ * the rows of the units before it and the failure (the later units are not linked).
+ */
 export type WorkerReply =
   | { kind: "ready"; shared: SharedHotArrays }
-  | {
-      kind: "rows";
-      seq: number;
-      rows: LinkRow[];
-      unknown: Array<[string, number]>;
-      skipped: Array<[string, number]>;
-    }
-  | { kind: "failed"; seq?: number; error: ErrorMessage };
+  | { kind: "rows"; seq: number; rows: LinkRow[]; failure?: ErrorMessage }
+  | { kind: "failed"; error: ErrorMessage };
 
 /** The compiled worker script (tests running TypeScript sources use the build's). */
 function workerScript(): URL {
@@ -69,9 +67,14 @@ function workerScript(): URL {
   throw new Error(`the linking thread's script is missing (${fileURLToPath(own)}): run \`npm run build\``);
 }
 
+/** A batch's answer: its rows, and the failure of the unit after them, if one failed. */
+interface BatchRows {
+  rows: LinkRow[];
+  failure: Error | null;
+}
+
 interface Waiting {
-  seq: number;
-  resolve: (rows: LinkRow[]) => void;
+  resolve: (answer: BatchRows) => void;
   reject: (e: Error) => void;
 }
 
@@ -81,10 +84,7 @@ class Thread {
   /** Set when the thread failed outside a batch or stopped: every later batch fails with it. */
   broken: Error | null = null;
 
-  constructor(
-    readonly worker: Worker,
-    private readonly labels: LabelMap,
-  ) {
+  constructor(readonly worker: Worker) {
     worker.on("message", (m: WorkerReply) => this.answer(m));
     worker.on("error", (e) => this.fail(e));
     worker.on("exit", (code) => this.fail(new Error(`a linking thread stopped (exit code ${code})`)));
@@ -97,10 +97,9 @@ class Thread {
     const w = this.waiting.shift();
     if (this.waiting.length === 0) this.worker.unref();
     if (w === undefined) return;
-    if (m.kind === "rows") {
-      w.resolve(m.rows);
-      this.labels.addCounts(m.unknown, m.skipped);
-    } else w.reject(errorFromMessage(m.error));
+    if (m.kind === "rows")
+      w.resolve({ rows: m.rows, failure: m.failure === undefined ? null : errorFromMessage(m.failure) });
+    else w.reject(errorFromMessage(m.error));
   }
 
   private fail(e: Error): void {
@@ -109,28 +108,75 @@ class Thread {
     this.worker.unref();
   }
 
-  send(seq: number, units: MentionUnit[]): Promise<LinkRow[]> {
+  /** Sends a batch; its answer comes in the order batches were sent to this thread. */
+  send(seq: number, units: MentionUnit[]): Promise<BatchRows> {
     if (this.broken !== null) return Promise.reject(this.broken);
-    const rows = new Promise<LinkRow[]>((resolve, reject) => {
-      this.waiting.push({ seq, resolve, reject });
-    });
+    try {
+      this.worker.postMessage({ seq, units } satisfies WorkerRequest);
+    } catch (e) {
+      // Nothing was sent, so nothing is awaited from the thread (plainMention makes this rare).
+      return Promise.reject(
+        new UsageError(`a mention could not be sent to a linking thread: ${(e as Error).message}`),
+      );
+    }
     // Kept alive while it owes answers; idle threads do not hold the process open.
     this.worker.ref();
-    this.worker.postMessage({ seq, units } satisfies WorkerRequest);
-    return rows;
+    return new Promise<BatchRows>((resolve, reject) => this.waiting.push({ resolve, reject }));
   }
 }
 
 /**
- * Consecutive units gathered into batches of at least `size` mentions (the last may be
- * shorter). When the source fails, the batch under way is given first, then the failure.
+ * The mention as a thread is sent it: a plain object of the Mention fields, read now (a getter,
+ * a class instance or a proxy gives its values, and a source that reuses one object for every
+ * mention gives each its own copy); other fields, which the linker does not read, are left out.
+ */
+function plainMention(m: Mention): Mention {
+  const out: Record<string, unknown> = {};
+  for (const field of MENTION_FIELDS) {
+    const v = (m as unknown as Record<string, unknown>)[field];
+    if (v !== undefined) out[field] = v;
+  }
+  if (isObject(out.source)) out.source = { file: out.source.file, line: out.source.line };
+  return out as unknown as Mention;
+}
+
+/** The fields of a Mention (src/types.ts). */
+const MENTION_FIELDS = [
+  "id",
+  "text",
+  "type",
+  "context",
+  "doc",
+  "start",
+  "end",
+  "sentence",
+  "tokenStart",
+  "tokenEnd",
+  "source",
+] as const satisfies ReadonlyArray<keyof Mention>;
+
+/**
+ * Consecutive units gathered into batches of at least `size` mentions (the last may be shorter),
+ * each mention checked as the linker checks it and copied (plainMention). A unit with a mention
+ * the linker would refuse ends the batches there: the batch before it is given, then the error,
+ * as Linker.linkAll gives the rows of the units before it and then the error. When the source
+ * fails, the batch under way is given first, then the failure.
  */
 async function* batchesOf(units: AsyncIterable<MentionUnit>, size: number): AsyncGenerator<MentionUnit[]> {
   let batch: MentionUnit[] = [];
   let mentions = 0;
   try {
     for await (const unit of units) {
-      batch.push(unit);
+      let copied: MentionUnit;
+      try {
+        for (const m of unit) checkMention(m);
+        copied = unit.map(plainMention);
+      } catch (error) {
+        if (batch.length > 0) yield batch;
+        batch = [];
+        throw error;
+      }
+      batch.push(copied);
       mentions += unit.length;
       if (mentions >= size) {
         const full = batch;
@@ -146,6 +192,12 @@ async function* batchesOf(units: AsyncIterable<MentionUnit>, size: number): Asyn
   if (batch.length > 0) yield batch;
 }
 
+/** A batch sent, with its units (whose labels are counted when its rows are given). */
+interface Sent {
+  units: MentionUnit[];
+  answer: Promise<BatchRows>;
+}
+
 /**
  * Threads that link mentions (see the top of this file). Start one with `LinkPool.start`, link
  * with `linkAll` (as often as needed), and `close` it when done.
@@ -157,10 +209,13 @@ export class LinkPool {
 
   private constructor(
     workers: Worker[],
-    /** The label map, counting the unknown and non-linkable labels of every thread's mentions. */
+    /**
+     * The label map, counting the unknown and non-linkable labels of the mentions whose rows
+     * linkAll has given (as one linker's map counts those it has linked).
+     */
     readonly labels: LabelMap,
   ) {
-    this.threads = workers.map((w) => new Thread(w, labels));
+    this.threads = workers.map((w) => new Thread(w));
   }
 
   /** Number of threads. */
@@ -169,14 +224,15 @@ export class LinkPool {
   }
 
   /**
-   * Start `jobs` threads, each opening `kb` and making a linker with `options`; resolves when all
-   * are ready. Opening errors (not a KB, bad options) are thrown as openKb and createLinker throw
-   * them, and no thread is left running.
+   * Start `jobs` threads, each opening `kb` and making a linker with `options` (createLinker's;
+   * default none); resolves when all are ready. Opening errors (not a KB, bad options) are
+   * thrown as openKb and createLinker throw them, and no thread is left running.
    */
-  static async start(kb: string, options: LinkerOptions, jobs: number): Promise<LinkPool> {
+  static async start(kb: string, options: LinkerOptions = {}, jobs = 2): Promise<LinkPool> {
     checkWhole("jobs", jobs, 1, MAX_JOBS);
     if (typeof kb !== "string" || kb === "")
       throw new UsageError(`LinkPool.start needs the KB's file name, got ${JSON.stringify(kb)}`);
+    if (!isObject(options)) throw new UsageError(`linker options must be an object, got ${shown(options)}`);
     const { labels, ...rest } = options;
     if (labels !== undefined && !(labels instanceof LabelMap))
       throw new UsageError("labels must be a LabelMap (readLabelMapFile reads one from a file)");
@@ -220,7 +276,7 @@ export class LinkPool {
     checkMentionSource("linkAll", mentions);
     const batches = batchesOf(mentionUnits(mentions), BATCH_MENTIONS);
     /** Batches sent, oldest first: their rows are given in this order. */
-    const sent: Array<Promise<LinkRow[]>> = [];
+    const sent: Sent[] = [];
     let ended = false;
     let sourceFailure: { error: unknown } | null = null;
     const fill = async () => {
@@ -237,18 +293,26 @@ export class LinkPool {
           ended = true;
           return;
         }
-        const rows = this.leastBusy().send(this.nextSeq++, next.value);
+        const answer = this.leastBusy().send(this.nextSeq++, next.value);
         // Awaited in turn below; until then a failure must not count as unhandled.
-        rows.catch(() => {});
-        sent.push(rows);
+        answer.catch(() => {});
+        sent.push({ units: next.value, answer });
       }
     };
     try {
       await fill();
       while (sent.length > 0) {
-        const rows = await sent.shift()!;
-        await fill();
-        yield* rows;
+        const batch = sent.shift()!;
+        const { rows, failure } = await batch.answer;
+        if (failure === null) await fill();
+        let at = 0;
+        for (const unit of batch.units) {
+          if (at >= rows.length) break; // the units after a failed one were not linked
+          // Counted as the linker counts them: a unit's labels before its first row is given.
+          for (const m of unit) this.labels.forMention(m.type);
+          for (let i = 0; i < unit.length; i++) yield rows[at++]!;
+        }
+        if (failure !== null) throw failure;
       }
       if (sourceFailure !== null) throw (sourceFailure as { error: unknown }).error;
     } finally {

@@ -3,7 +3,7 @@
  * numbers. Every line-oriented reader (JSONL, CoNLL) is built on this.
  */
 
-import { createReadStream } from "node:fs";
+import { accessSync, createReadStream, constants as fsConstants, statSync } from "node:fs";
 import { createInterface } from "node:readline";
 import { pipeline, type Transform } from "node:stream";
 import { InputError } from "../util/errors.js";
@@ -34,6 +34,22 @@ export function fileError(file: string, error: unknown): Error {
     return new InputError({ file }, `cannot read the file: ${reason} (${code})`);
   }
   return error instanceof Error ? error : new Error(String(error));
+}
+
+/**
+ * Throws the error reading `file` would end in when it is missing, unreadable or a folder (the
+ * same InputError), without opening it: for a caller with costly work to do before it reads
+ * (a pool of linking threads to start). Standard input and named pipes pass.
+ */
+export function checkReadable(file: string): void {
+  if (file === STDIN) return;
+  try {
+    accessSync(file, fsConstants.R_OK);
+    if (statSync(file).isDirectory())
+      throw Object.assign(new Error("EISDIR: illegal operation on a directory, read"), { code: "EISDIR" });
+  } catch (e) {
+    throw fileError(file, e);
+  }
 }
 
 /** Receives the file's raw bytes as they are read (e.g. to hash the file in the same pass). */
