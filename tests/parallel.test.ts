@@ -5,6 +5,7 @@
  * The threads run the build's worker script (dist/link/link-worker.js), as the CLI tests do.
  */
 import { readFileSync, writeFileSync } from "node:fs";
+import { availableParallelism } from "node:os";
 import { join } from "node:path";
 import { Writable } from "node:stream";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -171,38 +172,27 @@ describe("a pool of linking threads", () => {
 });
 
 describe("what a pool is given, as one thread takes it", () => {
-  /** The rows one thread gives before the error, and the error (null: none). */
-  async function sequential(source: () => Iterable<Mention> | AsyncIterable<Mention>, stopAfter = Infinity) {
+  /** The rows given before an error or the stop, the error (null: none), and the label warnings. */
+  async function drain(rowsOf: AsyncIterable<LinkRow>, labels: LabelMap, stopAfter: number) {
+    const rows: LinkRow[] = [];
+    let error: unknown = null;
+    try {
+      for await (const r of rowsOf) {
+        rows.push(r);
+        if (rows.length >= stopAfter) break;
+      }
+    } catch (e) {
+      error = e;
+    }
+    return { rows, error, warnings: labels.warnings() };
+  }
+  type Source = () => Iterable<Mention> | AsyncIterable<Mention>;
+  const sequential = (source: Source, stopAfter = Infinity) => {
     const linker = createLinker(kb);
-    const rows: LinkRow[] = [];
-    let error: unknown = null;
-    try {
-      for await (const r of linker.linkAll(source())) {
-        rows.push(r);
-        if (rows.length >= stopAfter) break;
-      }
-    } catch (e) {
-      error = e;
-    }
-    return { rows, error, warnings: linker.labels.warnings() };
-  }
-  async function pooled(
-    pool: LinkPool,
-    source: () => Iterable<Mention> | AsyncIterable<Mention>,
-    stopAfter = Infinity,
-  ) {
-    const rows: LinkRow[] = [];
-    let error: unknown = null;
-    try {
-      for await (const r of pool.linkAll(source())) {
-        rows.push(r);
-        if (rows.length >= stopAfter) break;
-      }
-    } catch (e) {
-      error = e;
-    }
-    return { rows, error, warnings: pool.labels.warnings() };
-  }
+    return drain(linker.linkAll(source()), linker.labels, stopAfter);
+  };
+  const pooled = (pool: LinkPool, source: Source, stopAfter = Infinity) =>
+    drain(pool.linkAll(source()), pool.labels, stopAfter);
   const single = () => mentions.map(({ doc: _doc, ...m }) => m);
 
   it("reads a mention's fields when it comes: extra fields that cannot be copied, getters, one object reused", async () => {
@@ -294,7 +284,7 @@ describe("what a pool is given, as one thread takes it", () => {
   it("takes its options as createLinker does: none, or an object", async () => {
     const pool = await LinkPool.start(kbFile);
     try {
-      expect(pool.jobs).toBe(2);
+      expect(pool.jobs).toBe(Math.min(availableParallelism(), 64));
       expect(await collect(pool.linkAll(mentions.slice(0, 20)))).toEqual(
         await collect(createLinker(kb).linkAll(mentions.slice(0, 20))),
       );

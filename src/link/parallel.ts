@@ -10,6 +10,7 @@
  * connection, caches and vocabulary map (about 100 MB more at a million entities).
  */
 import { existsSync } from "node:fs";
+import { availableParallelism } from "node:os";
 import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import type { SharedHotArrays } from "../kb/hot.js";
@@ -224,11 +225,16 @@ export class LinkPool {
   }
 
   /**
-   * Start `jobs` threads, each opening `kb` and making a linker with `options` (createLinker's;
-   * default none); resolves when all are ready. Opening errors (not a KB, bad options) are
+   * Start `jobs` threads (default: one per processor this process may use, at most MAX_JOBS),
+   * each opening `kb` and making a linker with `options` (createLinker's; default none);
+   * resolves when all are ready. Opening errors (not a KB, bad options) are
    * thrown as openKb and createLinker throw them, and no thread is left running.
    */
-  static async start(kb: string, options: LinkerOptions = {}, jobs = 2): Promise<LinkPool> {
+  static async start(
+    kb: string,
+    options: LinkerOptions = {},
+    jobs = Math.min(availableParallelism(), MAX_JOBS),
+  ): Promise<LinkPool> {
     checkWhole("jobs", jobs, 1, MAX_JOBS);
     if (typeof kb !== "string" || kb === "")
       throw new UsageError(`LinkPool.start needs the KB's file name, got ${JSON.stringify(kb)}`);
