@@ -22,7 +22,7 @@ import { checkMention, isObject } from "./check-options.js";
 import type { LinkerOptions } from "./linker.js";
 import { checkMentionSource, type MentionUnit, mentionUnits } from "./units.js";
 
-/** Most threads a pool runs (each holds a copy of the KB's in-memory store). */
+/** Most threads a pool runs (each keeps its own SQLite connection and caches). */
 export const MAX_JOBS = 64;
 /**
  * Mentions sent to a thread at a time (whole units: one document's run may make a batch
@@ -75,6 +75,7 @@ interface BatchRows {
 }
 
 interface Waiting {
+  seq: number;
   resolve: (answer: BatchRows) => void;
   reject: (e: Error) => void;
 }
@@ -98,7 +99,10 @@ class Thread {
     const w = this.waiting.shift();
     if (this.waiting.length === 0) this.worker.unref();
     if (w === undefined) return;
-    if (m.kind === "rows")
+    // A thread answers its batches in the order it got them; anything else would misplace rows.
+    if (m.kind === "rows" && m.seq !== w.seq)
+      w.reject(new Error(`a linking thread answered batch ${m.seq} where ${w.seq} was due`));
+    else if (m.kind === "rows")
       w.resolve({ rows: m.rows, failure: m.failure === undefined ? null : errorFromMessage(m.failure) });
     else w.reject(errorFromMessage(m.error));
   }
@@ -122,7 +126,7 @@ class Thread {
     }
     // Kept alive while it owes answers; idle threads do not hold the process open.
     this.worker.ref();
-    return new Promise<BatchRows>((resolve, reject) => this.waiting.push({ resolve, reject }));
+    return new Promise<BatchRows>((resolve, reject) => this.waiting.push({ seq, resolve, reject }));
   }
 }
 
