@@ -9,6 +9,7 @@ import { availableParallelism } from "node:os";
 import { join } from "node:path";
 import { Writable } from "node:stream";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { evaluate } from "../src/commands/evaluate.js";
 import { link } from "../src/commands/link.js";
 import { SAMPLES_DIR } from "../src/commands/demo.js";
 import { buildKb } from "../src/kb/build.js";
@@ -328,6 +329,18 @@ describe("link with jobs", () => {
     const rows = written.join("").trim().split("\n");
     expect(rows.length).toBe(400);
     expect(rows).toEqual(readFileSync(t.file("a.jsonl"), "utf8").trim().split("\n").slice(0, 400));
+  });
+
+  it("eval with jobs gives the report of one thread (candidate recall at k too)", async () => {
+    const gold = join(SAMPLES_DIR, "gazette-gold.jsonl");
+    for (const k of [undefined, 5]) {
+      const one = await evaluate({ kb: kbFile, gold, ...(k ? { k } : {}) });
+      const two = await evaluate({ kb: kbFile, gold, jobs: 2, ...(k ? { k } : {}) });
+      expect(two).toEqual(one);
+    }
+    await expect(evaluate({ kb: kbFile, gold, jobs: 65 })).rejects.toThrow(
+      "evaluate: jobs must be a whole number in [1, 64], got 65",
+    );
   });
 
   it("refuses jobs out of range; the command line takes --jobs", async () => {

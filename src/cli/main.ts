@@ -67,6 +67,13 @@ function wholeIn(name: string, min: number, max: number) {
     return x;
   };
 }
+/** --jobs of the commands that link (link, eval). */
+function jobsOption(): Option {
+  return new Option(
+    "--jobs <n>",
+    `threads that link, 1-${MAX_JOBS}, same rows; each adds its own caches, about 100 MB at a million entities (default 1)`,
+  ).argParser(wholeIn("--jobs", 1, MAX_JOBS));
+}
 function nonNegative(name: string) {
   return (v: string) => {
     const x = numberOf(name, v);
@@ -253,11 +260,7 @@ export function program(): Command {
             "csv",
           ]),
         )
-        .option(
-          "--jobs <n>",
-          `threads that link, 1-${MAX_JOBS}, same rows; each adds its own caches, about 100 MB at a million entities (default 1)`,
-          wholeIn("--jobs", 1, MAX_JOBS),
-        ),
+        .addOption(jobsOption()),
     ),
   ).action(async (mentions: string, o: Record<string, unknown>) => {
     const s = await link({
@@ -291,6 +294,7 @@ export function program(): Command {
           ]),
         )
         .option("--k <k>", "k of candidate recall at k (default 3)", whole("--k", 1))
+        .addOption(jobsOption())
         .option("--json", "print the full report as JSON"),
     ),
   ).action(async (o: Record<string, unknown>) => {
@@ -307,6 +311,7 @@ export function program(): Command {
       ...(o.predicted ? { predicted: o.predicted as string } : {}),
       ...(o.spanMatch ? { spanMatch: o.spanMatch as "strict" | "relaxed" } : {}),
       ...(o.k ? { k: o.k as number } : {}),
+      ...(o.jobs !== undefined ? { jobs: o.jobs as number } : {}),
     });
     out(o.json ? JSON.stringify(report, null, 2) : formatEvalTable(report));
   });

@@ -2,7 +2,9 @@
 import { type AlignMode, type AlignedEvalReport, alignSpans, evaluateAligned } from "../evaluate/align.js";
 import { DEFAULT_CANDIDATE_K, type EvalReport, evaluate as measure } from "../evaluate/metrics.js";
 import { type Kb, openKb } from "../kb/kb.js";
-import { createLinker, DEFAULT_TOP } from "../link/linker.js";
+import { DEFAULT_TOP, type LinkerOptions } from "../link/linker.js";
+import { type Linking, linkingHere, linkingOn } from "../link/linking.js";
+import { MAX_JOBS } from "../link/parallel.js";
 import { readMentions, readJsonLines } from "../read/index.js";
 import { keepingWarnings, type ReadWarning, warningLine } from "../read/warnings.js";
 import type { LabeledMention, LinkRow } from "../types.js";
@@ -25,6 +27,7 @@ export interface EvalOptions
     | "from"
     | "documents"
     | "window"
+    | "jobs"
   > {
   /** KB file (not read when `predicted` is given). */
   kb?: string | undefined;
@@ -127,6 +130,7 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
   requireCallback("evaluate", "warn", options.warn);
   if (options.k !== undefined) checkWhole("evaluate: k", options.k, 1);
   if (options.top !== undefined) checkWhole("evaluate: top", options.top, 0);
+  const jobs = options.jobs === undefined ? 1 : checkWhole("evaluate: jobs", options.jobs, 1, MAX_JOBS);
   if (options.spanMatch !== undefined && options.predicted === undefined) {
     throw new UsageError(
       "--span-match needs --predicted (rows from another NER run to align with the gold spans)",
@@ -154,26 +158,43 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
     return { ...evaluateAligned(alignment, k), warnings };
   }
   const kb = openKb(options.kb as string); // required above when there are no predicted rows
+  let linkerOptions: LinkerOptions;
   try {
     warnUnknownGold(kb, gold, options.gold, note);
-    const linkerOptions = linkerOptionsFrom(options, kb.info.fingerprint);
-    // Candidate recall at k reads the rows' candidate lists: they must hold k candidates.
-    linkerOptions.top = Math.max(linkerOptions.top ?? DEFAULT_TOP, options.k ?? DEFAULT_CANDIDATE_K);
-    const linker = createLinker(kb, linkerOptions);
+    linkerOptions = linkerOptionsFrom(options, kb.info.fingerprint);
+  } catch (e) {
+    kb.close();
+    throw e;
+  }
+  // Candidate recall at k reads the rows' candidate lists: they must hold k candidates.
+  linkerOptions.top = Math.max(linkerOptions.top ?? DEFAULT_TOP, options.k ?? DEFAULT_CANDIDATE_K);
+  let linking: Linking;
+  if (jobs > 1) {
+    kb.close(); // the threads open it
+    linking = await linkingOn(jobs, options.kb as string, linkerOptions);
+  } else {
+    try {
+      linking = linkingHere(kb, linkerOptions);
+    } catch (e) {
+      kb.close();
+      throw e;
+    }
+  }
+  try {
     const pairs = [];
     let i = 0;
     const bar = progress("linking", options.progress);
     try {
-      for await (const row of linker.linkAll(gold)) {
+      for await (const row of linking.linkAll(gold)) {
         pairs.push({ gold: gold[i++]!, predicted: row });
         bar.tick();
       }
     } finally {
       bar.stop();
     }
-    for (const w of linker.labels.warnings()) note(w);
+    for (const w of linking.labels.warnings()) note(w);
     return { ...measure(pairs, k), warnings };
   } finally {
-    kb.close();
+    await linking.close();
   }
 }

@@ -1,15 +1,16 @@
 /** `hawser link` as a library call: link a mentions file against a KB, writing one row per mention. */
 import { extname } from "node:path";
-import { openKb, readKbInfo } from "../kb/kb.js";
+import { readKbInfo } from "../kb/kb.js";
 import { LabelMap, readLabelMapFile } from "../labels/label-map.js";
-import { type LinkerOptions, createLinker } from "../link/linker.js";
-import { LinkPool, MAX_JOBS } from "../link/parallel.js";
+import type { LinkerOptions } from "../link/linker.js";
+import { type Linking, linkingOn } from "../link/linking.js";
+import { MAX_JOBS } from "../link/parallel.js";
 import { csvHeader, csvRow, jsonlRow, type OutputFormat } from "../link/write.js";
 import { type ReadMentionsOptions, readMentions, resolveFormat } from "../read/index.js";
 import { checkReadable } from "../read/lines.js";
 import { keepingWarnings, warningLine } from "../read/warnings.js";
 import { readConfig } from "../tune/config.js";
-import type { LinkRow, Mention, SearchPath } from "../types.js";
+import type { SearchPath } from "../types.js";
 import { AtomicWriter, checkOutputFile } from "../util/atomic-file.js";
 import { checkWhole, requireCallback, requirePaths, UsageError } from "../util/errors.js";
 import { progress } from "../util/progress.js";
@@ -141,7 +142,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
       ["--documents", options.documents],
     ]);
   const jobs = options.jobs === undefined ? 1 : checkWhole("link: jobs", options.jobs, 1, MAX_JOBS);
-  const linking = jobs > 1 ? await linkingThreads(options, jobs) : linkingHere(options);
+  const rows = await linking(options, jobs);
   const { warnings, note } = keepingWarnings(options.warn);
   try {
     const source = readMentions(options.mentions, {
@@ -159,7 +160,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
     let linked = 0;
     try {
       if (format === "csv") await emit(csvHeader());
-      for await (const row of linking.linkAll(source)) {
+      for await (const row of rows.linkAll(source)) {
         n++;
         if (row.entity !== null) linked++;
         await emit(format === "csv" ? csvRow(row) : jsonlRow(row));
@@ -172,7 +173,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
     } finally {
       bar.stop();
     }
-    for (const w of linking.labels.warnings()) note(w);
+    for (const w of rows.labels.warnings()) note(w);
     return {
       mentions: n,
       linked,
@@ -182,34 +183,21 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
       seconds: (Date.now() - started) / 1000,
     };
   } finally {
-    await linking.close();
+    await rows.close();
   }
 }
 
-/** What links the rows of a run: a linker on this thread, or a pool of threads. */
-interface Linking {
-  linkAll(mentions: AsyncIterable<Mention>): AsyncIterable<LinkRow>;
-  readonly labels: LabelMap;
-  close(): void | Promise<void>;
-}
-
-function linkingHere(options: LinkOptions): Linking {
-  const kb = openKb(options.kb);
-  try {
-    const linker = createLinker(kb, linkerOptionsFrom(options, kb.info.fingerprint));
-    return { linkAll: (m) => linker.linkAll(m), labels: linker.labels, close: () => kb.close() };
-  } catch (e) {
-    kb.close();
-    throw e;
-  }
-}
-
-/** The KB is not loaded here: only its metadata is read, for the config's KB check. */
-async function linkingThreads(options: LinkOptions, jobs: number): Promise<Linking> {
+/**
+ * The KB's metadata is read here for the config's KB check, and the KB itself opened by the
+ * linker's thread or threads.
+ */
+async function linking(options: LinkOptions, jobs: number): Promise<Linking> {
   const info = readKbInfo(options.kb);
-  // Starting the threads takes seconds at a million entities: an unreadable input says so first.
-  checkReadable(options.mentions);
-  if (options.documents !== undefined) checkReadable(options.documents);
-  const pool = await LinkPool.start(options.kb, linkerOptionsFrom(options, info.fingerprint), jobs);
-  return { linkAll: (m) => pool.linkAll(m), labels: pool.labels, close: () => pool.close() };
+  const linkerOptions = linkerOptionsFrom(options, info.fingerprint);
+  if (jobs > 1) {
+    // Starting the threads takes seconds at a million entities: an unreadable input says so first.
+    checkReadable(options.mentions);
+    if (options.documents !== undefined) checkReadable(options.documents);
+  }
+  return linkingOn(jobs, options.kb, linkerOptions);
 }
