@@ -51,19 +51,15 @@ function unit(name: string) {
     return x;
   };
 }
-function whole(name: string, min: number) {
-  return (v: string) => {
-    const x = numberOf(name, v);
-    if (!Number.isInteger(x) || x < min)
-      throw new InvalidArgumentError(`${name} must be a whole number >= ${min}`);
-    return x;
-  };
-}
-function wholeIn(name: string, min: number, max: number) {
+function whole(name: string, min: number, max = Number.POSITIVE_INFINITY) {
   return (v: string) => {
     const x = numberOf(name, v);
     if (!Number.isInteger(x) || x < min || x > max)
-      throw new InvalidArgumentError(`${name} must be a whole number from ${min} to ${max}`);
+      throw new InvalidArgumentError(
+        max === Number.POSITIVE_INFINITY
+          ? `${name} must be a whole number >= ${min}`
+          : `${name} must be a whole number from ${min} to ${max}`,
+      );
     return x;
   };
 }
@@ -72,7 +68,7 @@ function jobsOption(): Option {
   return new Option(
     "--jobs <n>",
     `threads that link, 1-${MAX_JOBS}, same rows; more memory (at a million entities 380 MB on 1, 580 on 2); no more than the processors (default 1)`,
-  ).argParser(wholeIn("--jobs", 1, MAX_JOBS));
+  ).argParser(whole("--jobs", 1, MAX_JOBS));
 }
 function nonNegative(name: string) {
   return (v: string) => {

@@ -172,14 +172,7 @@ export async function evaluate(options: EvalOptions): Promise<EvalResult> {
   if (jobs > 1) {
     kb.close(); // the threads open it
     linking = await linkingOn(jobs, options.kb as string, linkerOptions);
-  } else {
-    try {
-      linking = linkingHere(kb, linkerOptions);
-    } catch (e) {
-      kb.close();
-      throw e;
-    }
-  }
+  } else linking = linkingHere(kb, linkerOptions);
   try {
     const pairs = [];
     let i = 0;

@@ -143,7 +143,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
       ["--documents", options.documents],
     ]);
   const jobs = options.jobs === undefined ? 1 : checkWhole("link: jobs", options.jobs, 1, MAX_JOBS);
-  const rows = await linking(options, jobs);
+  const linker = await linking(options, jobs);
   const { warnings, note } = keepingWarnings(options.warn);
   try {
     const source = readMentions(options.mentions, {
@@ -161,7 +161,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
     let linked = 0;
     try {
       if (format === "csv") await emit(csvHeader());
-      for await (const row of rows.linkAll(source)) {
+      for await (const row of linker.linkAll(source)) {
         n++;
         if (row.entity !== null) linked++;
         await emit(format === "csv" ? csvRow(row) : jsonlRow(row));
@@ -174,7 +174,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
     } finally {
       bar.stop();
     }
-    for (const w of rows.labels.warnings()) note(w);
+    for (const w of linker.labels.warnings()) note(w);
     return {
       mentions: n,
       linked,
@@ -184,7 +184,7 @@ export async function link(options: LinkOptions): Promise<LinkSummary> {
       seconds: (Date.now() - started) / 1000,
     };
   } finally {
-    await rows.close();
+    await linker.close();
   }
 }
 

@@ -62,15 +62,6 @@ export class LabelMap {
     return this.own.map(([k, v]) => [k, v]);
   }
 
-  /**
-   * Add another map's counts of unknown and non-linkable labels to this one's, in their order
-   * (a linking thread's counts, src/link/parallel.ts).
-   */
-  addCounts(unknown: Iterable<[string, number]>, skipped: Iterable<[string, number]>): void {
-    for (const [label, n] of unknown) this.unknown.set(label, (this.unknown.get(label) ?? 0) + n);
-    for (const [label, n] of skipped) this.skipped.set(label, (this.skipped.get(label) ?? 0) + n);
-  }
-
   /** The info for a label, or null when the label is unknown (also counted). */
   lookup(label: string | undefined | null): LabelInfo | null {
     if (label === undefined || label === null || label.trim() === "") return null;

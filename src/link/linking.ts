@@ -5,7 +5,7 @@
 import { type Kb, openKb } from "../kb/kb.js";
 import type { LabelMap } from "../labels/label-map.js";
 import type { LinkRow, Mention } from "../types.js";
-import { createLinker, type LinkerOptions } from "./linker.js";
+import { createLinker, type Linker, type LinkerOptions } from "./linker.js";
 import { LinkPool } from "./parallel.js";
 
 export interface Linking {
@@ -17,23 +17,21 @@ export interface Linking {
   close(): void | Promise<void>;
 }
 
-/** Linking on this thread with `kb` (closed with the Linking). */
+/** Linking on this thread with `kb`, closed with the Linking (or at once when the options are refused). */
 export function linkingHere(kb: Kb, options: LinkerOptions): Linking {
-  const linker = createLinker(kb, options);
+  let linker: Linker;
+  try {
+    linker = createLinker(kb, options);
+  } catch (e) {
+    kb.close();
+    throw e;
+  }
   return { linkAll: (m) => linker.linkAll(m), labels: linker.labels, close: () => kb.close() };
 }
 
 /** Linking on `jobs` threads (1: this thread) with the KB file `kb`. */
 export async function linkingOn(jobs: number, kb: string, options: LinkerOptions): Promise<Linking> {
-  if (jobs === 1) {
-    const opened = openKb(kb);
-    try {
-      return linkingHere(opened, options);
-    } catch (e) {
-      opened.close();
-      throw e;
-    }
-  }
+  if (jobs === 1) return linkingHere(openKb(kb), options);
   const pool = await LinkPool.start(kb, options, jobs);
   return { linkAll: (m) => pool.linkAll(m), labels: pool.labels, close: () => pool.close() };
 }

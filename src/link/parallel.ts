@@ -96,16 +96,15 @@ class Thread {
   }
 
   private answer(m: WorkerReply): void {
-    if (m.kind === "ready") return;
+    // After `ready` (see ready()), a thread sends nothing but rows.
+    if (m.kind !== "rows") return;
     const w = this.waiting.shift();
     if (this.waiting.length === 0) this.worker.unref();
     if (w === undefined) return;
     // A thread answers its batches in the order it got them; anything else would misplace rows.
-    if (m.kind === "rows" && m.seq !== w.seq)
+    if (m.seq !== w.seq)
       w.reject(new Error(`a linking thread answered batch ${m.seq} where ${w.seq} was due`));
-    else if (m.kind === "rows")
-      w.resolve({ rows: m.rows, failure: m.failure === undefined ? null : errorFromMessage(m.failure) });
-    else w.reject(errorFromMessage(m.error));
+    else w.resolve({ rows: m.rows, failure: m.failure === undefined ? null : errorFromMessage(m.failure) });
   }
 
   private fail(e: Error): void {
